@@ -1,0 +1,1 @@
+"""heatledger_xl"""

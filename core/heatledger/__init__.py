@@ -1,0 +1,1 @@
+"""heatledger: heat-transfer engine."""
