@@ -1,0 +1,193 @@
+"""Thermal resistance of air layers in building elements (EN ISO 6946:2017, 6.9 and Annex D).
+
+An air layer is *unventilated*, *slightly ventilated* or *well ventilated* according to the
+area of openings to the outside. Unventilated layers have the resistance of Annex D (Table 8
+lists it for emissivities 0.9); slightly and well ventilated layers are treated in
+:mod:`heatledger.constructions`, which knows the layers on either side.
+
+References
+----------
+EN ISO 6946:2017, 6.9 (air layers), Table 8 (unventilated air layers), Annex D (eqs D.1-D.5).
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from ._validate import choice, finite, fraction, non_negative, positive
+from .errors import HeatLedgerError
+from .surfaces import HEAT_FLOWS, radiative_coefficient_black_body
+
+__all__ = [
+    "VENTILATION_CLASSES",
+    "air_layer_resistance",
+    "air_layer_convective_coefficient",
+    "ventilation_class",
+]
+
+VENTILATION_CLASSES = ("unventilated", "slightly", "well")
+
+#: Upper thickness limit of the Annex D method. [m]
+MAX_AIR_LAYER_THICKNESS = 0.3
+#: Opening area per m (vertical) or per m2 (horizontal) up to which a layer is unventilated,
+#: and from which it is well ventilated. [mm2]  source: EN ISO 6946:2017, 6.9.2-6.9.4
+VENT_AREA_UNVENTILATED_MM2 = 500.0
+VENT_AREA_WELL_VENTILATED_MM2 = 1500.0
+
+
+def air_layer_resistance(
+    thickness,
+    heat_flow: str,
+    emissivity_1: float = 0.9,
+    emissivity_2: float = 0.9,
+    *,
+    temp_mean: float = 10.0,
+    width: float | None = None,
+):
+    """Thermal resistance of an unventilated air layer.
+
+    Parameters
+    ----------
+    thickness : float or array_like
+        Thickness of the air layer in the direction of heat flow, up to 0.3 m. [m]
+    heat_flow : str
+        ``"up"``, ``"horizontal"`` or ``"down"``. [-]
+    emissivity_1, emissivity_2 : float
+        Hemispherical emissivities of the two faces bounding the layer. [-]
+    temp_mean : float
+        Mean temperature of the layer, for the radiative coefficient. [degC]
+    width : float, optional
+        Width ``b`` of a small or divided void; when given and ``b < 10 d`` the radiative
+        term uses the view-factor form for small voids. [m]
+
+    Returns
+    -------
+    float or ndarray
+        Thermal resistance ``Rg``. [m2 K/W]
+
+    Raises
+    ------
+    HeatLedgerError
+        If the thickness is negative or above 0.3 m, an emissivity is outside (0, 1] or the
+        direction is unknown.
+
+    Notes
+    -----
+    ``Rg = 1/(ha + E hr0)`` with ``E = 1/(1/e1 + 1/e2 - 1)``, ``hr0 = 4 sigma T_m^3`` and
+    ``ha = max(1.25, 0.025/d)`` horizontal, ``max(1.95, 0.025/d)`` upwards,
+    ``max(0.12 d^-0.44, 0.025/d)`` downwards (ha in W/(m2 K), d in m; the conduction limit
+    0.025/d uses the conductivity of still air). For a small void the radiative term is
+    ``hr0 / (1/e1 + 1/e2 - 2 + 2/(1 + sqrt(1 + d^2/b^2) - d/b))``. Valid for a temperature
+    difference across the layer of at most 5 K.
+
+    References
+    ----------
+    EN ISO 6946:2017, Annex D, eqs (D.1)-(D.5) and Table 8 (recalled; Table 8 is reproduced
+    within 0.005 m2 K/W, see the tests).
+
+    Examples
+    --------
+    >>> round(air_layer_resistance(0.025, "horizontal"), 2)
+    0.18
+    """
+    heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
+    e1 = fraction("emissivity_1", emissivity_1, allow_zero=False)
+    e2 = fraction("emissivity_2", emissivity_2, allow_zero=False)
+    d = _thickness_array(thickness)
+    h_r0 = radiative_coefficient_black_body(finite("temp_mean", temp_mean))
+    if width is None:
+        radiative = h_r0 / (1.0 / e1 + 1.0 / e2 - 1.0)
+    else:
+        b = positive("width", width, "m")
+        ratio = d / b
+        radiative = h_r0 / (1.0 / e1 + 1.0 / e2 - 2.0
+                            + 2.0 / (1.0 + (1.0 + ratio**2) ** 0.5 - ratio))
+    h_a = air_layer_convective_coefficient(d, heat_flow)
+    out = 1.0 / (h_a + radiative)
+    out = np.where(d == 0.0, 0.0, out)
+    return float(out) if out.ndim == 0 else out
+
+
+def air_layer_convective_coefficient(thickness, heat_flow: str):
+    """Convective/conductive coefficient ``ha`` of an unventilated air layer.
+
+    Parameters
+    ----------
+    thickness : float or array_like
+        Thickness of the layer in the direction of heat flow. [m]
+    heat_flow : str
+        ``"up"``, ``"horizontal"`` or ``"down"``. [-]
+
+    Returns
+    -------
+    float or ndarray
+        ``ha``. [W/(m2 K)]
+
+    References
+    ----------
+    EN ISO 6946:2017, Annex D, eqs (D.2)-(D.4) for a temperature difference <= 5 K
+    (recalled).
+    """
+    heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
+    d = _thickness_array(thickness)
+    with np.errstate(divide="ignore"):
+        conduction = np.where(d > 0.0, 0.025 / np.where(d > 0.0, d, 1.0), np.inf)
+        if heat_flow == "horizontal":
+            conv = np.full_like(d, 1.25)
+        elif heat_flow == "up":
+            conv = np.full_like(d, 1.95)
+        else:
+            conv = 0.12 * np.where(d > 0.0, d, 1.0) ** -0.44
+    out = np.maximum(conv, conduction)
+    return float(out) if out.ndim == 0 else out
+
+
+def ventilation_class(vent_area_mm2: float) -> str:
+    """Ventilation class of an air layer from the area of its openings to the outside.
+
+    Parameters
+    ----------
+    vent_area_mm2 : float
+        Opening area per metre of length (vertical layers) or per square metre of surface
+        (horizontal layers). [mm2]
+
+    Returns
+    -------
+    str
+        ``"unventilated"`` (<= 500 mm2), ``"slightly"`` (500 to 1500 mm2) or ``"well"``
+        (>= 1500 mm2).
+
+    References
+    ----------
+    EN ISO 6946:2017, 6.9.2-6.9.4 (thresholds confirmed in a secondary source).
+
+    Examples
+    --------
+    >>> ventilation_class(800)
+    'slightly'
+    """
+    area = non_negative("vent_area_mm2", vent_area_mm2, "mm2")
+    if area <= VENT_AREA_UNVENTILATED_MM2:
+        return "unventilated"
+    if area < VENT_AREA_WELL_VENTILATED_MM2:
+        return "slightly"
+    return "well"
+
+
+def _thickness_array(thickness):
+    d = np.asarray(thickness, dtype=float)
+    if not np.isfinite(d).all():
+        raise HeatLedgerError(f"air layer thickness must be a finite number; got {thickness!r}")
+    if (d < 0.0).any():
+        raise HeatLedgerError(f"air layer thickness must not be negative; got {thickness!r}")
+    if (d > MAX_AIR_LAYER_THICKNESS + 1e-12).any():
+        raise HeatLedgerError(
+            f"air layer thickness must be at most {MAX_AIR_LAYER_THICKNESS} m for the ISO 6946 "
+            f"Annex D method; got {thickness!r} (treat a larger space as a room or use "
+            "ISO 13789)"
+        )
+    if math.isnan(float(d.max(initial=0.0))):
+        raise HeatLedgerError("air layer thickness must not be NaN")
+    return d

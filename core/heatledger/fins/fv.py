@@ -1,0 +1,421 @@
+"""Finite-volume solution of a general fin with the engine's 1-D solver.
+
+The fin is a 1-D conductor along ``x`` (from the base) with conduction area ``A(x)``,
+heated perimeter ``P(x)`` and a surface loss per unit area
+
+    q''(x, T) = h(x, T) (T - T_inf) + eps sigma (T_K^4 - T_sur,K^4)
+
+entered into :func:`heatledger.fv1d.solve_conduction` as a linearised cell source
+``S = S_c + S_p T``. With constant ``h`` and no radiation the problem is linear
+(``S_c = h P dx T_inf``, ``S_p = -h P dx``) and one solve is exact; otherwise the source is
+re-linearised about the last temperatures (Newton or Picard) until the largest temperature
+change is below ``tolerance``.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+from scipy.constants import Stefan_Boltzmann, zero_Celsius
+
+from .. import _validate as v
+from ..errors import HeatLedgerError
+from ..fv1d import (
+    fixed_flux,
+    fixed_temperature,
+    richardson_estimate,
+    solve_conduction,
+    surface_to_ambient,
+)
+from ._results import FinFVResult, effectiveness_messages
+
+__all__ = ["PowerLawCoefficient", "solve_fin_fv"]
+
+FV_TIPS = ("adiabatic", "convective", "temperature", "infinite")
+LINEARISATIONS = ("newton", "picard")
+
+
+@dataclass(frozen=True)
+class PowerLawCoefficient:
+    """Convection coefficient of the power-law form ``h = C |T - T_inf|**n``.
+
+    Typical of natural convection (``n = 1/4`` laminar, ``n = 1/3`` turbulent).
+
+    Parameters
+    ----------
+    coefficient : float
+        ``C``, the coefficient at a 1 K difference. [W/(m2 K^(1+n))]
+    exponent : float
+        ``n``, between 0 and 1. [-]
+
+    References
+    ----------
+    Incropera & DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., ch. 9
+    (simplified natural-convection correlations of the form h = C dT^n, recalled).
+    """
+
+    coefficient: float
+    exponent: float
+
+    def __post_init__(self) -> None:
+        v.positive("coefficient", self.coefficient, "W/(m2 K^(1+n))")
+        n = v.finite("exponent", self.exponent)
+        if not 0.0 <= n <= 1.0:
+            raise HeatLedgerError(f"exponent must be between 0 and 1; got {n:g}")
+
+    def __call__(self, delta_temp):
+        """Return ``h`` for a temperature difference ``delta_temp`` [K]. [W/(m2 K)]"""
+        return self.coefficient * np.abs(np.asanyarray(delta_temp, dtype=float)) ** self.exponent
+
+
+def solve_fin_fv(
+    length: float,
+    conductivity: float,
+    h,
+    *,
+    area,
+    perimeter,
+    base_temperature: float,
+    ambient: float,
+    nodes: int = 200,
+    tip: str = "adiabatic",
+    tip_temperature: float | None = None,
+    tip_area: float | None = None,
+    emissivity: float = 0.0,
+    temp_surroundings: float | None = None,
+    linearisation: str = "newton",
+    tolerance: float = 1e-8,
+    max_iterations: int = 100,
+    mesh_estimate: bool = True,
+    x_offset: float = 0.0,
+    base_cross_section: float | None = None,
+) -> FinFVResult:
+    """Temperature and heat rate of a general fin by cell-centred finite volumes.
+
+    Parameters
+    ----------
+    length : float
+        Fin length from base to tip (``r_2 - r_1`` for an annular fin). [m]
+    conductivity : float
+        Thermal conductivity of the fin material. [W/(m K)]
+    h : float, callable or PowerLawCoefficient
+        Convection coefficient: a constant; a callable ``h(x, temperature)`` of distance
+        from the base [m] and local temperature [degC] returning arrays; or a
+        :class:`PowerLawCoefficient` ``C |T - T_inf|**n``. [W/(m2 K)]
+    area : float or callable
+        Conduction area ``A(x)``, constant or a callable of distance from the base. [m2]
+    perimeter : float or callable
+        Heated perimeter ``P(x)`` (surface area per unit length), constant or callable. [m]
+    base_temperature : float
+        Temperature of the base. [degC]
+    ambient : float
+        Temperature of the surrounding fluid ``T_inf``. [degC]
+    nodes : int
+        Number of control volumes (uniform). [-]
+    tip : str
+        ``"adiabatic"``, ``"convective"`` (same ``h`` and radiation on ``tip_area``),
+        ``"temperature"`` (``tip_temperature`` fixed) or ``"infinite"`` (the fin continues
+        uniformly: ``-k dT/dx = k m (T - T_inf)``, constant ``h`` only). [-]
+    tip_temperature : float, optional
+        Tip temperature for ``tip="temperature"``. [degC]
+    tip_area : float, optional
+        Area of the convective tip face; default ``A(length)``. [m2]
+    emissivity : float
+        Surface emissivity for radiation to surroundings (0 = none). [-]
+    temp_surroundings : float, optional
+        Temperature of the radiating surroundings; default ``ambient``. [degC]
+    linearisation : str
+        ``"newton"`` (source tangent; derivative of a callable ``h`` by central difference
+        and clipped at zero) or ``"picard"`` (coefficients at the last temperatures). [-]
+    tolerance : float
+        Stop when the largest cell temperature change of an iteration is below this. [K]
+    max_iterations : int
+        Largest number of linear solves before :class:`HeatLedgerError`. [-]
+    mesh_estimate : bool
+        Also solve on twice the cells and give a Richardson estimate. [-]
+    x_offset : float
+        Added to the reported positions and passed to nothing else (annular fins report
+        radius). [m]
+    base_cross_section : float, optional
+        Base area the fin replaces, for the effectiveness; default ``A(0)``. [m2]
+
+    Returns
+    -------
+    FinFVResult
+
+    Raises
+    ------
+    HeatLedgerError
+        For invalid inputs or when the iteration does not converge.
+
+    Notes
+    -----
+    Cell ``i`` of width ``dx`` has ``A_i = A(x_i)``, ``P_i = P(x_i)`` at its centre and the
+    source (Patankar 1980, section 4.2-7 and 7.2-1, source linearisation)
+
+    - linear: ``S_c = h P dx T_inf``, ``S_p = -h P dx``;
+    - Picard: ``h`` at ``T*`` and radiation as ``h_r = eps sigma (T*^2 + T_sur^2)(T* + T_sur)``
+      (kelvin): ``S_c = P dx (h T_inf + h_r T_sur)``, ``S_p = -P dx (h + h_r)``;
+    - Newton: with ``g(T) = q''(T)``, ``S_c = -P dx (g* - g'* T*)``, ``S_p = -P dx g'*``.
+
+    A convective tip is a surface resistance ``1/(h + h_r)`` to the weighted ambient
+    ``(h T_inf + h_r T_sur)/(h + h_r)``, updated each iteration. The energy residual uses
+    the non-linear laws at the final temperatures, so it also measures the iteration error.
+
+    References
+    ----------
+    S. V. Patankar, *Numerical Heat Transfer and Fluid Flow*, Hemisphere 1980, ch. 4 and 7.
+    Incropera & DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., eq. 3.61 (general
+    fin equation, number recalled).
+    """
+    length = v.positive("length", length, "m")
+    k = v.positive("conductivity", conductivity, "W/(m K)")
+    t_b = v.finite("base_temperature", base_temperature)
+    t_inf = v.finite("ambient", ambient)
+    nodes = _count("nodes", nodes, 1)
+    max_iterations = _count("max_iterations", max_iterations, 1)
+    tip = v.choice("tip", tip, FV_TIPS)
+    linearisation = v.choice("linearisation", linearisation, LINEARISATIONS)
+    tolerance = v.positive("tolerance", tolerance, "K")
+    eps = v.fraction("emissivity", emissivity)
+    t_sur = t_inf if temp_surroundings is None else v.finite("temp_surroundings",
+                                                              temp_surroundings)
+    if tip == "temperature":
+        if tip_temperature is None:
+            raise HeatLedgerError("tip='temperature' needs tip_temperature (degC); got None")
+        t_tip_fixed = v.finite("tip_temperature", tip_temperature)
+    law = _h_law(h)
+    if tip == "infinite" and (law[0] != "constant" or eps > 0.0):
+        raise HeatLedgerError(
+            "tip='infinite' needs a constant h and no radiation (the continuation is the "
+            "uniform-fin exponential); use a longer fin with tip='adiabatic' instead"
+        )
+
+    def run(n: int):
+        return _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip,
+                      t_tip_fixed if tip == "temperature" else None, tip_area, eps, t_sur,
+                      linearisation, tolerance, max_iterations)
+
+    out = run(nodes)
+    mesh_q = mesh_tip = None
+    if mesh_estimate:
+        fine = run(2 * nodes)
+        mesh_q = richardson_estimate("heat_rate", out["q"], fine["q"], ratio=2.0, order=2.0)
+        mesh_tip = richardson_estimate("tip_temperature", out["t_tip"], fine["t_tip"],
+                                       ratio=2.0, order=2.0)
+    sol = out["sol"]
+    x = np.concatenate(([0.0], sol.x, [length])) + float(x_offset)
+    temp = np.concatenate(([sol.face_temperature[0]], sol.temperature,
+                           [sol.face_temperature[-1]]))
+    theta_b = t_b - t_inf
+    a0 = _eval(area, np.array([0.0]), "area")[0] if base_cross_section is None else \
+        v.positive("base_cross_section", base_cross_section, "m2")
+    g_base = float(_flux(law, eps, np.array([0.0]), np.array([t_b]), t_inf, t_sur)[0])
+    bare = g_base * a0
+    effectiveness = out["q"] / bare if bare != 0.0 else float("nan")
+    warn, notes = effectiveness_messages(effectiveness) if theta_b != 0.0 else ((), ())
+    if mesh_q is not None and out["q"] != 0.0 and mesh_q.error_estimate > 0.01 * abs(out["q"]):
+        warn = warn + (f"mesh estimate of the heat rate differs by "
+                       f"{100 * mesh_q.error_estimate / abs(out['q']):.2g} %: use more nodes",)
+    settings = {
+        "method": "cell-centred finite volume (heatledger.fv1d.solve_conduction), uniform cells",
+        "cells": nodes,
+        "tip": tip,
+        "h_law": law[0],
+        "h_parameters": law[2],
+        "emissivity": eps,
+        "temp_surroundings": t_sur,
+        "linearisation": linearisation if out["nonlinear"] else "none (linear problem)",
+        "tolerance_K": tolerance,
+        "max_iterations": max_iterations,
+        "mesh_refinement": "2x cells, Richardson order 2" if mesh_estimate else "none",
+        "base_temperature": t_b,
+        "ambient": t_inf,
+        "tip_temperature": t_tip_fixed if tip == "temperature" else None,
+        "length": length,
+        "conductivity": k,
+        "x_offset": float(x_offset),
+    }
+    return FinFVResult(
+        x=x, temperature=temp, heat_rate=out["q"], heat_loss_surface=out["loss_side"],
+        heat_loss_tip=out["loss_tip"], tip_temperature=out["t_tip"],
+        efficiency=out["efficiency"], effectiveness=float(effectiveness),
+        energy_residual=out["residual"], linear_residual=float(sol.energy_residual),
+        mesh_estimate=mesh_q, mesh_estimate_tip=mesh_tip, iterations=out["iterations"],
+        converged_change=out["change"], solution=sol, settings=settings,
+        warnings=warn, notes=notes,
+    )
+
+
+# ----------------------------------------------------------------------------- internals
+
+
+def _count(name: str, value, low: int) -> int:
+    if isinstance(value, bool) or not isinstance(value, (int, np.integer)) or value < low:
+        raise HeatLedgerError(f"{name} must be a whole number >= {low}; got {value!r}")
+    return int(value)
+
+
+def _h_law(h):
+    """Return (kind, object, parameters) for a convection-coefficient input."""
+    if isinstance(h, PowerLawCoefficient):
+        return ("power law C|T - T_inf|^n", h,
+                {"coefficient": h.coefficient, "exponent": h.exponent})
+    if callable(h):
+        return ("callable h(x, temperature)", h, {"callable": getattr(h, "__name__", repr(h))})
+    return ("constant", v.positive("h", h, "W/(m2 K)"), {"h": float(h)})
+
+
+def _eval(func, x: np.ndarray, name: str) -> np.ndarray:
+    if callable(func):
+        out = np.broadcast_to(np.asarray(func(x), dtype=float), x.shape)
+    else:
+        out = np.full(x.shape, v.finite(name, func))
+    if not (np.isfinite(out).all() and (out >= 0.0).all()):
+        raise HeatLedgerError(f"{name} must be finite and not negative along the fin")
+    return out
+
+
+def _h_of(law, x: np.ndarray, temp: np.ndarray, t_inf: float) -> np.ndarray:
+    kind, obj, _ = law
+    if kind == "constant":
+        return np.full(temp.shape, obj)
+    if isinstance(obj, PowerLawCoefficient):
+        return obj(temp - t_inf)
+    out = np.broadcast_to(np.asarray(obj(x, temp), dtype=float), temp.shape)
+    if not (np.isfinite(out).all() and (out >= 0.0).all()):
+        raise HeatLedgerError("h(x, temperature) must return finite values >= 0 W/(m2 K)")
+    return out
+
+
+def _flux(law, eps, x, temp, t_inf, t_sur) -> np.ndarray:
+    """Surface heat flux lost at temperature ``temp``. [W/m2]"""
+    q = _h_of(law, x, temp, t_inf) * (temp - t_inf)
+    if eps > 0.0:
+        q = q + eps * Stefan_Boltzmann * ((temp + zero_Celsius) ** 4
+                                          - (t_sur + zero_Celsius) ** 4)
+    return q
+
+
+def _flux_slope(law, eps, x, temp, t_inf, t_sur) -> np.ndarray:
+    """d q''/dT, clipped at zero. [W/(m2 K)]"""
+    kind, obj, _ = law
+    if kind == "constant":
+        g1 = np.full(temp.shape, obj)
+    elif isinstance(obj, PowerLawCoefficient):
+        g1 = obj.coefficient * (obj.exponent + 1.0) * np.abs(temp - t_inf) ** obj.exponent
+    else:
+        step = 1e-4 * np.maximum(1.0, np.abs(temp - t_inf))
+        up = _h_of(law, x, temp + step, t_inf) * (temp + step - t_inf)
+        dn = _h_of(law, x, temp - step, t_inf) * (temp - step - t_inf)
+        g1 = np.maximum((up - dn) / (2.0 * step), 0.0)
+    if eps > 0.0:
+        g1 = g1 + 4.0 * eps * Stefan_Boltzmann * (temp + zero_Celsius) ** 3
+    return g1
+
+
+def _tip_coefficient(law, eps, x_tip, t_tip, t_inf, t_sur):
+    """Combined coefficient and weighted ambient for the tip face (secant linearisation)."""
+    hc = float(_h_of(law, np.array([x_tip]), np.array([t_tip]), t_inf)[0])
+    hr = 0.0
+    if eps > 0.0:
+        tk, sk = t_tip + zero_Celsius, t_sur + zero_Celsius
+        hr = eps * Stefan_Boltzmann * (tk * tk + sk * sk) * (tk + sk)
+    total = hc + hr
+    if total <= 0.0:
+        return 0.0, t_inf
+    return total, (hc * t_inf + hr * t_sur) / total
+
+
+def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip_area, eps,
+           t_sur, linearisation, tolerance, max_iterations):
+    dx = length / n
+    widths = np.full(n, dx)
+    x = (np.arange(n) + 0.5) * dx
+    a_c = _eval(area, x, "area")
+    if (a_c <= 0.0).any():
+        raise HeatLedgerError("area must be greater than zero at every cell centre")
+    p_dx = _eval(perimeter, x, "perimeter") * dx
+    kk = np.full(n, k)
+    a_tip = None
+    if tip == "convective":
+        a_tip = (_eval(area, np.array([length]), "area")[0] if tip_area is None
+                 else v.non_negative("tip_area", tip_area, "m2"))
+    left = fixed_temperature(t_b)
+    nonlinear = law[0] != "constant" or eps > 0.0
+
+    def right_bc(t_tip_face):
+        if tip == "adiabatic":
+            return fixed_flux(0.0)
+        if tip == "temperature":
+            return fixed_temperature(t_tip_fixed)
+        if tip == "infinite":
+            m_tip = np.sqrt(law[1] * p_dx[-1] / dx / (k * a_c[-1]))
+            return surface_to_ambient(t_inf, 1.0 / (k * m_tip))
+        coeff, t_eq = _tip_coefficient(law, eps, length, t_tip_face, t_inf, t_sur)
+        if coeff <= 0.0 or a_tip == 0.0:
+            return fixed_flux(0.0)
+        # the solver takes a resistance per unit of the cell's conduction area
+        return surface_to_ambient(t_eq, a_c[-1] / (coeff * a_tip))
+
+    temp = np.full(n, t_b)
+    t_tip = t_b
+    iterations = 0
+    change = 0.0
+    while True:
+        if not nonlinear:
+            h_c = law[1]
+            sc, sp = h_c * p_dx * t_inf, -h_c * p_dx
+        elif linearisation == "picard":
+            h_c = _h_of(law, x, temp, t_inf)
+            sc, sp = h_c * p_dx * t_inf, -h_c * p_dx
+            if eps > 0.0:
+                tk, sk = temp + zero_Celsius, t_sur + zero_Celsius
+                h_r = eps * Stefan_Boltzmann * (tk * tk + sk * sk) * (tk + sk)
+                sc, sp = sc + h_r * p_dx * t_sur, sp - h_r * p_dx
+        else:
+            g0 = _flux(law, eps, x, temp, t_inf, t_sur)
+            g1 = _flux_slope(law, eps, x, temp, t_inf, t_sur)
+            sc, sp = -p_dx * (g0 - g1 * temp), -p_dx * g1
+        sol = solve_conduction(widths, kk, left, right_bc(t_tip), area=a_c, source=sc,
+                               source_slope=sp)
+        iterations += 1
+        change = float(np.max(np.abs(sol.temperature - temp)))
+        change = max(change, abs(float(sol.face_temperature[-1]) - t_tip))
+        temp = sol.temperature
+        t_tip = float(sol.face_temperature[-1])
+        if not nonlinear or change < tolerance:
+            break
+        if iterations >= max_iterations:
+            raise HeatLedgerError(
+                f"fin iteration did not converge in max_iterations={max_iterations} "
+                f"(last change {change:.3g} K, tolerance {tolerance:g} K); raise "
+                "max_iterations, try linearisation='picard' or check h and emissivity"
+            )
+    if not nonlinear:
+        change = 0.0
+
+    q_base = float(sol.face_heat_rate[0])
+    loss_side = float(np.dot(_flux(law, eps, x, temp, t_inf, t_sur), p_dx))
+    ideal_side = float(np.dot(_flux(law, eps, x, np.full(n, t_b), t_inf, t_sur), p_dx))
+    if tip == "convective":
+        loss_tip = float(_flux(law, eps, np.array([length]), np.array([t_tip]), t_inf,
+                               t_sur)[0]) * a_tip
+        ideal_tip = float(_flux(law, eps, np.array([length]), np.array([t_b]), t_inf,
+                                t_sur)[0]) * a_tip
+    elif tip == "adiabatic":
+        loss_tip = ideal_tip = 0.0
+    else:
+        loss_tip, ideal_tip = float(sol.face_heat_rate[-1]), 0.0
+    if tip in ("convective", "adiabatic"):
+        efficiency = (loss_side + loss_tip) / (ideal_side + ideal_tip)
+    elif tip == "infinite":
+        efficiency = q_base / ideal_side
+    else:
+        efficiency = loss_side / ideal_side
+    scale = max(abs(q_base), abs(loss_side), abs(loss_tip), np.finfo(float).tiny)
+    residual = (q_base - loss_side - loss_tip) / scale
+    return {"sol": sol, "q": q_base, "loss_side": loss_side, "loss_tip": loss_tip,
+            "t_tip": t_tip, "efficiency": float(efficiency), "residual": float(residual),
+            "iterations": iterations, "change": change, "nonlinear": nonlinear}

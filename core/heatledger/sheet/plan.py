@@ -1,0 +1,611 @@
+"""Backend-neutral plan of a calculation workbook.
+
+A :class:`WorkbookPlan` describes every sheet, cell, style, defined name, chart and print
+setting of a workbook without knowing how it will be written. Renderers turn a plan into a
+file (:mod:`heatledger.sheet.render_openpyxl`) or into sheets of a workbook open in a
+spreadsheet program (the add-in's renderer). The plan is plain data so both renderers can
+walk it the same way:
+
+- a cell is addressed by its sheet name and an A1 reference (``"B7"``);
+- a cell holds either a value (number, text, bool, date) or a formula, a string in the
+  file's English syntax with a leading ``=`` (``"=B7/1000/C7"``);
+- text values are always text: a value that begins with ``=``, ``+``, ``-`` or ``@`` is
+  never a formula (renderers must guard it, see :func:`is_formula_like`);
+- styles are referred to by the names in :data:`STYLES` (our own palette);
+- header and footer text may contain the tokens ``{page}``, ``{pages}``, ``{sheet}`` and
+  ``{date}`` which each renderer translates to its program's codes.
+
+The plan never imports a spreadsheet library.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import re
+from collections.abc import Iterable, Iterator
+from dataclasses import dataclass, field
+
+from ..errors import HeatLedgerError
+
+__all__ = [
+    "Style",
+    "STYLES",
+    "Cell",
+    "Block",
+    "ChartSeries",
+    "Chart",
+    "PrintSetup",
+    "DataValidation",
+    "Sheet",
+    "WorkbookPlan",
+    "col_letter",
+    "col_index",
+    "ref",
+    "split_ref",
+    "absolute",
+    "sheet_ref",
+    "is_formula_like",
+    "FIXED_TIMESTAMP",
+]
+
+#: Document timestamp written into every file so identical input gives identical bytes.
+FIXED_TIMESTAMP = _dt.datetime(2000, 1, 1, 0, 0, 0)
+
+_REF_RE = re.compile(r"^\$?([A-Z]{1,3})\$?([1-9][0-9]*)$")
+_FORMULA_LIKE = ("=", "+", "-", "@")
+
+
+# --------------------------------------------------------------------------- addresses
+def col_letter(index: int) -> str:
+    """Column letters of a 1-based column index (1 -> ``A``, 27 -> ``AA``).
+
+    Parameters
+    ----------
+    index : int
+        Column number, 1 for the first column. [-]
+
+    Returns
+    -------
+    str
+
+    Examples
+    --------
+    >>> col_letter(1), col_letter(26), col_letter(28)
+    ('A', 'Z', 'AB')
+    """
+    if index < 1:
+        raise HeatLedgerError(f"column index must be 1 or more; got {index}")
+    out = ""
+    while index:
+        index, rem = divmod(index - 1, 26)
+        out = chr(65 + rem) + out
+    return out
+
+
+def col_index(letters: str) -> int:
+    """1-based column index of column letters (``A`` -> 1).
+
+    Parameters
+    ----------
+    letters : str
+        Column letters, upper case. [-]
+
+    Examples
+    --------
+    >>> col_index("AB")
+    28
+    """
+    out = 0
+    for ch in letters:
+        out = out * 26 + (ord(ch) - 64)
+    return out
+
+
+def ref(row: int, col: int, *, absolute_ref: bool = False) -> str:
+    """A1 reference of a 1-based row and column.
+
+    Parameters
+    ----------
+    row : int
+        Row number, 1 for the first row. [-]
+    col : int
+        Column number, 1 for column A. [-]
+    absolute_ref : bool
+        Write ``$B$7`` instead of ``B7``. [-]
+
+    Examples
+    --------
+    >>> ref(7, 2), ref(7, 2, absolute_ref=True)
+    ('B7', '$B$7')
+    """
+    if row < 1:
+        raise HeatLedgerError(f"row must be 1 or more; got {row}")
+    if absolute_ref:
+        return f"${col_letter(col)}${row}"
+    return f"{col_letter(col)}{row}"
+
+
+def split_ref(a1: str) -> tuple[int, int]:
+    """Row and column (1-based) of an A1 reference such as ``"B7"`` or ``"$B$7"``.
+
+    Parameters
+    ----------
+    a1 : str
+        The reference. [-]
+
+    Examples
+    --------
+    >>> split_ref("$C$12")
+    (12, 3)
+    """
+    m = _REF_RE.match(a1)
+    if not m:
+        raise HeatLedgerError(f"cell reference must look like 'B7'; got {a1!r}")
+    return int(m.group(2)), col_index(m.group(1))
+
+
+def absolute(a1: str) -> str:
+    """``B7`` -> ``$B$7``.
+
+    Parameters
+    ----------
+    a1 : str
+        The reference. [-]
+    """
+    row, col = split_ref(a1)
+    return ref(row, col, absolute_ref=True)
+
+
+def sheet_ref(sheet: str, a1: str) -> str:
+    """Reference to a cell or range on a named sheet, quoted: ``'EW1 wall'!$B$7``.
+
+    Parameters
+    ----------
+    sheet : str
+        Sheet name. [-]
+    a1 : str
+        Cell or range reference (``B7`` or ``B7:B9``); made absolute. [-]
+
+    Examples
+    --------
+    >>> sheet_ref("Cover", "B3:B4")
+    "'Cover'!$B$3:$B$4"
+    """
+    parts = a1.split(":")
+    body = ":".join(absolute(p) for p in parts)
+    quoted = sheet.replace("'", "''")
+    return f"'{quoted}'!{body}"
+
+
+def is_formula_like(text: object) -> bool:
+    """True when ``text`` is a string a spreadsheet could take for a formula.
+
+    Parameters
+    ----------
+    text : object
+        A cell value. [-]
+
+    Examples
+    --------
+    >>> is_formula_like("=1+1"), is_formula_like("-5 mm"), is_formula_like("wall")
+    (True, True, False)
+    """
+    return isinstance(text, str) and text.startswith(_FORMULA_LIKE)
+
+
+# --------------------------------------------------------------------------- styles
+@dataclass(frozen=True)
+class Style:
+    """A named cell style of our own palette.
+
+    Attributes
+    ----------
+    name : str
+        Style name as stored in the file (``"hl input"`` ...).
+    bold, italic : bool
+        Font weight and slant.
+    size : float
+        Font size in points.
+    color : str
+        Font colour, ``RRGGBB``.
+    fill : str or None
+        Background colour, ``RRGGBB``; None for no fill.
+    border : str or None
+        ``"thin"`` for a thin grey box, ``"bottom"`` for a rule under the cell, None.
+    align : str or None
+        ``"left"``, ``"center"``, ``"right"`` or None.
+    wrap : bool
+        Wrap text in the cell.
+    number_format : str
+        Default number format of the style.
+    """
+
+    name: str
+    bold: bool = False
+    italic: bool = False
+    size: float = 10.0
+    color: str = "1F2A33"
+    fill: str | None = None
+    border: str | None = None
+    align: str | None = None
+    wrap: bool = False
+    number_format: str = "General"
+
+
+# Our own palette: slate text, pale sand for what the user types, pale teal for formulas,
+# light grey for the engine's constants, and a pale green band for checks.
+STYLES: dict[str, Style] = {
+    s.name: s
+    for s in (
+        Style("hl title", bold=True, size=14, color="12303F"),
+        Style("hl subtitle", bold=True, size=11, color="12303F", border="bottom"),
+        Style("hl header", bold=True, color="FFFFFF", fill="2E5A6B", border="thin",
+              align="center", wrap=True),
+        Style("hl label", color="1F2A33"),
+        Style("hl note", italic=True, size=9, color="5A6770", wrap=False),
+        Style("hl input", color="3A2A00", fill="FBEFD0", border="thin"),
+        Style("hl formula", color="0B3340", fill="DDEFF2", border="thin"),
+        Style("hl engine", color="4A4A4A", fill="EEEEEE", border="thin"),
+        Style("hl check", bold=True, color="1E5130", fill="DCEFD9", border="thin",
+              align="center"),
+        Style("hl text", color="1F2A33", border="thin"),
+        Style("hl warning", bold=True, color="7A1F12", wrap=True),
+    )
+}
+
+
+# --------------------------------------------------------------------------- cells, blocks
+@dataclass
+class Cell:
+    """One cell of the plan.
+
+    Attributes
+    ----------
+    ref : str
+        A1 reference on its sheet (``"B7"``).
+    value : object
+        A number, text, bool, :class:`datetime.date` or None. Text is always text.
+    formula : str or None
+        A formula in English syntax with a leading ``=``; when given, ``value`` is None.
+    style : str
+        Name of a style in :data:`STYLES`.
+    number_format : str or None
+        Number format overriding the style's (``"0.000"``, ``"0.00E+00"``).
+    role : str
+        What the cell is for: ``"input"``, ``"formula"``, ``"engine"``, ``"check"``,
+        ``"label"``, ``"header"``, ``"note"``. Tests and the cover's check count use it.
+    """
+
+    ref: str
+    value: object = None
+    formula: str | None = None
+    style: str = "hl label"
+    number_format: str | None = None
+    role: str = "label"
+
+    def __post_init__(self) -> None:
+        if self.formula is not None:
+            if not (isinstance(self.formula, str) and self.formula.startswith("=")):
+                raise HeatLedgerError(
+                    f"formula of cell {self.ref} must be text starting with '='; "
+                    f"got {self.formula!r}"
+                )
+            if self.value is not None:
+                raise HeatLedgerError(f"cell {self.ref} cannot hold both a value and a formula")
+        if self.style not in STYLES:
+            raise HeatLedgerError(
+                f"style of cell {self.ref} must be one of {', '.join(map(repr, STYLES))}; "
+                f"got {self.style!r}"
+            )
+        split_ref(self.ref)
+
+
+@dataclass
+class Block:
+    """A named group of cells on one sheet (a table, a header, a check strip).
+
+    Attributes
+    ----------
+    name : str
+        Identifier of the block, unique on its sheet (``"layers"``, ``"fv_nodes"``).
+    cells : list of Cell
+        The cells, in writing order.
+    """
+
+    name: str
+    cells: list[Cell] = field(default_factory=list)
+
+    def put(self, a1: str, value: object = None, *, formula: str | None = None,
+            style: str | None = None, number_format: str | None = None,
+            role: str | None = None) -> Cell:
+        """Add a cell and return it.
+
+        Parameters
+        ----------
+        a1 : str
+            Cell reference. [-]
+        value : object
+            Constant value (number, text, bool, date). [-]
+        formula : str, optional
+            Formula with leading ``=``. [-]
+        style : str, optional
+            Style name; default by role (``hl formula`` for formulas, else ``hl label``). [-]
+        number_format : str, optional
+            Number format. [-]
+        role : str, optional
+            Role of the cell; default ``"formula"`` for formulas, else ``"label"``. [-]
+        """
+        if role is None:
+            role = "formula" if formula is not None else "label"
+        if style is None:
+            style = {
+                "formula": "hl formula", "input": "hl input", "engine": "hl engine",
+                "check": "hl check", "header": "hl header", "note": "hl note",
+            }.get(role, "hl label")
+        cell = Cell(a1, value, formula, style, number_format, role)
+        self.cells.append(cell)
+        return cell
+
+
+# --------------------------------------------------------------------------- charts, print
+@dataclass(frozen=True)
+class ChartSeries:
+    """One data series of a chart; references are ``'Sheet'!$A$1:$A$9`` style.
+
+    Attributes
+    ----------
+    title : str
+        Legend text.
+    values : str
+        Range of the y values (scatter) or bar heights.
+    categories : str or None
+        Range of the x values (scatter) or bar labels.
+    line : bool
+        Draw a line between points (scatter only).
+    marker : str or None
+        ``"circle"``, ``"diamond"``, ``"square"`` or None.
+    color : str or None
+        ``RRGGBB``.
+    """
+
+    title: str
+    values: str
+    categories: str | None = None
+    line: bool = True
+    marker: str | None = None
+    color: str | None = None
+
+
+@dataclass(frozen=True)
+class Chart:
+    """A chart placed on a sheet.
+
+    Attributes
+    ----------
+    kind : str
+        ``"scatter"`` (x-y, for temperature through a construction) or ``"bar"``.
+    title : str
+        Chart title.
+    anchor : str
+        Top-left cell of the chart.
+    series : tuple of ChartSeries
+    x_title, y_title : str
+        Axis titles with units.
+    width_cm, height_cm : float
+        Size on the page.
+    """
+
+    kind: str
+    title: str
+    anchor: str
+    series: tuple[ChartSeries, ...]
+    x_title: str = ""
+    y_title: str = ""
+    width_cm: float = 16.0
+    height_cm: float = 8.0
+
+    def __post_init__(self) -> None:
+        if self.kind not in ("scatter", "bar"):
+            raise HeatLedgerError(f"chart kind must be one of 'scatter', 'bar'; got {self.kind!r}")
+
+
+@dataclass(frozen=True)
+class PrintSetup:
+    """Page setup of a sheet.
+
+    Attributes
+    ----------
+    orientation : str
+        ``"portrait"`` or ``"landscape"``.
+    paper : str
+        Paper size; only ``"A4"`` is used.
+    fit_width : int
+        Pages across (1 = fit all columns on one page width).
+    fit_height : int
+        Pages down (0 = as many as needed).
+    header : str
+        Centre header text (tokens ``{page}``, ``{pages}``, ``{sheet}``, ``{date}``).
+    footer_left, footer_right : str
+        Footer texts.
+    title_rows : str or None
+        Rows repeated on every printed page, ``"1:4"``.
+    """
+
+    orientation: str = "portrait"
+    paper: str = "A4"
+    fit_width: int = 1
+    fit_height: int = 0
+    header: str = ""
+    footer_left: str = ""
+    footer_right: str = "page {page} of {pages}"
+    title_rows: str | None = None
+
+
+@dataclass(frozen=True)
+class DataValidation:
+    """A drop-down list on a range of input cells.
+
+    Attributes
+    ----------
+    cells : str
+        Range the rule applies to (``"C5:C200"``).
+    source : str
+        Either a comma-free range reference (``"'Lists'!$A$2:$A$40"``) or a defined name.
+    prompt : str
+        Help text shown when a cell is selected.
+    error : str
+        Message shown for a value not in the list.
+    """
+
+    cells: str
+    source: str
+    prompt: str = ""
+    error: str = ""
+
+
+# --------------------------------------------------------------------------- sheet, workbook
+@dataclass
+class Sheet:
+    """One worksheet of the plan.
+
+    Attributes
+    ----------
+    name : str
+        Sheet name (at most 31 characters, none of ``[]:*?/\\``).
+    blocks : list of Block
+    merges : list of str
+        Merged ranges (``"A1:F1"``), for titles and grouped headers.
+    column_widths : dict
+        Column letters -> width in characters.
+    freeze : str or None
+        Top-left cell of the scrolling area (``"A5"`` freezes rows 1-4).
+    charts : list of Chart
+    print_setup : PrintSetup
+    validations : list of DataValidation
+    tab_color : str or None
+    """
+
+    name: str
+    blocks: list[Block] = field(default_factory=list)
+    merges: list[str] = field(default_factory=list)
+    column_widths: dict[str, float] = field(default_factory=dict)
+    freeze: str | None = None
+    charts: list[Chart] = field(default_factory=list)
+    print_setup: PrintSetup = field(default_factory=PrintSetup)
+    validations: list[DataValidation] = field(default_factory=list)
+    tab_color: str | None = None
+
+    def __post_init__(self) -> None:
+        bad = set(self.name) & set("[]:*?/\\")
+        if not self.name or len(self.name) > 31 or bad or self.name.startswith("'"):
+            raise HeatLedgerError(
+                f"sheet name must be 1 to 31 characters without []:*?/\\ ; got {self.name!r}"
+            )
+
+    def block(self, name: str) -> Block:
+        """Return the block called ``name``, creating it if needed.
+
+        Parameters
+        ----------
+        name : str
+            Block identifier. [-]
+        """
+        for b in self.blocks:
+            if b.name == name:
+                return b
+        b = Block(name)
+        self.blocks.append(b)
+        return b
+
+    def cells(self) -> Iterator[Cell]:
+        """Every cell of the sheet, block by block."""
+        for b in self.blocks:
+            yield from b.cells
+
+    def cell_map(self) -> dict[str, Cell]:
+        """Cells by reference; raises if two cells share a reference."""
+        out: dict[str, Cell] = {}
+        for c in self.cells():
+            if c.ref in out:
+                raise HeatLedgerError(f"sheet {self.name!r}: cell {c.ref} is written twice")
+            out[c.ref] = c
+        return out
+
+
+@dataclass
+class WorkbookPlan:
+    """The whole workbook.
+
+    Attributes
+    ----------
+    title : str
+        Document title (file properties).
+    sheets : list of Sheet
+    defined_names : dict
+        Name -> reference (``"'Cover'!$C$20"``). Names are ours, start with ``hl_``.
+    creator : str
+        Document author (file properties).
+    timestamp : datetime
+        Created/modified time written into the file; fixed for reproducible bytes.
+    """
+
+    title: str = ""
+    sheets: list[Sheet] = field(default_factory=list)
+    defined_names: dict[str, str] = field(default_factory=dict)
+    creator: str = "heatledger"
+    timestamp: _dt.datetime = FIXED_TIMESTAMP
+
+    def add_sheet(self, name: str, **kwargs) -> Sheet:
+        """Append a new sheet and return it.
+
+        Parameters
+        ----------
+        name : str
+            Sheet name. [-]
+        **kwargs
+            Further :class:`Sheet` attributes. [-]
+        """
+        if any(s.name.lower() == name.lower() for s in self.sheets):
+            raise HeatLedgerError(f"sheet name {name!r} is used twice")
+        s = Sheet(name, **kwargs)
+        self.sheets.append(s)
+        return s
+
+    def sheet(self, name: str) -> Sheet:
+        """The sheet called ``name``.
+
+        Parameters
+        ----------
+        name : str
+            Sheet name. [-]
+        """
+        for s in self.sheets:
+            if s.name == name:
+                return s
+        raise HeatLedgerError(
+            f"sheet must be one of {', '.join(repr(s.name) for s in self.sheets)}; got {name!r}"
+        )
+
+    def cells_with_role(self, role: str) -> Iterable[tuple[str, Cell]]:
+        """(sheet name, cell) for every cell with ``role``.
+
+        Parameters
+        ----------
+        role : str
+            Cell role (``"check"``, ``"formula"``, ...). [-]
+        """
+        for s in self.sheets:
+            for c in s.cells():
+                if c.role == role:
+                    yield s.name, c
+
+    def validate(self) -> None:
+        """Raise :class:`HeatLedgerError` where a cell is written twice or a name is bad."""
+        for s in self.sheets:
+            s.cell_map()
+        for name in self.defined_names:
+            if not re.match(r"^[A-Za-z_][A-Za-z0-9_.]*$", name) or _REF_RE.match(name.upper()):
+                raise HeatLedgerError(
+                    f"defined name must be letters, digits, '_' or '.' and not look like a "
+                    f"cell reference; got {name!r}"
+                )

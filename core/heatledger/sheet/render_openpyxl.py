@@ -1,0 +1,315 @@
+"""Render a :class:`~heatledger.sheet.plan.WorkbookPlan` to an .xlsx file with openpyxl.
+
+Output is deterministic (fixed document timestamps and zip member dates, so the same plan
+gives the same bytes) and written atomically (temporary file in the target folder, then
+moved into place; an existing file is kept unless ``force=True``). Text values are always
+written as text: a string starting with ``=``, ``+``, ``-`` or ``@`` is stored as an
+inline string with the quote-prefix flag, never as a formula.
+"""
+
+from __future__ import annotations
+
+import io
+import os
+import re
+from copy import copy
+from pathlib import Path
+from zipfile import ZIP_DEFLATED, ZipFile
+
+from openpyxl import Workbook
+from openpyxl.cell.cell import ILLEGAL_CHARACTERS_RE
+from openpyxl.chart import BarChart, Reference, ScatterChart, Series
+from openpyxl.chart.marker import Marker
+from openpyxl.styles import Alignment, Border, Font, NamedStyle, PatternFill, Side
+from openpyxl.workbook.defined_name import DefinedName
+from openpyxl.worksheet.datavalidation import DataValidation as XLDataValidation
+from openpyxl.writer.excel import ExcelWriter
+
+from ..errors import HeatLedgerError
+from .files import normalise_zip, write_bytes_atomic
+from .plan import STYLES, Chart, Style, WorkbookPlan, is_formula_like, split_ref
+
+__all__ = ["render_workbook", "workbook_bytes", "write_workbook"]
+
+_TOKENS = {"{page}": "&P", "{pages}": "&N", "{sheet}": "&A", "{date}": "&D"}
+_CM_PER_CHAR = 0.19  # not used for layout; column widths are in characters
+
+
+def render_workbook(plan: WorkbookPlan) -> Workbook:
+    """Build an in-memory openpyxl workbook from ``plan``.
+
+    Parameters
+    ----------
+    plan : WorkbookPlan
+        The workbook to render. [-]
+
+    Returns
+    -------
+    openpyxl.Workbook
+    """
+    plan.validate()
+    wb = Workbook()
+    wb.remove(wb.active)
+    wb.properties.title = plan.title
+    wb.properties.creator = plan.creator
+    wb.properties.lastModifiedBy = plan.creator
+    wb.properties.created = plan.timestamp
+    wb.properties.modified = plan.timestamp
+    wb.calculation.fullCalcOnLoad = True
+
+    style_cache = _StyleCache(wb)
+    for sheet in plan.sheets:
+        ws = wb.create_sheet(sheet.name)
+        cells = ws._cells
+        for cell in sheet.cells():
+            row, col = split_ref(cell.ref)
+            xc = ws.cell(row=row, column=col)
+            quote = False
+            if cell.formula is not None:
+                xc.value = cell.formula
+            else:
+                value = cell.value
+                if isinstance(value, str):
+                    value = ILLEGAL_CHARACTERS_RE.sub("", value)
+                    xc.value = value
+                    if is_formula_like(value):
+                        xc.data_type = "s"  # text, never a formula
+                        quote = True
+                else:
+                    xc.value = value
+            xc._style = style_cache.get(cell.style, cell.number_format, quote)
+        del cells
+        for rng in sheet.merges:
+            ws.merge_cells(rng)
+        for letters, width in sheet.column_widths.items():
+            ws.column_dimensions[letters].width = width
+        if sheet.freeze:
+            ws.freeze_panes = sheet.freeze
+        if sheet.tab_color:
+            ws.sheet_properties.tabColor = sheet.tab_color
+        for dv in sheet.validations:
+            rule = XLDataValidation(type="list", formula1=dv.source, allow_blank=True,
+                                    showDropDown=False)
+            rule.promptTitle = None
+            if dv.prompt:
+                rule.prompt = dv.prompt[:255]
+                rule.showInputMessage = True
+            if dv.error:
+                rule.error = dv.error[:225]
+                rule.errorTitle = "heatledger"
+                rule.showErrorMessage = True
+            ws.add_data_validation(rule)
+            rule.add(dv.cells)
+        for chart in sheet.charts:
+            ws.add_chart(_chart(wb, chart), chart.anchor)
+        _print_setup(ws, sheet.print_setup)
+    for name, target in plan.defined_names.items():
+        wb.defined_names[name] = DefinedName(name, attr_text=target)
+    return wb
+
+
+def workbook_bytes(plan: WorkbookPlan) -> bytes:
+    """The .xlsx file of ``plan`` as bytes (deterministic).
+
+    Parameters
+    ----------
+    plan : WorkbookPlan
+        The workbook to render. [-]
+
+    Returns
+    -------
+    bytes
+    """
+    wb = render_workbook(plan)
+    buf = io.BytesIO()
+    archive = ZipFile(buf, "w", ZIP_DEFLATED, allowZip64=True)
+    # ExcelWriter keeps the modified time we set; openpyxl's save_workbook would stamp now.
+    wb.properties.modified = plan.timestamp
+    ExcelWriter(wb, archive).save()
+    return normalise_zip(buf.getvalue())
+
+
+def write_workbook(plan: WorkbookPlan, path: str | os.PathLike, *, force: bool = False) -> Path:
+    """Render ``plan`` and write it to ``path`` atomically.
+
+    Parameters
+    ----------
+    plan : WorkbookPlan
+        The workbook to write. [-]
+    path : str or path-like
+        Output .xlsx file. [-]
+    force : bool
+        Replace an existing file. [-]
+
+    Returns
+    -------
+    pathlib.Path
+
+    Raises
+    ------
+    HeatLedgerError
+        If the file exists and ``force`` is false, or the plan is inconsistent.
+    """
+    target = Path(path)
+    if target.suffix.lower() != ".xlsx":
+        raise HeatLedgerError(f"output file must end in .xlsx; got {str(target)!r}")
+    if target.exists() and not force:
+        raise HeatLedgerError(
+            f"output file {str(target)!r} exists; choose another name or use --force to "
+            "replace it"
+        )
+    data = workbook_bytes(plan)  # everything that can fail happens before the disk is touched
+    return write_bytes_atomic(target, data, force=force)
+
+
+# --------------------------------------------------------------------------- helpers
+class _StyleCache:
+    """One openpyxl style array per (named style, number format, quote prefix)."""
+
+    def __init__(self, wb: Workbook) -> None:
+        self.wb = wb
+        self.arrays: dict[tuple, object] = {}
+        self.registered: set[str] = set()
+        self._probe_ws = None
+
+    def get(self, name: str, number_format: str | None, quote: bool):
+        key = (name, number_format, quote)
+        arr = self.arrays.get(key)
+        if arr is None:
+            if name not in self.registered:
+                self.wb.add_named_style(_named_style(STYLES[name]))
+                self.registered.add(name)
+            if self._probe_ws is None:
+                self._probe_ws = self.wb.create_sheet("__probe__")
+            probe = self._probe_ws.cell(row=1, column=1)
+            probe._style = None
+            probe.style = name
+            if number_format:
+                probe.number_format = number_format
+            if quote:
+                probe.quotePrefix = True
+            arr = copy(probe._style)
+            self.arrays[key] = arr
+            del self._probe_ws._cells[(1, 1)]
+            self._finish()
+        return copy(arr)
+
+    def _finish(self) -> None:
+        # the probe sheet is only a handle for openpyxl's style descriptors
+        if self._probe_ws is not None and self._probe_ws.title in self.wb.sheetnames:
+            self.wb.remove(self._probe_ws)
+            self._probe_ws = None
+
+
+def _named_style(style: Style) -> NamedStyle:
+    thin = Side(style="thin", color="9AA7AE")
+    if style.border == "thin":
+        border = Border(left=thin, right=thin, top=thin, bottom=thin)
+    elif style.border == "bottom":
+        border = Border(bottom=Side(style="medium", color="2E5A6B"))
+    else:
+        border = Border()
+    fill = (PatternFill(fill_type="solid", start_color=style.fill, end_color=style.fill)
+            if style.fill else PatternFill())
+    ns = NamedStyle(
+        name=style.name,
+        font=Font(name="Calibri", bold=style.bold, italic=style.italic, size=style.size,
+                  color=style.color),
+        fill=fill,
+        border=border,
+        alignment=Alignment(horizontal=style.align, vertical="center", wrap_text=style.wrap),
+        number_format=style.number_format,
+    )
+    return ns
+
+
+def _reference(wb: Workbook, text: str) -> Reference:
+    m = re.match(r"^'((?:[^']|'')+)'!\$?([A-Z]+)\$?(\d+)(?::\$?([A-Z]+)\$?(\d+))?$", text)
+    if not m:
+        raise HeatLedgerError(f"chart range must look like 'Sheet'!$A$1:$A$9; got {text!r}")
+    sheet = m.group(1).replace("''", "'")
+    if sheet not in wb.sheetnames:
+        raise HeatLedgerError(f"chart range refers to sheet {sheet!r}, which is not in the plan")
+    first = f"{m.group(2)}{m.group(3)}"
+    last = f"{m.group(4)}{m.group(5)}" if m.group(4) else first
+    r1, c1 = split_ref(first)
+    r2, c2 = split_ref(last)
+    return Reference(wb[sheet], min_col=c1, min_row=r1, max_col=c2, max_row=r2)
+
+
+def _chart(wb: Workbook, spec: Chart):
+    if spec.kind == "scatter":
+        ch = ScatterChart()
+        ch.style = 13
+        for s in spec.series:
+            xs = _reference(wb, s.categories) if s.categories else None
+            ys = _reference(wb, s.values)
+            ser = Series(ys, xs, title=s.title)
+            if s.marker:
+                ser.marker = Marker(symbol=s.marker, size=6)
+                if s.color:
+                    ser.marker.graphicalProperties = None
+            else:
+                ser.marker = Marker(symbol="none")
+            if s.line:
+                ser.smooth = False
+                if s.color:
+                    ser.graphicalProperties.line.solidFill = s.color
+                ser.graphicalProperties.line.width = 19050
+            else:
+                ser.graphicalProperties.line.noFill = True
+            ch.series.append(ser)
+        ch.x_axis.title = spec.x_title or None
+        ch.y_axis.title = spec.y_title or None
+        ch.x_axis.delete = False
+        ch.y_axis.delete = False
+        ch.x_axis.majorGridlines = None
+    else:
+        ch = BarChart()
+        ch.type = "col"
+        for s in spec.series:
+            ys = _reference(wb, s.values)
+            ser = Series(ys, title=s.title)
+            if s.color:
+                ser.graphicalProperties.solidFill = s.color
+            ch.series.append(ser)
+        if spec.series and spec.series[0].categories:
+            ch.set_categories(_reference(wb, spec.series[0].categories))
+        ch.x_axis.title = spec.x_title or None
+        ch.y_axis.title = spec.y_title or None
+        ch.x_axis.delete = False
+        ch.y_axis.delete = False
+    ch.title = spec.title
+    ch.width = spec.width_cm
+    ch.height = spec.height_cm
+    ch.legend.position = "b"
+    return ch
+
+
+def _hf(text: str) -> str:
+    out = text.replace("&", "&&")
+    for token, code in _TOKENS.items():
+        out = out.replace(token, code)
+    return out
+
+
+def _print_setup(ws, setup) -> None:
+    ws.page_setup.paperSize = ws.PAPERSIZE_A4
+    ws.page_setup.orientation = setup.orientation
+    ws.sheet_properties.pageSetUpPr.fitToPage = True
+    ws.page_setup.fitToWidth = setup.fit_width
+    ws.page_setup.fitToHeight = setup.fit_height
+    ws.print_options.horizontalCentered = True
+    ws.page_margins.left = ws.page_margins.right = 0.5
+    ws.page_margins.top = ws.page_margins.bottom = 0.7
+    if setup.header:
+        ws.oddHeader.center.text = _hf(setup.header)
+        ws.oddHeader.center.size = 9
+    if setup.footer_left:
+        ws.oddFooter.left.text = _hf(setup.footer_left)
+        ws.oddFooter.left.size = 8
+    if setup.footer_right:
+        ws.oddFooter.right.text = _hf(setup.footer_right)
+        ws.oddFooter.right.size = 8
+    if setup.title_rows:
+        ws.print_title_rows = setup.title_rows
