@@ -21,6 +21,8 @@ from openpyxl.cell.cell import ILLEGAL_CHARACTERS_RE
 from openpyxl.chart import BarChart, Reference, ScatterChart, Series
 from openpyxl.chart.marker import Marker
 from openpyxl.styles import Alignment, Border, Font, NamedStyle, PatternFill, Side
+from openpyxl.styles.cell_style import StyleArray
+from openpyxl.styles.numbers import BUILTIN_FORMATS_MAX_SIZE, BUILTIN_FORMATS_REVERSE
 from openpyxl.workbook.defined_name import DefinedName
 from openpyxl.worksheet.datavalidation import DataValidation as XLDataValidation
 from openpyxl.writer.excel import ExcelWriter
@@ -32,7 +34,6 @@ from .plan import STYLES, Chart, Style, WorkbookPlan, is_formula_like, split_ref
 __all__ = ["render_workbook", "workbook_bytes", "write_workbook"]
 
 _TOKENS = {"{page}": "&P", "{pages}": "&N", "{sheet}": "&A", "{date}": "&D"}
-_CM_PER_CHAR = 0.19  # not used for layout; column widths are in characters
 
 
 def render_workbook(plan: WorkbookPlan) -> Workbook:
@@ -60,7 +61,6 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
     style_cache = _StyleCache(wb)
     for sheet in plan.sheets:
         ws = wb.create_sheet(sheet.name)
-        cells = ws._cells
         for cell in sheet.cells():
             row, col = split_ref(cell.ref)
             xc = ws.cell(row=row, column=col)
@@ -78,7 +78,6 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
                 else:
                     xc.value = value
             xc._style = style_cache.get(cell.style, cell.number_format, quote)
-        del cells
         for rng in sheet.merges:
             ws.merge_cells(rng)
         for letters, width in sheet.column_widths.items():
@@ -168,37 +167,28 @@ class _StyleCache:
 
     def __init__(self, wb: Workbook) -> None:
         self.wb = wb
-        self.arrays: dict[tuple, object] = {}
-        self.registered: set[str] = set()
-        self._probe_ws = None
+        self.arrays: dict[tuple, StyleArray] = {}
+        self.named: dict[str, NamedStyle] = {}
 
-    def get(self, name: str, number_format: str | None, quote: bool):
+    def get(self, name: str, number_format: str | None, quote: bool) -> StyleArray:
         key = (name, number_format, quote)
         arr = self.arrays.get(key)
         if arr is None:
-            if name not in self.registered:
-                self.wb.add_named_style(_named_style(STYLES[name]))
-                self.registered.add(name)
-            if self._probe_ws is None:
-                self._probe_ws = self.wb.create_sheet("__probe__")
-            probe = self._probe_ws.cell(row=1, column=1)
-            probe._style = None
-            probe.style = name
-            if number_format:
-                probe.number_format = number_format
+            ns = self.named.get(name)
+            if ns is None:
+                ns = _named_style(STYLES[name])
+                self.wb.add_named_style(ns)
+                self.named[name] = ns
+            arr = copy(ns.as_tuple())
+            fmt = number_format or STYLES[name].number_format
+            if fmt in BUILTIN_FORMATS_REVERSE:
+                arr.numFmtId = BUILTIN_FORMATS_REVERSE[fmt]
+            else:
+                arr.numFmtId = self.wb._number_formats.add(fmt) + BUILTIN_FORMATS_MAX_SIZE
             if quote:
-                probe.quotePrefix = True
-            arr = copy(probe._style)
+                arr.quotePrefix = 1
             self.arrays[key] = arr
-            del self._probe_ws._cells[(1, 1)]
-            self._finish()
         return copy(arr)
-
-    def _finish(self) -> None:
-        # the probe sheet is only a handle for openpyxl's style descriptors
-        if self._probe_ws is not None and self._probe_ws.title in self.wb.sheetnames:
-            self.wb.remove(self._probe_ws)
-            self._probe_ws = None
 
 
 def _named_style(style: Style) -> NamedStyle:
