@@ -7,7 +7,7 @@ terms. A declared whole-window U-value (for example from a product declaration) 
 alternative, and is recorded as such.
 
 Results keep full precision. Rounding to two significant figures for a report is a separate
-step (:func:`round_significant`).
+step (:func:`heatledger.constructions.round_significant`).
 
 References
 ----------
@@ -37,7 +37,6 @@ __all__ = [
     "DeclaredWindow",
     "declared_window",
     "window_with_shutter_u",
-    "round_significant",
     "psi_glazing_default",
     "psi_glazing_table",
     "PsiGlazingRow",
@@ -128,8 +127,8 @@ def window_u(
         U_w = \\frac{\\sum A_g U_g + \\sum A_f U_f + \\sum l_g \\psi_g
                      + \\sum A_p U_p + \\sum l_p \\psi_p}{\\sum A_g + \\sum A_f + \\sum A_p}
 
-    Use :func:`window` for every intermediate value, :func:`round_significant` to report
-    ``U_w`` to two significant figures.
+    Use :func:`window` for every intermediate value. Round ``U_w`` for a report separately,
+    to two significant figures (:func:`heatledger.constructions.round_significant`).
 
     References
     ----------
@@ -436,58 +435,6 @@ def window_with_shutter_u(window_u_value, shutter_resistance):
         raise HeatLedgerError("window_u_value must be greater than zero; got 0 W/(m2 K)")
     dr = _non_negative_array("shutter_resistance", shutter_resistance, "m2 K/W")
     return _out(1.0 / (1.0 / uw + dr))
-
-
-def round_significant(value, figures: int = 2):
-    """Round a value for a report to ``figures`` significant figures.
-
-    Parameters
-    ----------
-    value : float or array_like
-        Value to report (for example a U-value). [any]
-    figures : int, optional
-        Number of significant figures; 2 for U-values (EN ISO 6946 and EN ISO 10077-1
-        presentation rules). [-]
-
-    Returns
-    -------
-    float or ndarray
-        The rounded value (0 stays 0). [same unit as value]
-
-    Raises
-    ------
-    HeatLedgerError
-        If ``figures`` is not a positive integer or ``value`` is not finite.
-
-    Notes
-    -----
-    ``round(v, f - 1 - floor(log10 |v|))``, half to even as Python and numpy round.
-
-    References
-    ----------
-    EN ISO 10077-1:2017 and EN ISO 6946:2017, expression of results (two significant
-    figures) [M].
-
-    Examples
-    --------
-    >>> round_significant(1.4047)
-    1.4
-    >>> round_significant(0.7615)
-    0.76
-    """
-    if isinstance(figures, bool) or not isinstance(figures, int) or figures < 1:
-        raise HeatLedgerError(f"figures must be a positive whole number; got {figures!r}")
-    arr = _finite_array("value", value)
-
-    def one(v: float) -> float:
-        if v == 0.0:
-            return 0.0
-        digits = figures - 1 - int(math.floor(math.log10(abs(v))))
-        return float(round(v, digits))
-
-    if arr.ndim == 0:
-        return one(float(arr))
-    return np.vectorize(one, otypes=[float])(arr)
 
 
 @dataclass(frozen=True)
