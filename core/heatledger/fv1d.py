@@ -27,7 +27,8 @@ S. V. Patankar, *Numerical Heat Transfer and Fluid Flow*, Hemisphere 1980, ch. 4
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 from scipy.linalg import lapack
@@ -122,16 +123,21 @@ class MeshEstimate:
     error_estimate: float
 
 
-@dataclass(frozen=True)
 class FVSolution:
     """Result of :func:`solve_conduction`.
 
+    The solve itself computes the temperatures, the boundary heat rates and the energy
+    balance; positions, face temperatures and interior face heat rates are derived from them
+    on first access (so a million-node solve pays only for what it uses).
+
     Attributes
     ----------
-    x : ndarray
-        Cell-centre positions from the left face. [m]
     temperature : ndarray
         Cell-centre temperatures. [degC]
+    widths : ndarray
+        Cell widths. [m]
+    x : ndarray
+        Cell-centre positions from the left face. [m]
     faces : ndarray
         Face positions, ``N + 1`` values from 0 to L. [m]
     face_temperature : ndarray
@@ -141,6 +147,8 @@ class FVSolution:
         Heat rate through each face in the +x direction. [W] (W/m2 where areas are 1)
     a_west, a_east, a_centre, b : ndarray
         The discretisation coefficients ``a_W``, ``a_E``, ``a_P`` [W/K] and ``b`` [W].
+    heat_in, heat_out : float
+        Heat rate entering through the left face and leaving through the right face. [W]
     source_total : float
         Net heat generated in the domain, ``sum(S_c + S_p T)``. [W]
     energy_residual : float
@@ -148,28 +156,60 @@ class FVSolution:
         the relative energy-balance residual (0 for an exact balance).
     """
 
-    x: np.ndarray
-    temperature: np.ndarray
-    faces: np.ndarray
-    face_temperature: np.ndarray
-    face_heat_rate: np.ndarray
-    a_west: np.ndarray
-    a_east: np.ndarray
-    a_centre: np.ndarray
-    b: np.ndarray
-    source_total: float
-    energy_residual: float
-    settings: dict = field(default_factory=dict)
+    def __init__(self, temperature, widths, half, g_int, a_centre, b, heat_in, heat_out,
+                 source_total, energy_residual, settings) -> None:
+        self.temperature = temperature
+        self.widths = widths
+        self._half = half
+        self._g = g_int
+        self.a_centre = a_centre
+        self.b = b
+        self.heat_in = float(heat_in)
+        self.heat_out = float(heat_out)
+        self.source_total = float(source_total)
+        self.energy_residual = float(energy_residual)
+        self.settings = settings
 
-    @property
-    def heat_in(self) -> float:
-        """Heat rate entering through the left face. [W]"""
-        return float(self.face_heat_rate[0])
+    @cached_property
+    def faces(self) -> np.ndarray:
+        out = np.empty(self.widths.size + 1)
+        out[0] = 0.0
+        np.cumsum(self.widths, out=out[1:])
+        return out
 
-    @property
-    def heat_out(self) -> float:
-        """Heat rate leaving through the right face. [W]"""
-        return float(self.face_heat_rate[-1])
+    @cached_property
+    def x(self) -> np.ndarray:
+        return self.faces[:-1] + 0.5 * self.widths
+
+    @cached_property
+    def face_heat_rate(self) -> np.ndarray:
+        t = self.temperature
+        q = np.empty(t.size + 1)
+        q[0] = self.heat_in
+        q[-1] = self.heat_out
+        np.multiply(self._g, t[:-1] - t[1:], out=q[1:-1])
+        return q
+
+    @cached_property
+    def face_temperature(self) -> np.ndarray:
+        q = self.face_heat_rate
+        out = np.empty(q.size)
+        # left face of cell i: T_i + Q_(i-1/2) * half_i (heat arrives from the left)
+        out[:-1] = self.temperature + q[:-1] * self._half
+        out[-1] = self.temperature[-1] - q[-1] * self._half[-1]
+        return out
+
+    @cached_property
+    def a_west(self) -> np.ndarray:
+        out = np.zeros(self.temperature.size)
+        out[1:] = self._g
+        return out
+
+    @cached_property
+    def a_east(self) -> np.ndarray:
+        out = np.zeros(self.temperature.size)
+        out[:-1] = self._g
+        return out
 
 
 def solve_conduction(
@@ -191,7 +231,7 @@ def solve_conduction(
     conductivity : array_like
         Thermal conductivity of each cell ``k_i``. [W/(m K)]
     left, right : Boundary
-        Boundary conditions at ``x = 0`` and ``x = L``.
+        Boundary conditions at ``x = 0`` and ``x = L``. [-]
     area : array_like, optional
         Conduction area of each cell ``A_i``; default 1, so heat rates are fluxes. [m2]
     source : array_like, optional
@@ -223,80 +263,70 @@ def solve_conduction(
             f"widths and conductivity must be 1-D arrays of the same length; got {w.shape} "
             f"and {k.shape}"
         )
-    a = np.ones(n) if area is None else np.broadcast_to(np.asarray(area, dtype=float), (n,))
+    a = None if area is None else np.broadcast_to(np.asarray(area, dtype=float), (n,))
     for name, arr in (("cell width", w), ("conductivity", k), ("conduction area", a)):
-        if not (np.isfinite(arr).all() and (arr > 0.0).all()):
+        # min > 0 rejects zeros, negatives and NaN; a finite sum rejects infinities
+        if arr is not None and not (arr.min() > 0.0 and np.isfinite(arr.sum())):
             raise HeatLedgerError(f"every {name} must be finite and greater than zero")
     if left.kind == "flux" and right.kind == "flux":
         raise HeatLedgerError(
             "at least one boundary must fix a temperature (temperature or surface); "
             "two flux boundaries leave the temperature level undefined"
         )
+    area0 = 1.0 if a is None else float(a[0])
+    area_n = 1.0 if a is None else float(a[-1])
 
-    half = w / (2.0 * k * a)  # half-cell resistances [K/W]
-    g_int = 1.0 / (half[:-1] + half[1:])  # interior face conductances [W/K]
+    half = w / (2.0 * k) if a is None else w / (2.0 * k * a)  # half-cell resistances [K/W]
+    g_int = half[:-1] + half[1:]
+    np.reciprocal(g_int, out=g_int)  # interior face conductances [W/K]
 
-    sc = np.zeros(n) if source is None else np.array(np.broadcast_to(source, (n,)), dtype=float)
-    if source_slope is None:
-        sp = None
+    if source is None:
+        b = np.zeros(n)
+        src_const = 0.0
     else:
+        b = np.array(np.broadcast_to(source, (n,)), dtype=float)
+        src_const = float(b.sum())
+    a_p = np.empty(n)
+    a_p[0] = 0.0
+    a_p[1:] = g_int
+    a_p[:-1] += g_int
+    sp = None
+    if source_slope is not None:
         sp = np.broadcast_to(np.asarray(source_slope, dtype=float), (n,))
-        if (sp > 0.0).any():
+        if sp.max() > 0.0:
             raise HeatLedgerError("source_slope must be <= 0 for a stable, bounded solution")
-
-    a_w = np.zeros(n)
-    a_e = np.zeros(n)
-    a_w[1:] = g_int
-    a_e[:-1] = g_int
-    b = sc.copy()
-    gb_left = _boundary_conductance(left, half[0], a[0])
-    gb_right = _boundary_conductance(right, half[-1], a[-1])
-    a_p = a_w + a_e
-    if sp is not None:
-        a_p = a_p - sp
+        a_p -= sp
+    gb_left = _boundary_conductance(left, half[0], area0)
+    gb_right = _boundary_conductance(right, half[-1], area_n)
     if left.kind == "flux":
-        b[0] += left.flux * a[0]
+        b[0] += left.flux * area0
     else:
         a_p[0] += gb_left
         b[0] += gb_left * left.temperature
     if right.kind == "flux":
-        b[-1] += right.flux * a[-1]
+        b[-1] += right.flux * area_n
     else:
         a_p[-1] += gb_right
         b[-1] += gb_right * right.temperature
 
-    temp = solve_tridiagonal(-a_w[1:], a_p, -a_e[:-1], b)
+    if n == 1:
+        temp = b / a_p
+    else:
+        dl = np.negative(g_int)
+        _, _, _, temp, info = _GTSV(dl, a_p.copy(), dl.copy(), b.copy(), overwrite_dl=1,
+                                    overwrite_d=1, overwrite_du=1, overwrite_b=1)
+        if info != 0:
+            raise HeatLedgerError(f"the finite-volume system is singular (LAPACK gtsv "
+                                  f"info={info})")
 
-    q = np.empty(n + 1)
-    q[1:-1] = g_int * (temp[:-1] - temp[1:])
-    q[0] = left.flux * a[0] if left.kind == "flux" else gb_left * (left.temperature - temp[0])
-    q[-1] = (
-        -right.flux * a[-1] if right.kind == "flux" else gb_right * (temp[-1] - right.temperature)
-    )
-    t_face = np.empty(n + 1)
-    # left face of cell i: T_i + Q_(i-1/2) * half_i  (heat arrives from the left)
-    t_face[:-1] = temp + q[:-1] * half
-    t_face[-1] = temp[-1] - q[-1] * half[-1]
-
-    src = float(sc.sum() + (0.0 if sp is None else np.dot(sp, temp)))
-    imbalance = q[0] - q[-1] + src
-    scale = max(abs(q[0]), abs(q[-1]), abs(src), np.finfo(float).tiny)
-    faces = np.concatenate(([0.0], np.cumsum(w)))
-    x = faces[:-1] + 0.5 * w
-    return FVSolution(
-        x=x,
-        temperature=temp,
-        faces=faces,
-        face_temperature=t_face,
-        face_heat_rate=q,
-        a_west=a_w,
-        a_east=a_e,
-        a_centre=a_p,
-        b=b,
-        source_total=src,
-        energy_residual=float(imbalance / scale),
-        settings={"cells": n, "method": "cell-centred finite volume, harmonic-mean faces"},
-    )
+    q_in = left.flux * area0 if left.kind == "flux" else gb_left * (left.temperature - temp[0])
+    q_out = (-right.flux * area_n if right.kind == "flux"
+             else gb_right * (temp[-1] - right.temperature))
+    src = src_const + (0.0 if sp is None else float(np.dot(sp, temp)))
+    imbalance = q_in - q_out + src
+    scale = max(abs(q_in), abs(q_out), abs(src), np.finfo(float).tiny)
+    return FVSolution(temp, w, half, g_int, a_p, b, q_in, q_out, src, imbalance / scale,
+                      {"cells": n, "method": "cell-centred finite volume, harmonic-mean faces"})
 
 
 def solve_tridiagonal(lower, diag, upper, rhs) -> np.ndarray:

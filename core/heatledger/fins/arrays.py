@@ -29,7 +29,7 @@ class FinArray:
     ----------
     fin : StraightFin or AnnularFin
         One fin of the array (its ``h`` also applies to the exposed base; its tip must not
-        be ``"temperature"``).
+        be ``"temperature"``). [-]
     count : int
         Number of fins ``N``. [-]
     base_area : float

@@ -1,0 +1,246 @@
+"""The ``heatledger`` command line.
+
+    heatledger demo                 results of the (invented) demo project as a table
+    heatledger calc FILE [--json]   results of a TOML project file
+    heatledger materials [--json]   the material library
+
+Exit codes: 0 success, 1 input problem (message on stderr), 2 usage error.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import math
+import sys
+from importlib import resources
+
+from . import __version__
+from .cautions import caution_lines
+from .errors import HeatLedgerError, ProjectError
+from .materials import default_library
+from .project import Project, load_project, project_from_dict
+
+__all__ = ["main", "demo_project", "project_results"]
+
+DEMO_RESOURCE = "data/demo_project.toml"
+
+
+def main(argv=None) -> int:
+    """Run the command line; return the exit code."""
+    parser = _parser()
+    args = parser.parse_args(argv)
+    if not getattr(args, "command", None):
+        parser.print_help()
+        return 2
+    try:
+        return int(args.handler(args) or 0)
+    except ProjectError as exc:
+        print(f"heatledger: {exc}", file=sys.stderr)
+        return 1
+    except HeatLedgerError as exc:
+        print(f"heatledger: {exc}", file=sys.stderr)
+        return 1
+    except OSError as exc:
+        print(f"heatledger: {exc.strerror or exc}: {exc.filename or ''}".rstrip(": "),
+              file=sys.stderr)
+        return 1
+
+
+def demo_bytes() -> bytes:
+    """The demo project file shipped with heatledger (an invented scenario), as bytes."""
+    return resources.files("heatledger").joinpath(DEMO_RESOURCE).read_bytes()
+
+
+def demo_project() -> Project:
+    """The demo project shipped with heatledger (an invented scenario)."""
+    from .project import tomllib
+
+    data = demo_bytes()
+    return project_from_dict(tomllib.loads(data.decode("utf-8")), source_bytes=data,
+                             source_name="demo_project.toml")
+
+
+def project_results(project: Project) -> dict:
+    """Per-construction results of ``project`` as plain data (the ``--json`` schema).
+
+    Parameters
+    ----------
+    project : Project
+        A parsed project. [-]
+
+    Returns
+    -------
+    dict
+        ``{"project": ..., "design": ..., "constructions": [...]}`` with, per construction,
+        ``total_resistance`` [m2 K/W], ``u_value`` and ``u_value_reported`` [W/(m2 K)],
+        ``interface_temperatures`` [degC], ``heat_flux`` [W/m2] and ``energy_residual`` [-].
+    """
+    out = []
+    for entry in project.constructions:
+        con = entry.construction
+        temps = con.temperatures(project.temp_inside, project.temp_outside,
+                                 nodes_per_layer=entry.nodes_per_layer)
+        counted = [row for row in con.layer_table if row.counted]
+        labels = ["inside surface"] + [f"{a.name} | {b.name}" for a, b in
+                                       zip(counted[:-1], counted[1:], strict=True)]
+        labels.append("outside surface")
+        target = entry.target_u
+        sizing = None
+        if entry.size_layer is not None:
+            try:
+                d_req = entry.required_thickness()
+                sizing = {"layer": con.layers[entry.size_layer].name,
+                          "required_thickness_mm": d_req * 1000.0, "message": ""}
+            except HeatLedgerError as exc:
+                sizing = {"layer": con.layers[entry.size_layer].name,
+                          "required_thickness_mm": None, "message": str(exc)}
+        out.append({
+            "name": entry.name,
+            "heat_flow": con.heat_flow,
+            "area_m2": entry.area,
+            "total_resistance": con.total_resistance,
+            "u_value_uncorrected": con.u_value_uncorrected,
+            "corrections_total": con.corrections.total,
+            "corrections_applied": con.corrections.applied,
+            "u_value": con.u_value,
+            "u_value_reported": con.u_value_reported,
+            "target_u": target,
+            "target_met": None if target is None else con.u_value <= target,
+            "heat_flux": temps.heat_flux,
+            "interface_temperatures": [
+                {"at": label, "x_m": float(x), "temperature_C": float(t)}
+                for label, x, t in zip(labels, temps.interface_x, temps.interface_temperatures,
+                                       strict=True)
+            ],
+            "energy_residual": temps.energy_residual,
+            "mesh_estimate_heat_flux": temps.mesh_estimate.error_estimate,
+            "nodes": int(temps.x.size),
+            "warnings": list(con.warnings),
+            "sizing": sizing,
+        })
+    return {
+        "project": project.info,
+        "design": {"temp_inside": project.temp_inside, "temp_outside": project.temp_outside},
+        "source_sha256": project.sha256,
+        "tool_version": __version__,
+        "constructions": out,
+        "cautions": caution_lines(),
+    }
+
+
+def _print_table(results: dict, stream=None) -> None:
+    stream = stream or sys.stdout
+    w = stream.write
+    info = results["project"]
+    des = results["design"]
+    w(f"{info.get('name') or 'heatledger project'}\n")
+    w(f"design temperatures: inside {des['temp_inside']:g} degC, outside "
+      f"{des['temp_outside']:g} degC\n\n")
+    head = (f"{'construction':<36} {'flow':<10} {'R_T m2K/W':>10} {'U W/m2K':>9} "
+            f"{'U (2 s.f.)':>10} {'target':>7} {'met':>4}")
+    w(head + "\n" + "-" * len(head) + "\n")
+    for c in results["constructions"]:
+        target = "" if c["target_u"] is None else f"{c['target_u']:.2f}"
+        met = "" if c["target_met"] is None else ("yes" if c["target_met"] else "NO")
+        w(f"{c['name'][:36]:<36} {c['heat_flow']:<10} {c['total_resistance']:>10.3f} "
+          f"{c['u_value']:>9.4f} {c['u_value_reported']:>#10.2g} {target:>7} {met:>4}\n")
+    for c in results["constructions"]:
+        w(f"\n{c['name']}: heat flux {c['heat_flux']:.3f} W/m2, energy balance residual "
+          f"{c['energy_residual']:.1e}, mesh estimate {c['mesh_estimate_heat_flux']:.1e} W/m2 "
+          f"({c['nodes']} nodes)\n")
+        for t in c["interface_temperatures"]:
+            w(f"  {t['x_m'] * 1000:8.1f} mm  {t['temperature_C']:8.2f} degC  {t['at']}\n")
+        if c["sizing"]:
+            sz = c["sizing"]
+            if sz["required_thickness_mm"] is not None:
+                w(f"  to reach U = {c['target_u']:g} W/(m2 K): {sz['layer']} "
+                  f"{sz['required_thickness_mm']:.1f} mm\n")
+            else:
+                w(f"  sizing {sz['layer']}: {sz['message']}\n")
+        for warning in c["warnings"]:
+            w(f"  warning: {warning}\n")
+    w("\nCautions:\n")
+    for line in results["cautions"]:
+        w(f"  - {line}\n")
+
+
+def _emit(results: dict, as_json: bool) -> None:
+    if as_json:
+        json.dump(_clean(results), sys.stdout, indent=2)
+        sys.stdout.write("\n")
+    else:
+        _print_table(results)
+
+
+def _clean(obj):
+    if isinstance(obj, float) and not math.isfinite(obj):
+        return None
+    if isinstance(obj, dict):
+        return {k: _clean(v) for k, v in obj.items()}
+    if isinstance(obj, list):
+        return [_clean(v) for v in obj]
+    return obj
+
+
+def _cmd_demo(args) -> int:
+    if args.write_toml:
+        from .fileio import write_bytes_atomic
+
+        write_bytes_atomic(args.write_toml, demo_bytes(), force=True)
+        return 0
+    _emit(project_results(demo_project()), args.json)
+    return 0
+
+
+def _cmd_calc(args) -> int:
+    _emit(project_results(load_project(args.file)), args.json)
+    return 0
+
+
+def _cmd_materials(args) -> int:
+    lib = default_library()
+    if args.json:
+        rows = [{"name": m.name, "conductivity": m.conductivity, "density": m.density,
+                 "specific_heat": m.specific_heat,
+                 "vapour_resistance_factor": m.vapour_resistance_factor,
+                 "source": m.source, "confidence": m.confidence} for m in lib]
+        json.dump(_clean(rows), sys.stdout, indent=2)
+        sys.stdout.write("\n")
+        return 0
+    head = f"{'material':<32} {'lambda W/mK':>11} {'rho kg/m3':>9} {'c J/kgK':>8} {'mu':>7}  source"
+    print(head)
+    print("-" * len(head))
+    for m in lib:
+        mu = "" if m.vapour_resistance_factor is None else f"{m.vapour_resistance_factor:g}"
+        rho = "" if m.density is None else f"{m.density:g}"
+        cp = "" if m.specific_heat is None else f"{m.specific_heat:g}"
+        print(f"{m.name:<32} {m.conductivity:>11g} {rho:>9} {cp:>8} {mu:>7}  {m.source} "
+              f"[{m.confidence}]")
+    return 0
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="heatledger",
+        description="Heat-transfer calculations for building constructions: U-values "
+                    "(EN ISO 6946), temperatures through the layers (1-D finite volumes).",
+    )
+    p.add_argument("--version", action="version", version=f"heatledger {__version__}")
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    d = sub.add_parser("demo", help="results of the invented demo project")
+    d.add_argument("--json", action="store_true", help="machine-readable output")
+    d.add_argument("--write-toml", metavar="PATH",
+                   help="write the demo project file (TOML) to PATH instead")
+    d.set_defaults(handler=_cmd_demo)
+
+    c = sub.add_parser("calc", help="results of a TOML project file")
+    c.add_argument("file", help="project file (.toml)")
+    c.add_argument("--json", action="store_true", help="machine-readable output")
+    c.set_defaults(handler=_cmd_calc)
+
+    m = sub.add_parser("materials", help="list the material library")
+    m.add_argument("--json", action="store_true", help="machine-readable output")
+    m.set_defaults(handler=_cmd_materials)
+    return p

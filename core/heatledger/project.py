@@ -1,0 +1,513 @@
+"""Project input: a TOML project file (or the same data from a filled-in template) turned
+into domain objects, with every problem reported at once.
+
+The schema is documented in the README ("Project file"). Thickness is given in millimetres,
+as build-ups are written in practice; everything else is SI. Every problem names its key
+path, for example ``constructions[2].layers[3].thickness_mm`` (numbering from 1, as a
+consultant counts rows).
+"""
+
+from __future__ import annotations
+
+import hashlib
+import math
+import sys
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from ._validate import finite
+from .constructions import (
+    AirGapCorrection,
+    AirLayer,
+    BridgedLayer,
+    Construction,
+    FastenerCorrection,
+    InvertedRoofCorrection,
+    Layer,
+)
+from .errors import HeatLedgerError, ProjectError
+from .materials import Material, MaterialLibrary, default_library
+
+if sys.version_info >= (3, 11):
+    import tomllib
+else:  # pragma: no cover - Python 3.10
+    import tomli as tomllib
+
+__all__ = ["Project", "ConstructionEntry", "load_project", "project_from_dict", "MAX_INPUT_BYTES"]
+
+#: Largest project file accepted. [bytes]
+MAX_INPUT_BYTES = 20 * 1024 * 1024
+
+PROJECT_KEYS = ("name", "client", "site", "author", "checker", "revision", "date", "notes")
+DESIGN_KEYS = ("temp_inside", "temp_outside")
+MATERIAL_KEYS = ("name", "conductivity", "density", "specific_heat", "vapour_resistance_factor",
+                 "source")
+CONSTRUCTION_KEYS = ("name", "heat_flow", "area", "target_u", "nodes_per_layer", "rsi", "rse",
+                     "notes", "apply_small_corrections", "size_layer", "layers", "corrections")
+LAYER_KINDS = ("material", "declared", "air", "bridged")
+LAYER_KEYS = {
+    "material": ("kind", "name", "material", "conductivity", "thickness_mm"),
+    "declared": ("kind", "name", "resistance", "thickness_mm"),
+    "air": ("kind", "name", "thickness_mm", "ventilation", "emissivity_1", "emissivity_2",
+            "vent_area_mm2"),
+    "bridged": ("kind", "name", "material", "conductivity", "thickness_mm", "bridging_material",
+                "bridging_conductivity", "bridging_fraction"),
+}
+CORRECTION_KINDS = ("air_gaps", "fasteners", "inverted_roof")
+CORRECTION_KEYS = {
+    "air_gaps": ("kind", "layer", "level"),
+    "fasteners": ("kind", "layer", "conductivity", "material", "cross_section_mm2",
+                  "count_per_m2", "penetration_mm", "edition", "application"),
+    "inverted_roof": ("kind", "layer", "precipitation_mm_per_day", "drainage_factor",
+                      "factor_x"),
+}
+#: Sections of the project file read by other method families (kept as raw data here).
+OTHER_SECTIONS = ("rooms", "fins", "building")
+TOP_KEYS = ("project", "design", "materials", "constructions") + OTHER_SECTIONS
+
+
+@dataclass
+class ConstructionEntry:
+    """A construction of the project with its use: area and target."""
+
+    name: str
+    construction: Construction
+    area: float | None
+    target_u: float | None
+    nodes_per_layer: int | None
+    layer_inputs: list
+    where: str
+    notes: str = ""
+    size_layer: int | None = None
+
+    def required_thickness(self) -> float | None:
+        """Thickness of ``size_layer`` that meets ``target_u``, or None if either is not
+        given. [m]"""
+        if self.size_layer is None or self.target_u is None:
+            return None
+        from .constructions import required_thickness
+
+        return required_thickness(self.construction, self.size_layer, self.target_u)
+
+
+@dataclass
+class Project:
+    """A parsed project: information, design temperatures, materials and constructions."""
+
+    info: dict
+    temp_inside: float
+    temp_outside: float
+    materials: MaterialLibrary
+    constructions: list
+    user_materials: list = field(default_factory=list)
+    raw: dict = field(default_factory=dict)
+    source_bytes: bytes = b""
+    source_name: str = ""
+
+    @property
+    def sha256(self) -> str:
+        """SHA-256 of the input file (hex), for the audit trail."""
+        return hashlib.sha256(self.source_bytes).hexdigest()
+
+    def materials_used(self) -> list:
+        """Materials referred to by the project's layers, in order of first use."""
+        seen: dict[str, Material] = {}
+        for entry in self.constructions:
+            for row in entry.layer_inputs:
+                for key in ("material", "bridging_material"):
+                    name = row.get(key)
+                    if isinstance(name, str) and name in self.materials:
+                        mat = self.materials.get(name)
+                        seen.setdefault(mat.name, mat)
+        return list(seen.values())
+
+
+def load_project(path) -> Project:
+    """Read a TOML project file.
+
+    Parameters
+    ----------
+    path : str or Path
+        The ``.toml`` file. [-]
+
+    Returns
+    -------
+    Project
+
+    Raises
+    ------
+    ProjectError
+        Listing every problem found, each with its key path.
+    """
+    p = Path(path)
+    try:
+        size = p.stat().st_size
+    except OSError as exc:
+        raise HeatLedgerError(f"cannot read project file {str(p)!r}: {exc.strerror}") from None
+    if size > MAX_INPUT_BYTES:
+        raise HeatLedgerError(f"project file {p.name!r} is {size} bytes; the limit is "
+                              f"{MAX_INPUT_BYTES} bytes")
+    data_bytes = p.read_bytes()
+    try:
+        data = tomllib.loads(data_bytes.decode("utf-8"))
+    except UnicodeDecodeError:
+        raise ProjectError([("file", "not UTF-8 text; save the project file as UTF-8")],
+                           source=p.name) from None
+    except tomllib.TOMLDecodeError as exc:
+        raise ProjectError([("file", f"not valid TOML: {exc}")], source=p.name) from None
+    return project_from_dict(data, source_bytes=data_bytes, source_name=p.name)
+
+
+def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str = "") -> Project:
+    """Build a :class:`Project` from parsed data (TOML tables or a template's rows).
+
+    Parameters
+    ----------
+    data : dict
+        The project data in the schema of the README. [-]
+    source_bytes : bytes
+        The input file's bytes (for the SHA-256 on the cover sheet). [-]
+    source_name : str
+        The input file's name, for messages. [-]
+
+    Returns
+    -------
+    Project
+
+    Raises
+    ------
+    ProjectError
+        Listing every problem found, each with its key path.
+    """
+    problems: list[tuple[str, str]] = []
+    if not isinstance(data, dict):
+        raise ProjectError([("file", "the project must be a table of sections")],
+                           source=source_name)
+    _unknown(data, TOP_KEYS, "", problems)
+    info_in = _table(data, "project", problems)
+    _unknown(info_in, PROJECT_KEYS, "project", problems)
+    info = {k: "" if info_in.get(k) is None else str(info_in.get(k)) for k in PROJECT_KEYS}
+    design = _table(data, "design", problems)
+    _unknown(design, DESIGN_KEYS, "design", problems)
+    t_i = _number(design, "temp_inside", "design", problems, default=20.0)
+    t_e = _number(design, "temp_outside", "design", problems, default=-5.0)
+    if t_i is not None and t_e is not None and not t_i > t_e:
+        problems.append(("design.temp_outside", f"must be below temp_inside ({t_i:g} degC) for "
+                         f"a heating case; got {t_e:g} degC"))
+
+    library = default_library()
+    user_materials = []
+    for i, row in enumerate(_list(data, "materials", problems), 1):
+        where = f"materials[{i}]"
+        if not isinstance(row, dict):
+            problems.append((where, "must be a table with name and conductivity"))
+            continue
+        _unknown(row, MATERIAL_KEYS, where, problems)
+        try:
+            mat = Material(
+                name=str(row.get("name", "")).strip(),
+                conductivity=_req(row, "conductivity", where),
+                density=row.get("density"),
+                specific_heat=row.get("specific_heat"),
+                vapour_resistance_factor=row.get("vapour_resistance_factor"),
+                source=str(row.get("source", "")) or "user input",
+                confidence="user",
+            )
+            library.add(mat, override=True)
+            user_materials.append(mat)
+        except HeatLedgerError as exc:
+            problems.append((exc.where or where, str(exc).split(": ", 1)[-1] if exc.where
+                             else str(exc)))
+
+    entries = []
+    names_seen: set[str] = set()
+    for i, row in enumerate(_list(data, "constructions", problems), 1):
+        where = f"constructions[{i}]"
+        entry = _construction(row, where, library, problems)
+        if entry is None:
+            continue
+        if entry.name.lower() in names_seen:
+            problems.append((f"{where}.name", f"construction name {entry.name!r} is used twice; "
+                             "names must be unique"))
+        names_seen.add(entry.name.lower())
+        entries.append(entry)
+    if problems:
+        raise ProjectError(problems, source=source_name)
+    return Project(info=info, temp_inside=t_i, temp_outside=t_e, materials=library,
+                   constructions=entries, user_materials=user_materials, raw=data,
+                   source_bytes=source_bytes, source_name=source_name)
+
+
+def build_construction(row: dict, library: MaterialLibrary | None = None, *,
+                       where: str = "construction") -> ConstructionEntry:
+    """Build one construction entry from a row dictionary; raise on the first problems.
+
+    Parameters
+    ----------
+    row : dict
+        A construction table in the project-file schema. [-]
+    library : MaterialLibrary, optional
+        Materials to resolve names against; default the generic library. [-]
+    where : str
+        Key path used in messages. [-]
+
+    Returns
+    -------
+    ConstructionEntry
+    """
+    problems: list = []
+    entry = _construction(row, where, library or default_library(), problems)
+    if problems:
+        raise ProjectError(problems)
+    return entry
+
+
+# ------------------------------------------------------------------------------------------
+
+
+def _construction(row, where, library, problems) -> ConstructionEntry | None:
+    if not isinstance(row, dict):
+        problems.append((where, "must be a table with name, heat_flow and layers"))
+        return None
+    start = len(problems)
+    _unknown(row, CONSTRUCTION_KEYS, where, problems)
+    name = str(row.get("name", "")).strip()
+    if not name:
+        problems.append((f"{where}.name", "every construction needs a name"))
+    heat_flow = row.get("heat_flow", "horizontal")
+    area = _number(row, "area", where, problems, positive=True)
+    target = _number(row, "target_u", where, problems, positive=True)
+    rsi = _number(row, "rsi", where, problems, non_negative=True)
+    rse = _number(row, "rse", where, problems, non_negative=True)
+    nodes = row.get("nodes_per_layer")
+    if nodes is not None and (isinstance(nodes, bool) or not isinstance(nodes, int)
+                              or nodes < 1):
+        problems.append((f"{where}.nodes_per_layer", f"must be a whole number >= 1; got "
+                         f"{nodes!r}"))
+        nodes = None
+    layers_in = row.get("layers")
+    if not isinstance(layers_in, list) or not layers_in:
+        problems.append((f"{where}.layers", "list at least one layer, inside to outside"))
+        layers_in = []
+    layers = []
+    for j, lrow in enumerate(layers_in, 1):
+        lw = f"{where}.layers[{j}]"
+        try:
+            layers.append(_layer(lrow, lw, library, problems))
+        except HeatLedgerError as exc:
+            problems.append((exc.where or lw, _msg(exc)))
+    corrections = []
+    for j, crow in enumerate(row.get("corrections") or [], 1):
+        cw = f"{where}.corrections[{j}]"
+        try:
+            corrections.append(_correction(crow, cw, layers_in, library, problems))
+        except HeatLedgerError as exc:
+            problems.append((exc.where or cw, _msg(exc)))
+    size_layer = None
+    if row.get("size_layer") is not None:
+        size_layer = _layer_index(row.get("size_layer"), layers_in, f"{where}.size_layer",
+                                  problems)
+        if target is None:
+            problems.append((f"{where}.target_u", "size_layer needs a target_u to size for"))
+    if len(problems) > start or any(lay is None for lay in layers) or \
+            any(c is None for c in corrections):
+        return None
+    try:
+        con = Construction(layers, heat_flow, rsi=rsi, rse=rse, name=name,
+                           corrections=corrections,
+                           apply_small_corrections=bool(row.get("apply_small_corrections",
+                                                                False)))
+    except HeatLedgerError as exc:
+        key = ".heat_flow" if "heat_flow" in str(exc) else ""
+        problems.append((f"{where}{key}", _msg(exc)))
+        return None
+    return ConstructionEntry(name, con, area, target, nodes, list(layers_in), where,
+                             str(row.get("notes", "")), size_layer)
+
+
+def _layer(row, where, library, problems):
+    if not isinstance(row, dict):
+        problems.append((where, "must be a table with kind, thickness_mm and a material"))
+        return None
+    kind = str(row.get("kind", "material")).strip().lower()
+    if kind not in LAYER_KINDS:
+        problems.append((f"{where}.kind", f"must be one of {', '.join(map(repr, LAYER_KINDS))}; "
+                         f"got {row.get('kind')!r}"))
+        return None
+    start = len(problems)
+    _unknown(row, LAYER_KEYS[kind], where, problems)
+    d_mm = _number(row, "thickness_mm", where, problems, positive=True, required=True)
+    name = str(row.get("name", "") or "")
+    if len(problems) > start:
+        return None
+    d = d_mm / 1000.0
+    if kind == "material":
+        mat, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
+                                             problems)
+        if lam is None:
+            return None
+        return Layer(d, lam, name=name or (mat.name if mat else ""), material=mat)
+    if kind == "declared":
+        r = _number(row, "resistance", where, problems, positive=True, required=True)
+        return None if r is None else Layer(d, resistance=r, name=name)
+    if kind == "air":
+        vent = row.get("vent_area_mm2")
+        return AirLayer(d, ventilation=str(row.get("ventilation", "unventilated")),
+                        emissivity_1=_number(row, "emissivity_1", where, problems, default=0.9),
+                        emissivity_2=_number(row, "emissivity_2", where, problems, default=0.9),
+                        vent_area=None if vent is None else finite(f"{where}.vent_area_mm2",
+                                                                   vent),
+                        name=name)
+    mat, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
+                                         problems)
+    bmat, blam = _material_or_conductivity(row, "bridging_material", "bridging_conductivity",
+                                           where, library, problems)
+    frac = _number(row, "bridging_fraction", where, problems, required=True)
+    if lam is None or blam is None or frac is None:
+        return None
+    if not 0.0 < frac < 1.0:
+        problems.append((f"{where}.bridging_fraction", f"must be between 0 and 1 (the share of "
+                         f"the area taken by studs, joists or battens); got {frac:g}"))
+        return None
+    label = name or f"{mat.name if mat else lam} bridged by {bmat.name if bmat else blam}"
+    return BridgedLayer(d, [(lam, 1.0 - frac), (blam, frac)], name=label)
+
+
+def _correction(row, where, layers_in, library, problems):
+    if not isinstance(row, dict):
+        problems.append((where, "must be a table with kind and layer"))
+        return None
+    kind = str(row.get("kind", "")).strip().lower()
+    if kind not in CORRECTION_KINDS:
+        problems.append((f"{where}.kind", f"must be one of "
+                         f"{', '.join(map(repr, CORRECTION_KINDS))}; got {row.get('kind')!r}"))
+        return None
+    _unknown(row, CORRECTION_KEYS[kind], where, problems)
+    idx = _layer_index(row.get("layer"), layers_in, f"{where}.layer", problems)
+    if idx is None:
+        return None
+    if kind == "air_gaps":
+        level = row.get("level")
+        if level not in (0, 1, 2) or isinstance(level, bool):
+            problems.append((f"{where}.level", f"must be 0, 1 or 2; got {level!r}"))
+            return None
+        return AirGapCorrection(idx, int(level))
+    if kind == "fasteners":
+        _, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
+                                           problems)
+        area = _number(row, "cross_section_mm2", where, problems, positive=True, required=True)
+        n = _number(row, "count_per_m2", where, problems, non_negative=True, required=True)
+        pen = _number(row, "penetration_mm", where, problems, positive=True)
+        if lam is None or area is None or n is None:
+            return None
+        return FastenerCorrection(idx, lam, area * 1e-6, n,
+                                  penetration=None if pen is None else pen / 1000.0,
+                                  edition=str(row.get("edition", "2017")),
+                                  application=str(row.get("application", "wall")))
+    p = _number(row, "precipitation_mm_per_day", where, problems, non_negative=True,
+                required=True)
+    f = _number(row, "drainage_factor", where, problems, non_negative=True, required=True)
+    x = _number(row, "factor_x", where, problems, non_negative=True, default=0.04)
+    if p is None or f is None:
+        return None
+    return InvertedRoofCorrection(idx, p, f, x)
+
+
+def _layer_index(ref, layers_in, where, problems):
+    names = [str(r.get("name", "") or r.get("material", "")).strip().lower()
+             if isinstance(r, dict) else "" for r in layers_in]
+    if isinstance(ref, int) and not isinstance(ref, bool):
+        if 1 <= ref <= len(layers_in):
+            return ref - 1
+        problems.append((where, f"layer number must be 1 to {len(layers_in)}; got {ref}"))
+        return None
+    if isinstance(ref, str) and ref.strip().lower() in names:
+        return names.index(ref.strip().lower())
+    problems.append((where, f"must name a layer of this construction (its name or number 1 to "
+                     f"{len(layers_in)}); got {ref!r}"))
+    return None
+
+
+def _material_or_conductivity(row, mat_key, lam_key, where, library, problems):
+    name = row.get(mat_key)
+    lam = row.get(lam_key)
+    mat = None
+    if name not in (None, ""):
+        try:
+            mat = library.get(str(name))
+        except HeatLedgerError as exc:
+            problems.append((f"{where}.{mat_key}", str(exc)))
+            return None, None
+    if lam is not None:
+        value = _number(row, lam_key, where, problems, positive=True)
+        return mat, value
+    if mat is None:
+        problems.append((f"{where}.{mat_key}", f"give {mat_key} (a library name) or {lam_key} "
+                         "(W/(m K))"))
+        return None, None
+    return mat, mat.conductivity
+
+
+def _number(row, key, where, problems, *, default=None, positive=False, non_negative=False,
+            required=False):
+    value = row.get(key) if isinstance(row, dict) else None
+    path = f"{where}.{key}" if where else key
+    if value is None or value == "":
+        if required:
+            problems.append((path, "is required"))
+        return default
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        problems.append((path, f"must be a number; got {value!r}"))
+        return None
+    value = float(value)
+    if not math.isfinite(value):
+        problems.append((path, f"must be a finite number; got {value!r}"))
+        return None
+    if positive and value <= 0.0:
+        problems.append((path, f"must be greater than zero; got {value:g}"))
+        return None
+    if non_negative and value < 0.0:
+        problems.append((path, f"must not be negative; got {value:g}"))
+        return None
+    return value
+
+
+def _req(row, key, where):
+    value = row.get(key)
+    if value is None:
+        raise HeatLedgerError("is required", where=f"{where}.{key}")
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        raise HeatLedgerError(f"must be a number; got {value!r}", where=f"{where}.{key}")
+    return value
+
+
+def _table(data, key, problems) -> dict:
+    value = data.get(key, {})
+    if not isinstance(value, dict):
+        problems.append((key, "must be a table ([" + key + "])"))
+        return {}
+    return value
+
+
+def _list(data, key, problems) -> list:
+    value = data.get(key, [])
+    if not isinstance(value, list):
+        problems.append((key, f"must be a list of tables ([[{key}]])"))
+        return []
+    return value
+
+
+def _unknown(row, allowed, where, problems) -> None:
+    if not isinstance(row, dict):
+        return
+    for key in row:
+        if key not in allowed:
+            path = f"{where}.{key}" if where else key
+            problems.append((path, f"unknown key; allowed here: {', '.join(allowed)}"))
+
+
+def _msg(exc: HeatLedgerError) -> str:
+    text = str(exc)
+    if exc.where and text.startswith(f"{exc.where}: "):
+        return text[len(exc.where) + 2:]
+    return text
