@@ -364,10 +364,11 @@ class StraightFin(FinBase):
                 f"corrected length: h t/k = {self.h * size / self.conductivity:.3g} exceeds "
                 f"{CORRECTED_LENGTH_LIMIT}; the approximation may be in error (recalled limit)"
             )
-        biot = self.h * size / 2.0 / self.conductivity
+        biot = self.h * size / 2.0 / self.conductivity  # h (t/2)/k or h (D/4)/k (V/A)
         if biot > BIOT_1D_LIMIT:
+            what = "h (t/2)/k" if self.shape == "plate" else "h (D/4)/k"
             warns.append(
-                f"Biot number h (t/2)/k = {biot:.3g} > {BIOT_1D_LIMIT}: temperature varies "
+                f"Biot number {what} = {biot:.3g} > {BIOT_1D_LIMIT}: temperature varies "
                 "across the fin thickness and the 1-D fin model is doubtful"
             )
         return tuple(warns), tuple(notes)
