@@ -1033,6 +1033,29 @@ class Building:
         """
         return self.annual_energy_result(degree_days, base_temperature=base_temperature).energy
 
+    def room_annual_energy(self, degree_days, *, base_temperature=None) -> dict:
+        """Annual heating energy of every room, with the room-to-room exchange resolved.
+
+        Parameters
+        ----------
+        degree_days : float
+            Heating degree-days. [K day]
+        base_temperature : float, optional
+            Base temperature of the degree-days. [degC]
+
+        Returns
+        -------
+        dict of str to AnnualEnergy
+            Per room, ``Q = 24 (H_T + H_V) DD / 1000`` with the room's own coefficients
+            (exchange with other rooms included, as the room sees it). [-]
+        """
+        result = self._evaluate(self._te)  # type: ignore[attr-defined]
+        return {
+            r.room: _annual(r.room, r.transmission_coefficient, r.ventilation_coefficient,
+                            degree_days, base_temperature, self._te)  # type: ignore[attr-defined]
+            for r in result.rooms
+        }
+
     def _evaluate(self, te) -> BuildingHeatLoad:
         results = tuple(
             r._evaluate(te, self._room_temps, self.constructions)  # type: ignore[attr-defined]
