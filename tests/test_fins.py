@@ -803,3 +803,28 @@ def test_public_docstrings_give_units():
             if not re.search(r"\[[^\]]+\]$", text):
                 missing.append(f"{name}: {block.splitlines()[0]}")
     assert not missing, missing
+
+
+def test_fv_base_at_ambient_gives_zero_heat_and_undefined_efficiency():
+    fv = solve_fin_fv(0.05, 200.0, PowerLawCoefficient(1.3, 0.25), area=2e-4, perimeter=0.2,
+                      base_temperature=T_INF, ambient=T_INF, nodes=20, mesh_estimate=False)
+    assert abs(fv.heat_rate) < 1e-9 and math.isnan(fv.efficiency)  # round-off only
+    np.testing.assert_allclose(fv.temperature, T_INF)
+
+
+def test_infinite_fin_array_has_no_length_to_size():
+    arr = FinArray(pin(tip="infinite", length=0.3), 4, 0.01)
+    with pytest.raises(HeatLedgerError, match="no length to size"):
+        arr.length_for_heat_rate(5.0, T_B, T_INF)
+
+
+def test_cooling_fin_negative_heat_rate():
+    # a fin on a chilled base (base below ambient): heat flows into the fin, q < 0, and the
+    # efficiency is the same as for heating (linear problem)
+    fin = plate(tip="convective")
+    assert fin.heat_rate(5.0, 20.0) == pytest.approx(-fin.heat_rate(35.0, 20.0), rel=1e-14)
+    res = fin.evaluate(5.0, 20.0)
+    assert res.efficiency == pytest.approx(fin.efficiency) and 5.0 < res.tip_temperature < 20
+    arr = FinArray(fin, 10, 0.02)
+    sized = arr.count_for_heat_rate(-150.0, 5.0, 20.0)
+    assert sized.heat_rate <= -150.0

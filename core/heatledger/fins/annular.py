@@ -67,6 +67,14 @@ class AnnularFin(FinBase):
     F. P. Incropera, D. P. DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., Wiley
     2007, section 3.6.3 and Table 3.5 (annular fin; equation numbers recalled).
     D. Q. Kern, *Process Heat Transfer*, McGraw-Hill 1950, eq. 16.58.
+
+    Examples
+    --------
+    A 0.38 mm fin of 57.15 mm diameter on a 25.4 mm tube (the inputs of the ``ht`` library's
+    own example for its annular fin efficiency):
+
+    >>> round(AnnularFin(0.0127, 0.028575, 0.00038, 200.0, 58.0).efficiency, 6)
+    0.841259
     """
 
     inner_radius: float

@@ -218,6 +218,11 @@ class FinArray:
         q_goal, theta = self._target(target_heat_rate, base_temperature, ambient)
         if self.count == 0:
             raise HeatLedgerError("count is 0: fin length cannot change the heat rate")
+        if getattr(self.fin, "tip", None) == "infinite":
+            raise HeatLedgerError(
+                "a fin with tip='infinite' has no length to size; use tip='adiabatic' or "
+                "'convective'"
+            )
         long = _ML_LONG / self.fin.m
         lo = 1e-9 * long
 
@@ -315,7 +320,9 @@ class FinArray:
             )
         root, info = brentq(lambda n: q_of(n) - q_goal, 0.0, float(limit), xtol=1e-9,
                             rtol=_RTOL, full_output=True)
-        count = min(int(math.ceil(root - 1e-9)), limit)
+        count = min(int(math.ceil(root)), limit)
+        if count >= 1 and q_of(count - 1) >= q_goal:  # root landed just above a whole number
+            count -= 1
         return self._count_answer(count, root, target_heat_rate, base_temperature, ambient,
                                   (0.0, float(limit)), info.iterations, ())
 

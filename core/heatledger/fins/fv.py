@@ -409,11 +409,12 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
     else:
         loss_tip, ideal_tip = float(sol.face_heat_rate[-1]), 0.0
     if tip in ("convective", "adiabatic"):
-        efficiency = (loss_side + loss_tip) / (ideal_side + ideal_tip)
+        num, den = loss_side + loss_tip, ideal_side + ideal_tip
     elif tip == "infinite":
-        efficiency = q_base / ideal_side
+        num, den = q_base, ideal_side
     else:
-        efficiency = loss_side / ideal_side
+        num, den = loss_side, ideal_side
+    efficiency = num / den if den != 0.0 else float("nan")  # base at ambient: undefined
     scale = max(abs(q_base), abs(loss_side), abs(loss_tip), np.finfo(float).tiny)
     residual = (q_base - loss_side - loss_tip) / scale
     return {"sol": sol, "q": q_base, "loss_side": loss_side, "loss_tip": loss_tip,

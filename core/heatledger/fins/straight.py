@@ -105,6 +105,14 @@ class StraightFin(FinBase):
     F. P. Incropera, D. P. DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., Wiley
     2007: section 3.6, Table 3.4 (eqs. 3.70-3.81: distributions and heat rates, numbers
     recalled), eqs. 3.86-3.91 (efficiency, corrected length, recalled), Table 3.5.
+
+    Examples
+    --------
+    An aluminium plate fin per metre of width (invented example):
+
+    >>> fin = StraightFin(0.05, 200.0, 25.0, thickness=0.002, tip="adiabatic")
+    >>> round(fin.efficiency, 4), round(fin.heat_rate(80.0, 20.0), 1)
+    (0.9072, 136.4)
     """
 
     length: float
