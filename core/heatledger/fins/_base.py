@@ -5,6 +5,7 @@ from __future__ import annotations
 import numpy as np
 
 from .. import _validate as v
+from ..errors import HeatLedgerError
 from ._results import FinResult, FinTemperatures, effectiveness_messages, emit
 from .fv import solve_fin_fv
 
@@ -140,15 +141,13 @@ class FinBase:
         t_inf = v.finite("ambient", ambient)
         if nodes is not None:
             fv = self.finite_volume(t_b, t_inf, nodes=nodes)
-            start, tip = self._length_axis()
+            tip = self._length_axis()[1]
             tip_t = float(np.interp(tip, fv.x, fv.temperature))
             return FinTemperatures(x=fv.x, temperature=fv.temperature, tip_temperature=tip_t,
                                    heat_rate=fv.heat_rate,
                                    method=f"finite volume: {fv.settings['cells']} cells",
                                    fv=fv, warnings=fv.warnings)
         if isinstance(points, bool) or not isinstance(points, (int, np.integer)) or points < 2:
-            from ..errors import HeatLedgerError
-
             raise HeatLedgerError(f"points must be a whole number >= 2; got {points!r}")
         start, tip = self._length_axis()
         x = np.linspace(start, tip, int(points))
@@ -197,8 +196,6 @@ class FinBase:
         """
         setup = self._fv_setup()
         if h is not None and setup["tip"] == "infinite":
-            from ..errors import HeatLedgerError
-
             raise HeatLedgerError("tip='infinite' takes only the fin's constant h")
         return solve_fin_fv(
             setup.pop("length"), self.conductivity, self.h if h is None else h,
@@ -211,8 +208,6 @@ class FinBase:
     # ------------------------------------------------------------------ helpers
     def _need_linear_tip(self, what: str) -> None:
         if getattr(self, "tip", None) == "temperature":
-            from ..errors import HeatLedgerError
-
             raise HeatLedgerError(
                 f"{what} of a fin with tip='temperature' depends on the base and ambient "
                 "temperatures; use evaluate(base_temperature, ambient)"
