@@ -21,13 +21,18 @@ from __future__ import annotations
 
 import csv
 import io
-import math
 from dataclasses import dataclass, field
 from importlib import resources
 
 import numpy as np
 
 from . import _validate
+from ._arrays import check_perimeter as _check_perimeter
+from ._arrays import finite_array as _finite_array
+from ._arrays import non_negative_array as _non_negative_array
+from ._arrays import out as _out
+from ._arrays import perimeter_bound as _perimeter_bound
+from ._arrays import pick as _pick
 from .errors import HeatLedgerError
 
 __all__ = [
@@ -607,61 +612,4 @@ def perimeter_lower_bound(area, shape: str = "rectilinear"):
     problem), Princeton 1954.
     """
     shape = _validate.choice("shape", shape, PERIMETER_SHAPES)
-    a = _non_negative_array("area", area, "m2")
-    factor = 4.0 if shape == "rectilinear" else 2.0 * math.sqrt(math.pi)
-    return _out(factor * np.sqrt(a))
-
-
-# ----------------------------------------------------------------------------- helpers
-
-
-def _check_perimeter(pname, perimeter, aname, area, shape, *, context: str = "") -> None:
-    perimeter, area = np.broadcast_arrays(np.asarray(perimeter), np.asarray(area))
-    bound = np.asarray(perimeter_lower_bound(area, shape))
-    # a relative slack of 1e-9 lets an exact square pass despite rounding
-    short = (area > 0.0) & (perimeter < bound * (1.0 - 1e-9))
-    if np.any(short):
-        i = int(np.argmax(short.ravel()))
-        rule = (
-            "a rectilinear outline of area A needs a perimeter of at least 4 sqrt(A)"
-            if shape == "rectilinear"
-            else "any outline of area A needs a perimeter of at least 2 sqrt(pi A)"
-        )
-        hint = " (pass glazing_shape='any' for a round or curved outline)" if (
-            shape == "rectilinear" and pname == "glazing_perimeter"
-        ) else ""
-        raise HeatLedgerError(
-            f"{context}{pname} {_pick(perimeter, i):g} m cannot bound {aname} "
-            f"{_pick(area, i):g} m2: {rule} = {_pick(bound, i):.4g} m{hint}"
-        )
-
-
-def _non_negative_array(name: str, value, unit: str) -> np.ndarray:
-    arr = _finite_array(name, value)
-    if np.any(arr < 0.0):
-        bad = arr.ravel()[np.argmax((arr < 0.0).ravel())]
-        raise HeatLedgerError(f"{name} must not be negative; got {bad:g} {unit}")
-    return arr
-
-
-def _finite_array(name: str, value) -> np.ndarray:
-    if isinstance(value, bool):
-        raise HeatLedgerError(f"{name} must be a number; got {value!r}")
-    try:
-        arr = np.asarray(value, dtype=float)
-    except (TypeError, ValueError):
-        raise HeatLedgerError(f"{name} must be a number or an array of numbers; "
-                              f"got {value!r}") from None
-    if not np.all(np.isfinite(arr)):
-        raise HeatLedgerError(f"{name} must be finite; got {value!r}")
-    return arr
-
-
-def _pick(arr, i: int) -> float:
-    a = np.asarray(arr)
-    return float(a) if a.ndim == 0 else float(a.ravel()[min(i, a.size - 1)])
-
-
-def _out(arr):
-    a = np.asarray(arr, dtype=float)
-    return float(a) if a.ndim == 0 else a
+    return _out(_perimeter_bound(_non_negative_array("area", area, "m2"), shape))

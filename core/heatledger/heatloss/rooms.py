@@ -1,0 +1,574 @@
+"""Rooms and buildings: coefficients, design heat load, breakdown, annual energy.
+
+Caution: the design heat load supports, and does not replace, plant sizing by a competent
+person under the local building regulations and codes.
+
+References
+----------
+EN 12831-1:2017, clause 6 [M: recalled].
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass, field, replace
+from typing import Any
+
+from .. import _validate
+from ..errors import HeatLedgerError
+from .air import (
+    AIR_DENSITY,
+    AIR_SPECIFIC_HEAT,
+    Ventilation,
+    VentilationResult,
+    _check_ventilation,
+    _ventilation,
+)
+from .elements import (
+    Element,
+    LinearBridge,
+    PointBridge,
+    _check_bridge,
+    _check_element,
+    _factor,
+    _resolve_u,
+)
+from .results import AnnualEnergy, BuildingHeatLoad, LossLine, RoomHeatLoad
+
+# ----------------------------------------------------------------------------- rooms
+
+
+@dataclass(frozen=True)
+class Room:
+    """A heated room (or zone) and its heat losses, EN 12831-1 style.
+
+    Parameters
+    ----------
+    name : str
+        Room name, unique within a building. [-]
+    internal_temperature : float
+        Design internal temperature ``theta_int``. [degC]
+    volume : float
+        Internal air volume ``V``. [m3]
+    elements : sequence of Element
+        The room's elements. [-]
+    ventilation : Ventilation
+        Ventilation and infiltration. [-]
+    thermal_bridges : sequence of LinearBridge or PointBridge, optional
+        Thermal bridges listed separately. [-]
+    floor_area : float, optional
+        Floor area for the heating-up allowance. [m2]
+    reheat_factor : float, optional
+        Heating-up (reheat) factor ``f_RH``, from a national table by reheat time and
+        temperature drop; 0 for none. [W/m2]
+    design_external_temperature : float, optional
+        Design external temperature ``theta_e`` at which ``transmission_coefficient`` is
+        stated; needed when a boundary is given by temperature or is the ground. [degC]
+    constructions : mapping, optional
+        Constructions by name, for elements whose ``u`` is a name. [-]
+    """
+
+    name: str
+    internal_temperature: float
+    volume: float
+    elements: Sequence[Element]
+    ventilation: Ventilation
+    thermal_bridges: Sequence[LinearBridge | PointBridge] = ()
+    floor_area: float = 0.0
+    reheat_factor: float = 0.0
+    design_external_temperature: float | None = None
+    constructions: Mapping[str, Any] | None = field(default=None, compare=False)
+
+    def __post_init__(self) -> None:
+        if not isinstance(self.name, str) or not self.name.strip():
+            raise HeatLedgerError(f"room name must be a non-empty text; got {self.name!r}")
+        ctx = f"room {self.name!r}"
+        object.__setattr__(self, "internal_temperature",
+                           _validate.finite(f"{ctx}: internal_temperature",
+                                            self.internal_temperature))
+        object.__setattr__(self, "volume",
+                           _validate.positive(f"{ctx}: volume", self.volume, "m3"))
+        object.__setattr__(self, "floor_area", _validate.non_negative(
+            f"{ctx}: floor_area", self.floor_area, "m2"))
+        object.__setattr__(self, "reheat_factor", _validate.non_negative(
+            f"{ctx}: reheat_factor", self.reheat_factor, "W/m2"))
+        if self.reheat_factor > 0.0 and self.floor_area <= 0.0:
+            raise HeatLedgerError(
+                f"{ctx}: a reheat_factor of {self.reheat_factor:g} W/m2 needs the floor_area "
+                "it applies to; got floor_area 0 m2"
+            )
+        if self.design_external_temperature is not None:
+            te = _validate.finite(f"{ctx}: design_external_temperature",
+                                  self.design_external_temperature)
+            object.__setattr__(self, "design_external_temperature", te)
+        if not isinstance(self.ventilation, Ventilation):
+            raise HeatLedgerError(
+                f"{ctx}: ventilation must be a Ventilation(...); got {self.ventilation!r}"
+            )
+        _check_ventilation(ctx, self.ventilation)
+        elements = tuple(self.elements)
+        bridges = tuple(self.thermal_bridges)
+        seen: set[str] = set()
+        for el in elements:
+            _check_element(ctx, el, seen)
+        for br in bridges:
+            _check_bridge(ctx, br, seen)
+        object.__setattr__(self, "elements", elements)
+        object.__setattr__(self, "thermal_bridges", bridges)
+
+    # -- coefficients at the design external temperature
+
+    @property
+    def transmission_coefficient(self) -> float:
+        """``H_T`` at :attr:`design_external_temperature`. [W/K]"""
+        return self._evaluate(self.design_external_temperature, None, None).transmission_coefficient
+
+    @property
+    def ventilation_coefficient(self) -> float:
+        """``H_V``. [W/K]"""
+        return self.ventilation_result().coefficient
+
+    @property
+    def heat_loss_coefficient(self) -> float:
+        """``H_T + H_V``. [W/K]"""
+        return self.transmission_coefficient + self.ventilation_coefficient
+
+    def ventilation_result(self) -> VentilationResult:
+        """Air flows and ``H_V`` of this room.
+
+        Returns
+        -------
+        VentilationResult
+            Flows and coefficient. [-]
+        """
+        return _ventilation(self.ventilation, self.volume)
+
+    def heat_load(self, external_temperature) -> RoomHeatLoad:
+        """Design heat load of this room alone, with every step.
+
+        Parameters
+        ----------
+        external_temperature : float
+            Design external temperature ``theta_e``. [degC]
+
+        Returns
+        -------
+        RoomHeatLoad
+            Coefficients, heat flows, breakdown and provenance. [-]
+
+        Raises
+        ------
+        HeatLedgerError
+            If ``theta_e`` is not below the internal temperature, or an element faces a room
+            by name (only a :class:`Building` can resolve it), or a construction name is
+            unknown.
+
+        Notes
+        -----
+        .. math::
+
+            \\Phi_{HL} = (H_T + H_V)(\\theta_{int} - \\theta_e) + f_{RH} A_{floor}
+
+            H_T = \\sum_k A_k (U_k + \\Delta U_{TB}) f_k + \\sum_l \\psi_l l_l f_l
+                  + \\sum_j \\chi_j f_j
+
+        with :math:`f = 1` outside, :math:`b_u` or
+        :math:`(\\theta_{int} - \\theta_u)/(\\theta_{int} - \\theta_e)` to an unheated space,
+        :math:`(\\theta_{int} - \\theta_{adj})/(\\theta_{int} - \\theta_e)` to another heated
+        space, and :math:`f_{g1} f_{g2} G_w` with
+        :math:`f_{g2} = (\\theta_{int} - \\theta_{m,e})/(\\theta_{int} - \\theta_e)` to the
+        ground.
+
+        References
+        ----------
+        EN 12831-1:2017, clause 6 [M: recalled].
+        """
+        te = _validate.finite("external_temperature", external_temperature)
+        return self._evaluate(te, None, None)
+
+    def design_heat_load(self, external_temperature) -> float:
+        """Design heat load ``Phi_HL`` of this room.
+
+        Parameters
+        ----------
+        external_temperature : float
+            Design external temperature. [degC]
+
+        Returns
+        -------
+        float
+            Design heat load. [W]
+
+        Raises
+        ------
+        HeatLedgerError
+            As :meth:`heat_load`.
+        """
+        return self.heat_load(external_temperature).design_heat_load
+
+    def annual_energy_result(self, degree_days, *, base_temperature=None) -> AnnualEnergy:
+        """Annual heating energy of this room from heating degree-days, with provenance.
+
+        Parameters
+        ----------
+        degree_days : float
+            Heating degree-days on the base appropriate to the room. [K day]
+        base_temperature : float, optional
+            Base temperature of the degree-days, recorded in the result. [degC]
+
+        Returns
+        -------
+        AnnualEnergy
+            ``Q = 24 (H_T + H_V) DD / 1000``, with the coefficients used. [-]
+        """
+        h_t = self.transmission_coefficient
+        return _annual(self.name, h_t, self.ventilation_coefficient, degree_days,
+                       base_temperature, self.design_external_temperature)
+
+    def annual_energy(self, degree_days, *, base_temperature=None) -> float:
+        """Annual heating energy of this room from heating degree-days.
+
+        Parameters
+        ----------
+        degree_days : float
+            Heating degree-days. [K day]
+        base_temperature : float, optional
+            Base temperature of the degree-days, recorded by
+            :meth:`annual_energy_result`. [degC]
+
+        Returns
+        -------
+        float
+            ``Q = 24 H DD / 1000``. [kWh]
+        """
+        return self.annual_energy_result(degree_days, base_temperature=base_temperature).energy
+
+    # -- the evaluation proper
+
+    def _evaluate(self, te, room_temps, building_constructions) -> RoomHeatLoad:
+        ctx = f"room {self.name!r}"
+        ti = self.internal_temperature
+        if te is not None and not te < ti:
+            raise HeatLedgerError(
+                f"{ctx}: external_temperature {te:g} degC must be below the internal "
+                f"temperature {ti:g} degC for a design heat load"
+            )
+        lines: list[dict] = []
+        for el in self.elements:
+            ectx = f"{ctx}, element {el.name!r}"
+            u, source = _resolve_u(ectx, el, self.constructions, building_constructions)
+            f, rule, internal, label = _factor(ectx, el.boundary, ti, te, room_temps, self.name)
+            ue = u + el.thermal_bridge_allowance
+            lines.append(dict(name=el.name, category="transmission", kind=el.kind,
+                              boundary=label, quantity=el.area, quantity_unit="m2",
+                              transmittance=u, transmittance_unit="W/(m2 K)",
+                              bridge_allowance=el.thermal_bridge_allowance, factor=f,
+                              factor_rule=rule, coefficient=el.area * ue * f,
+                              internal=internal, source=source))
+        for br in self.thermal_bridges:
+            bctx = f"{ctx}, thermal bridge {br.name!r}"
+            f, rule, internal, label = _factor(bctx, br.boundary, ti, te, room_temps, self.name)
+            if isinstance(br, LinearBridge):
+                q, qu, t, tu, kind = br.length, "m", br.psi, "W/(m K)", "linear bridge"
+            else:
+                q, qu, t, tu, kind = float(br.count), "-", br.chi, "W/K", "point bridge"
+            lines.append(dict(name=br.name, category="transmission", kind=kind, boundary=label,
+                              quantity=q, quantity_unit=qu, transmittance=t,
+                              transmittance_unit=tu, bridge_allowance=0.0, factor=f,
+                              factor_rule=rule, coefficient=q * t * f, internal=internal,
+                              source="given"))
+        vent = self.ventilation_result()
+        lines.append(dict(name="ventilation", category="ventilation", kind="ventilation",
+                          boundary="outside air", quantity=vent.effective_flow,
+                          quantity_unit="m3/h", transmittance=vent.volumetric_heat_capacity,
+                          transmittance_unit="W h/(m3 K)", bridge_allowance=0.0, factor=1.0,
+                          factor_rule=vent.method, coefficient=vent.coefficient,
+                          internal=False, source="air properties at 20 degC, 101325 Pa"))
+        reheat = self.reheat_factor * self.floor_area
+        lines.append(dict(name="heating-up allowance", category="reheat", kind="reheat",
+                          boundary="-", quantity=self.floor_area, quantity_unit="m2",
+                          transmittance=self.reheat_factor, transmittance_unit="W/m2",
+                          bridge_allowance=0.0, factor=1.0,
+                          factor_rule="Phi_hu = f_RH A_floor (input)", coefficient=0.0,
+                          internal=False, source="input f_RH"))
+        dt = math.nan if te is None else ti - te
+        for ln in lines:
+            ln["heat_flow"] = reheat if ln["category"] == "reheat" else ln["coefficient"] * dt
+        h_t = sum(ln["coefficient"] for ln in lines if ln["category"] == "transmission")
+        h_int = sum(ln["coefficient"] for ln in lines if ln["internal"])
+        phi_t = h_t * dt
+        phi_v = vent.coefficient * dt
+        total = phi_t + phi_v + reheat
+        frozen = tuple(
+            LossLine(room=self.name, share=_share(ln["heat_flow"], total), **ln) for ln in lines
+        )
+        prov = (
+            f"design external temperature: {te!r} degC; internal {ti:g} degC",
+            "transmission: EN 12831-1:2017 clause 6, H_T = sum A (U + dU_TB) f + sum psi l f "
+            "+ sum chi f [M]",
+            f"ventilation: {vent.method}",
+            f"air: rho {AIR_DENSITY:.4f} kg/m3 (ideal dry air, 20 degC, 101325 Pa), c_p "
+            f"{AIR_SPECIFIC_HEAT:g} J/(kg K) [M]",
+            "heating-up: Phi_hu = f_RH A_floor, f_RH input" if reheat > 0 else
+            "heating-up: none (f_RH 0)",
+        )
+        return RoomHeatLoad(
+            room=self.name, internal_temperature=ti, external_temperature=te,
+            temperature_difference=dt, transmission_coefficient=h_t,
+            internal_exchange_coefficient=h_int, ventilation_coefficient=vent.coefficient,
+            heat_loss_coefficient=h_t + vent.coefficient, transmission_heat_loss=phi_t,
+            ventilation_heat_loss=phi_v, reheat_allowance=reheat, design_heat_load=total,
+            ventilation=vent, lines=frozen, provenance=prov,
+        )
+
+
+# ----------------------------------------------------------------------------- building
+
+
+@dataclass(frozen=True)
+class Building:
+    """A building: its rooms, less the heat they exchange with each other.
+
+    Parameters
+    ----------
+    name : str
+        Building name. [-]
+    rooms : sequence of Room
+        Rooms with unique names. [-]
+    constructions : mapping, optional
+        Constructions by name for elements whose ``u`` is a name (looked up after the room's
+        own mapping; a name in both must be the same object). [-]
+    design_external_temperature : float, optional
+        Design external temperature at which the coefficients are stated; rooms that state
+        their own must agree with it. [degC]
+    """
+
+    name: str
+    rooms: Sequence[Room]
+    constructions: Mapping[str, Any] | None = field(default=None, compare=False)
+    design_external_temperature: float | None = None
+
+    def __post_init__(self) -> None:
+        rooms = tuple(self.rooms)
+        if not rooms:
+            raise HeatLedgerError(f"building {self.name!r} must have at least one room")
+        names: set[str] = set()
+        for r in rooms:
+            if not isinstance(r, Room):
+                raise HeatLedgerError(f"building {self.name!r}: rooms must be Room objects; "
+                                      f"got {r!r}")
+            if r.name in names:
+                raise HeatLedgerError(f"building {self.name!r}: room name {r.name!r} "
+                                      "appears twice; room names must be unique")
+            names.add(r.name)
+        object.__setattr__(self, "rooms", rooms)
+        temps = {r.design_external_temperature for r in rooms} - {None}
+        te = self.design_external_temperature
+        if te is not None:
+            te = _validate.finite(f"building {self.name!r}: design_external_temperature", te)
+            object.__setattr__(self, "design_external_temperature", te)
+            temps.add(te)
+        if len(temps) > 1:
+            raise HeatLedgerError(
+                f"building {self.name!r}: the rooms and building state different design "
+                f"external temperatures {sorted(temps)}; one building has one design value"
+            )
+        object.__setattr__(self, "_te", temps.pop() if temps else None)
+        temps_by_room = {r.name: r.internal_temperature for r in rooms}
+        object.__setattr__(self, "_room_temps", temps_by_room)
+
+    @property
+    def transmission_coefficient(self) -> float:
+        """Building ``H_T``: rooms' sum less internal exchange. [W/K]"""
+        return self._evaluate(self._te).transmission_coefficient  # type: ignore[attr-defined]
+
+    @property
+    def ventilation_coefficient(self) -> float:
+        """Building ``H_V``: sum over rooms. [W/K]"""
+        return sum(r.ventilation_coefficient for r in self.rooms)
+
+    @property
+    def heat_loss_coefficient(self) -> float:
+        """``H_T + H_V``. [W/K]"""
+        return self.transmission_coefficient + self.ventilation_coefficient
+
+    def heat_load(self, external_temperature) -> BuildingHeatLoad:
+        """Design heat load of the building and of every room, with every step.
+
+        Parameters
+        ----------
+        external_temperature : float
+            Design external temperature. [degC]
+
+        Returns
+        -------
+        BuildingHeatLoad
+            Room results, building totals, breakdown and provenance. [-]
+
+        Raises
+        ------
+        HeatLedgerError
+            As :meth:`Room.heat_load`, and for an element naming a room not in the
+            building.
+
+        Notes
+        -----
+        .. math::
+
+            \\Phi_{HL,bldg} = \\sum_i (\\Phi_{HL,i} - \\Phi_{int,i}), \\qquad
+            H_{T,bldg} = \\sum_i (H_{T,i} - H_{int,i})
+
+        where the internal parts are the elements and bridges facing rooms of the same
+        building.
+
+        References
+        ----------
+        EN 12831-1:2017, clause 6 (building heat load) [M].
+        """
+        te = _validate.finite("external_temperature", external_temperature)
+        return self._evaluate(te)
+
+    def design_heat_load(self, external_temperature) -> float:
+        """Building design heat load.
+
+        Parameters
+        ----------
+        external_temperature : float
+            Design external temperature. [degC]
+
+        Returns
+        -------
+        float
+            Design heat load of the building. [W]
+        """
+        return self.heat_load(external_temperature).design_heat_load
+
+    def annual_energy_result(self, degree_days, *, base_temperature=None) -> AnnualEnergy:
+        """Annual heating energy of the building from heating degree-days, with provenance.
+
+        Parameters
+        ----------
+        degree_days : float
+            Heating degree-days. [K day]
+        base_temperature : float, optional
+            Base temperature of the degree-days, recorded in the result. [degC]
+
+        Returns
+        -------
+        AnnualEnergy
+            ``Q = 24 H DD / 1000`` with the building's coefficients. [-]
+        """
+        return _annual(self.name, self.transmission_coefficient, self.ventilation_coefficient,
+                       degree_days, base_temperature, self._te)  # type: ignore[attr-defined]
+
+    def annual_energy(self, degree_days, *, base_temperature=None) -> float:
+        """Annual heating energy of the building from heating degree-days.
+
+        Parameters
+        ----------
+        degree_days : float
+            Heating degree-days. [K day]
+        base_temperature : float, optional
+            Base temperature of the degree-days. [degC]
+
+        Returns
+        -------
+        float
+            ``Q = 24 H DD / 1000``. [kWh]
+        """
+        return self.annual_energy_result(degree_days, base_temperature=base_temperature).energy
+
+    def room_annual_energy(self, degree_days, *, base_temperature=None) -> dict:
+        """Annual heating energy of every room, with the room-to-room exchange resolved.
+
+        Parameters
+        ----------
+        degree_days : float
+            Heating degree-days. [K day]
+        base_temperature : float, optional
+            Base temperature of the degree-days. [degC]
+
+        Returns
+        -------
+        dict of str to AnnualEnergy
+            Per room, ``Q = 24 (H_T + H_V) DD / 1000`` with the room's own coefficients
+            (exchange with other rooms included, as the room sees it). [-]
+        """
+        result = self._evaluate(self._te)  # type: ignore[attr-defined]
+        return {
+            r.room: _annual(r.room, r.transmission_coefficient, r.ventilation_coefficient,
+                            degree_days, base_temperature, self._te)  # type: ignore[attr-defined]
+            for r in result.rooms
+        }
+
+    def _evaluate(self, te) -> BuildingHeatLoad:
+        results = tuple(
+            r._evaluate(te, self._room_temps, self.constructions)  # type: ignore[attr-defined]
+            for r in self.rooms
+        )
+        h_sum = sum(r.transmission_coefficient for r in results)
+        h_int = sum(r.internal_exchange_coefficient for r in results)
+        h_v = sum(r.ventilation_coefficient for r in results)
+        q_int = sum(ln.heat_flow for r in results for ln in r.lines if ln.internal)
+        phi_t = sum(r.transmission_heat_loss for r in results) - q_int
+        phi_v = sum(r.ventilation_heat_loss for r in results)
+        reheat = sum(r.reheat_allowance for r in results)
+        total = phi_t + phi_v + reheat
+        lines = tuple(
+            _replace_share(ln, total) for r in results for ln in r.lines if not ln.internal
+        )
+        by_kind: dict[str, float] = {}
+        for ln in lines:
+            by_kind[ln.kind] = by_kind.get(ln.kind, 0.0) + ln.heat_flow
+        prov = (
+            f"building {self.name!r}: {len(results)} rooms, design external temperature "
+            f"{te!r} degC",
+            "building H_T = sum of room H_T less exchange with rooms of this building; "
+            "H_V = sum of room H_V (no infiltration diversity applied)",
+            *results[0].provenance[1:4],
+        )
+        return BuildingHeatLoad(
+            name=self.name, external_temperature=te, rooms=results,
+            rooms_transmission_coefficient=h_sum, internal_exchange_coefficient=h_int,
+            transmission_coefficient=h_sum - h_int, ventilation_coefficient=h_v,
+            heat_loss_coefficient=h_sum - h_int + h_v,
+            rooms_design_heat_load=sum(r.design_heat_load for r in results),
+            internal_exchange_heat_flow=q_int, transmission_heat_loss=phi_t,
+            ventilation_heat_loss=phi_v, reheat_allowance=reheat, design_heat_load=total,
+            lines=lines, by_kind=by_kind, provenance=prov,
+        )
+
+
+# ----------------------------------------------------------------------------- helpers
+
+
+def _share(value: float, total: float) -> float:
+    return value / total if total != 0.0 and math.isfinite(total) else math.nan
+
+
+def _replace_share(line: LossLine, total: float) -> LossLine:
+    return replace(line, share=_share(line.heat_flow, total))
+
+
+def _annual(subject, h_t, h_v, degree_days, base_temperature, te) -> AnnualEnergy:
+    dd = _validate.non_negative("degree_days", degree_days, "K day")
+    base = None if base_temperature is None else _validate.finite("base_temperature",
+                                                                  base_temperature)
+    h = h_t + h_v
+    energy = 24.0 * h * dd / 1000.0
+    base_text = (f"base temperature {base:g} degC (as stated)" if base is not None else
+                 "base temperature NOT STATED: the degree-days must be on the base "
+                 "appropriate to the building")
+    prov = (
+        "annual energy: Q = 24 H DD / 1000 (degree-day method) [M]",
+        f"degree-days {dd:g} K day, {base_text}",
+        f"H = H_T + H_V = {h_t:.6g} + {h_v:.6g} W/K, adjustment factors at the design "
+        f"external temperature {te!r} degC; heating-up allowance not included; gains not "
+        "deducted (allow for them through the base temperature)",
+    )
+    return AnnualEnergy(subject=subject, heat_loss_coefficient=h, transmission_coefficient=h_t,
+                        ventilation_coefficient=h_v, degree_days=dd, base_temperature=base,
+                        energy=energy, provenance=prov)
+
+
