@@ -104,10 +104,13 @@ class _Rows:
         self.row = 1
         self.block: Block = sheet.block("header")
         self.checks = 0
+        self.section = 0
 
     def start(self, name: str, title: str | None = None) -> None:
         self.block = self.sheet.block(name)
         if title:
+            self.section += 1
+            title = f"{self.section}. {title}"
             self.row += 1
             self.put(2, title, style="hl subtitle")
             self.sheet.merges.append(f"B{self.row}:N{self.row}")
@@ -149,6 +152,7 @@ class _Rows:
     def headers(self, names, first_col: int = 1) -> None:
         for i, name in enumerate(names):
             self.put(first_col + i, name, role="header")
+        self.sheet.row_heights[self.row] = 27.0
         self.row += 1
 
 
@@ -244,7 +248,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     w.row = HEADER_ROWS
 
     # ---- layer table ---------------------------------------------------------------------
-    w.start("layers", "1. Layers, inside to outside (EN ISO 6946:2017, 6.7)")
+    w.start("layers", "Layers, inside to outside (EN ISO 6946:2017, 6.7)")
     w.headers([c for c, _ in LAYER_COLUMNS])
     rows = con.layer_table
     counted_rows = [r for r in rows if r.counted]
@@ -263,7 +267,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     parts_at: dict[int, tuple[int, int]] = {}
     bridge = con.bridging
     if bridge is not None:
-        w.start("bridged_parts", "2a. Bridged layers: materials and area fractions (6.7.2)")
+        w.start("bridged_parts", "Bridged layers: materials and area fractions (6.7.2)")
         w.headers(["", "Bridged layer / part", "", "", "d [mm]", "λ_q [W/(m K)]",
                    "f_q [-]", "λ_q·f_q [W/(m K)]"])
         for idx in bridged_idx:
@@ -328,7 +332,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
 
     # ---- surfaces and totals -------------------------------------------------------------
     w.row += 1
-    w.start("totals", "3. Surface resistances, total resistance and U-value")
+    w.start("totals", "Surface resistances (EN ISO 6946:2017, 6.8 and Table 7)")
     w.headers(["", "Quantity", "", "", "", "", "Value", "", "", "", "Engine", "Check", "",
                "Rule / note"])
     rsi = w.value_row("Rsi, internal surface resistance [m2 K/W]", value=float(con.rsi),
@@ -386,7 +390,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     bridge_refs: dict[str, str] = {}
     if bridge is not None:
         w.row += 1
-        w.start("bridging", "2b. Upper and lower limits of the bridged construction (6.7.2)")
+        w.start("bridging", "Upper and lower limits of the bridged construction (6.7.2)")
         # section 1 combines the first part of every bridged layer, so the engine's base
         # resistance is its R_T,q less those parts' d/lambda
         base_engine = bridge.sections[0][1] - sum(
@@ -450,8 +454,10 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         eng = w.put(11, float(r.resistance if r.counted else 0.0), role="engine", fmt=FMT_R,
                     row=rr)
         w.check(12, used, eng, row=rr)
-    w.block = sheet.block("totals")
-
+    w.row += 1
+    w.start("total", "Total resistance and U-value")
+    w.headers(["", "Quantity", "", "", "", "", "Value", "", "", "", "Engine", "Check", "",
+               "Rule / note"])
     sum_used = w.value_row("Σ R used of the layers [m2 K/W]",
                            formula=f"=SUM(J{first_layer_row}:J{last_layer_row})",
                            engine=sum(r.resistance for r in counted_rows))
@@ -468,7 +474,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     items = []
     if con.corrections_input:
         w.row += 1
-        w.start("corrections", "4. Corrections to U (EN ISO 6946:2017, Annex F)")
+        w.start("corrections", "Corrections to U (EN ISO 6946:2017, Annex F)")
         for c, (label, idx, du) in zip(con.corrections_input, corr.items, strict=True):
             w.put(2, f"{label}, layer {idx + 1} ({con.layers[idx].name})", style="hl label")
             w.row += 1
@@ -517,6 +523,11 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                 ref_du = w.value_row("ΔU (engine value) [W/(m2 K)]", value=float(du),
                                      fmt=FMT_U)
             items.append(ref_du)
+    if not items:
+        w.row += 1
+        w.start("corrections", "Corrections to U (EN ISO 6946:2017, Annex F)")
+        w.put(2, "no corrections given for this construction", role="note")
+        w.row += 1
     du_sum = w.value_row("Σ ΔU [W/(m2 K)]", formula="=" + ("+".join(items) if items else "0"),
                          engine=corr.total, fmt=FMT_U)
     force = 1 if con.apply_small_corrections else 0
@@ -526,6 +537,8 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                 "),1,0)",
         engine=1.0 if corr.applied else 0.0, fmt="0",
         note="Annex F: not applied when Σ ΔU < 3 % of U")
+    w.row += 1
+    w.start("u_value", "U-value")
     u_val = w.value_row("U = U + ΔU (when applied) [W/(m2 K)]",
                         formula=f"={u0}+{applied}*{du_sum}", engine=con.u_value, fmt=FMT_U)
     u_rep = w.value_row("U to two significant figures [W/(m2 K)]",
@@ -538,7 +551,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
 
     # ---- ladder temperatures -------------------------------------------------------------
     w.row += 1
-    w.start("interfaces", "5. Temperatures at the surfaces and layer interfaces (resistance "
+    w.start("interfaces", "Temperatures at the surfaces and layer interfaces (resistance "
                           "ladder, no corrections)")
     w.headers(["", "Position", "", "", "x [mm]", "", "θ [degC]", "", "", "", "Engine θ",
                "Check", "", "Rule / note"])
@@ -574,11 +587,13 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                 fmt="0.0000", note="plane element; a mould check uses Rsi = 0.25 (ISO 13788)")
 
     # ---- chart placeholder rows ----------------------------------------------------------
+    sheet.row_breaks.append(w.row)
     chart_row = w.row + 1
     w.row += 21
+    sheet.row_breaks.append(w.row)
 
     # ---- finite-volume nodal table -------------------------------------------------------
-    w.start("fv", "6. Finite-volume nodal temperatures (cell-centred, Patankar 1980 ch. 4)")
+    w.start("fv", "Finite-volume nodal temperatures (cell-centred, Patankar 1980 ch. 4)")
     fv = temps.fv
     w.put(2, "Cell-centred finite volumes; face conductance G = 1/(w_i/(2k_i) + w_(i+1)/(2k_("
              "i+1))); a_P T_i = a_W T_(i−1) + a_E T_(i+1) + b. Solved here by the Thomas "

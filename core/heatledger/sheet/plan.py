@@ -483,6 +483,10 @@ class Sheet:
     print_setup : PrintSetup
     validations : list of DataValidation
     tab_color : str or None
+    row_heights : dict
+        Row number -> height in points (header rows with wrapped text).
+    row_breaks : list of int
+        Rows after which a printed page ends.
     """
 
     name: str
@@ -494,6 +498,8 @@ class Sheet:
     print_setup: PrintSetup = field(default_factory=PrintSetup)
     validations: list[DataValidation] = field(default_factory=list)
     tab_color: str | None = None
+    row_heights: dict[int, float] = field(default_factory=dict)
+    row_breaks: list[int] = field(default_factory=list)
 
     def __post_init__(self) -> None:
         bad = set(self.name) & set("[]:*?/\\")

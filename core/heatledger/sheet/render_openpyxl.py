@@ -25,6 +25,7 @@ from openpyxl.styles.cell_style import StyleArray
 from openpyxl.styles.numbers import BUILTIN_FORMATS_MAX_SIZE, BUILTIN_FORMATS_REVERSE
 from openpyxl.workbook.defined_name import DefinedName
 from openpyxl.worksheet.datavalidation import DataValidation as XLDataValidation
+from openpyxl.worksheet.pagebreak import Break
 from openpyxl.writer.excel import ExcelWriter
 
 from ..errors import HeatLedgerError
@@ -82,6 +83,10 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
             ws.merge_cells(rng)
         for letters, width in sheet.column_widths.items():
             ws.column_dimensions[letters].width = width
+        for row, height in sheet.row_heights.items():
+            ws.row_dimensions[row].height = height
+        for row in sheet.row_breaks:
+            ws.row_breaks.append(Break(id=row))
         if sheet.freeze:
             ws.freeze_panes = sheet.freeze
         if sheet.tab_color:
@@ -254,6 +259,10 @@ def _chart(wb: Workbook, spec: Chart):
         ch.x_axis.delete = False
         ch.y_axis.delete = False
         ch.x_axis.majorGridlines = None
+        ch.x_axis.tickLblPos = "low"
+        ch.y_axis.tickLblPos = "low"
+        ch.x_axis.number_format = "0"
+        ch.y_axis.number_format = "0"
     else:
         ch = BarChart()
         ch.type = "col"
