@@ -179,6 +179,7 @@ def solve_fin_fv(
     linearisation = v.choice("linearisation", linearisation, LINEARISATIONS)
     tolerance = v.positive("tolerance", tolerance, "K")
     eps = v.fraction("emissivity", emissivity)
+    x_offset = v.finite("x_offset", x_offset)
     t_sur = t_inf if temp_surroundings is None else v.finite("temp_surroundings",
                                                               temp_surroundings)
     if tip == "temperature":
