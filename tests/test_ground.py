@@ -6,6 +6,9 @@ import math
 
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
 from heatledger.errors import HeatLedgerError
 from heatledger.ground import (
     EdgeInsulation,
@@ -18,8 +21,6 @@ from heatledger.ground import (
     suspended_floor,
     suspended_floor_u,
 )
-from hypothesis import given, settings
-from hypothesis import strategies as st
 
 #: Agreement between the module and the same equation written out in the test. [W/(m2 K)]
 atol_same_equation = 1e-12
@@ -314,3 +315,8 @@ def test_result_objects_carry_u_value_for_room_elements():
                               vent_area_per_perimeter=0.001, wind_speed=3,
                               wind_shielding="exposed")):
         assert r.u_value > 0 and "13370" in r.method
+
+
+def test_scalar_only_methods_reject_arrays_clearly():
+    with pytest.raises(HeatLedgerError, match="one floor at a time"):
+        heated_basement([100.0, 120.0], [40.0, 44.0], 0.3, 0.0, 1.0, 2.0)

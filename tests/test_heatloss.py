@@ -10,6 +10,9 @@ import math
 import CoolProp.CoolProp as CP
 import psychrolib
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
 from heatledger import heatloss
 from heatledger.errors import HeatLedgerError
 from heatledger.ground import slab_on_ground
@@ -31,8 +34,6 @@ from heatledger.heatloss import (
     ventilation_heat_loss_coefficient,
 )
 from heatledger.windows import declared_window, window
-from hypothesis import given, settings
-from hypothesis import strategies as st
 
 #: Same equation evaluated twice in floating point. [W/K or W]
 atol_same_equation = 1e-9
@@ -427,3 +428,39 @@ def test_module_states_caution_and_sources():
     assert "competent person" in " ".join(heatloss.__doc__.split())
     assert "EN 12831-1:2017" in heatloss.__doc__
     assert math.isclose(heatloss.GROUND_FACTOR_FG1, 1.45)  # from memory: EN 12831-1 f_g1
+
+
+@settings(max_examples=30, deadline=None)
+@given(t_a=st.floats(12.0, 24.0), t_b=st.floats(12.0, 24.0), te=st.floats(-20.0, 5.0),
+       u_party=st.floats(0.3, 3.0))
+def test_internal_exchange_cancels_for_any_temperatures(t_a, t_b, te, u_party):
+    # heat leaving A through the party wall enters B: the building loses neither
+    a = Room("A", t_a, 40.0, [Element("out", 10.0, 0.3),
+                              Element("party", 9.0, u_party, AdjacentRoom(room="B"))],
+             Ventilation("air_change", ventilation=0.5))
+    b = Room("B", t_b, 40.0, [Element("out", 12.0, 0.3),
+                              Element("party", 9.0, u_party, AdjacentRoom(room="A"))],
+             Ventilation("air_change", ventilation=0.5))
+    r = Building("Pair", [a, b]).heat_load(te)
+    assert r.internal_exchange_heat_flow == pytest.approx(0.0, abs=1e-9)
+    # the building load equals that of the same rooms with the party wall left out
+    a0 = Room("A", t_a, 40.0, [Element("out", 10.0, 0.3)], Ventilation("air_change",
+                                                                        ventilation=0.5))
+    b0 = Room("B", t_b, 40.0, [Element("out", 12.0, 0.3)], Ventilation("air_change",
+                                                                        ventilation=0.5))
+    r0 = Building("Pair", [a0, b0]).heat_load(te)
+    assert r.design_heat_load == pytest.approx(r0.design_heat_load, rel=1e-12)
+    assert r.transmission_coefficient == pytest.approx(r0.transmission_coefficient, rel=1e-12)
+
+
+def test_room_alone_next_to_spaces_at_its_own_temperature_loses_nothing():
+    room = Room("Flat core", 20.0, 30.0,
+                [Element("to flat above", 30.0, 0.8, AdjacentRoom(temperature=20.0),
+                         kind="ceiling"),
+                 Element("to flat below", 30.0, 0.8, AdjacentRoom(temperature=20.0),
+                         kind="floor")],
+                Ventilation("flow"), design_external_temperature=-5.0)
+    assert room.transmission_coefficient == 0.0
+    assert room.design_heat_load(-5.0) == 0.0
+    # shares are undefined for a zero load and say so (nan), rather than dividing by zero
+    assert all(math.isnan(ln.share) for ln in room.heat_load(-5.0).lines)

@@ -20,7 +20,7 @@ from .soil import (
     RSI_WALL,
     SUSPENDED_FLOOR_MAX_HEIGHT,
     WIND_SHIELDING_FACTORS,
-    _area_perimeter,
+    _scalar_area_perimeter,
 )
 
 # ----------------------------------------------------------------------------- suspended
@@ -192,8 +192,7 @@ def suspended_floor(
     EN ISO 13370:2017, clause 8.3 [M: recalled].
     """
     outline = _validate.choice("exposed_outline", exposed_outline, EXPOSED_OUTLINES)
-    a, p = _area_perimeter(area, exposed_perimeter, outline)
-    a, p = float(a), float(p)
+    a, p = _scalar_area_perimeter(area, exposed_perimeter, outline, "suspended_floor")
     w = _validate.non_negative("wall_thickness", wall_thickness, "m")
     r_deck = _validate.non_negative("deck_resistance", deck_resistance, "m2 K/W")
     h = _validate.non_negative("underfloor_height", underfloor_height, "m")
@@ -401,8 +400,7 @@ def heated_basement(
     EN ISO 13370:2017, clause 8.4 [M: recalled].
     """
     outline = _validate.choice("exposed_outline", exposed_outline, EXPOSED_OUTLINES)
-    a, p = _area_perimeter(area, exposed_perimeter, outline)
-    a, p = float(a), float(p)
+    a, p = _scalar_area_perimeter(area, exposed_perimeter, outline, "heated_basement")
     w = _validate.non_negative("wall_thickness", wall_thickness, "m")
     rf = _validate.non_negative("floor_resistance", floor_resistance, "m2 K/W")
     rw = _validate.non_negative("wall_resistance", wall_resistance, "m2 K/W")

@@ -142,3 +142,13 @@ def _area_perimeter(area, perimeter, outline: str):
             ) from None
     return a, p
 
+
+
+def _scalar_area_perimeter(area, perimeter, outline: str, method: str) -> tuple[float, float]:
+    a, p = _area_perimeter(area, perimeter, outline)
+    if a.ndim or p.ndim:
+        raise HeatLedgerError(
+            f"{method} takes one floor at a time: area and exposed_perimeter must be single "
+            f"numbers; got arrays of shape {a.shape} and {p.shape}"
+        )
+    return float(a), float(p)
