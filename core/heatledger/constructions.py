@@ -96,10 +96,8 @@ class Layer:
     ``R = d / lambda`` (EN ISO 6946:2017, 6.7.1, eq. (4), recalled numbering).
     """
 
-    kind = "material"
-
     __slots__ = ("thickness", "conductivity", "declared_resistance", "name", "material",
-                 "resistance_value")
+                 "resistance_value", "kind")
 
     def __init__(self, thickness, conductivity=None, *, resistance=None, name: str = "",
                  material=None) -> None:
@@ -128,6 +126,7 @@ class Layer:
             self.conductivity = positive(f"{label} conductivity", conductivity, "W/(m K)")
             self.declared_resistance = None
             self.resistance_value = self.thickness / self.conductivity
+            self.kind = "material"
 
     def with_thickness(self, thickness) -> Layer:
         """The same layer with another thickness (a declared resistance scales with it)."""

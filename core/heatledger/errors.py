@@ -16,9 +16,9 @@ class HeatLedgerError(ValueError):
     Parameters
     ----------
     message : str
-        One line naming the input, the value and the rule broken.
+        One line naming the input, the value and the rule broken. [-]
     where : str, optional
-        Where the input came from (a TOML key, a sheet and cell, a function argument).
+        Where the input came from (a TOML key, a sheet and cell, a function argument). [-]
     """
 
     def __init__(self, message: str, *, where: str | None = None) -> None:

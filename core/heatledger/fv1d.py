@@ -58,7 +58,7 @@ class Boundary:
     ----------
     kind : str
         ``"temperature"`` (fixed surface temperature), ``"surface"`` (surface resistance to
-        an ambient temperature) or ``"flux"`` (fixed heat flux into the domain).
+        an ambient temperature) or ``"flux"`` (fixed heat flux into the domain). [-]
     temperature : float
         Surface temperature for ``"temperature"``, ambient temperature for ``"surface"``;
         unused for ``"flux"``. [degC]
@@ -152,8 +152,9 @@ class FVSolution:
     source_total : float
         Net heat generated in the domain, ``sum(S_c + S_p T)``. [W]
     energy_residual : float
-        ``(Q_in,left - Q_out,right + source_total)`` divided by the largest of those terms:
-        the relative energy-balance residual (0 for an exact balance).
+        ``(Q_in,left - Q_out,right + source_total)`` divided by the largest of those terms
+        (at least the heat rate 1 K across the domain would drive): the relative
+        energy-balance residual (0 for an exact balance).
     """
 
     def __init__(self, temperature, widths, half, g_int, a_centre, b, heat_in, heat_out,
@@ -324,7 +325,10 @@ def solve_conduction(
              else gb_right * (temp[-1] - right.temperature))
     src = src_const + (0.0 if sp is None else float(np.dot(sp, temp)))
     imbalance = q_in - q_out + src
-    scale = max(abs(q_in), abs(q_out), abs(src), np.finfo(float).tiny)
+    # scale: the largest heat term, but at least the heat rate that 1 K across the whole
+    # domain would drive (so a near-isothermal case is not judged on rounding noise)
+    r_path = 2.0 * float(half.sum()) + left.resistance / area0 + right.resistance / area_n
+    scale = max(abs(q_in), abs(q_out), abs(src), 1.0 / r_path)
     return FVSolution(temp, w, half, g_int, a_p, b, q_in, q_out, src, imbalance / scale,
                       {"cells": n, "method": "cell-centred finite volume, harmonic-mean faces"})
 

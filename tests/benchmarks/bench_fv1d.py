@@ -15,8 +15,9 @@ import statistics
 import time
 
 import numpy as np
-from heatledger import fv1d
 from scipy.linalg import solve_banded
+
+from heatledger import fv1d
 
 
 def _median_time(fn, repeats: int) -> float:

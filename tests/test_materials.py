@@ -1,0 +1,56 @@
+"""The generic material library."""
+
+import pytest
+
+from heatledger import HeatLedgerError, Material, default_library
+
+# source: EN ISO 10456:2007 Table 3, rows confirmed in a secondary source (REFERENCES.md
+# section 10, [C])
+ISO10456_TABLE3_READ = {
+    "concrete medium density 2000": (2000, 1.35),
+    "reinforced concrete 2% steel": (2400, 2.5),
+    "steel": (7800, 50.0),
+    "aluminium alloy": (2800, 160.0),
+    "softwood 500": (500, 0.13),
+    "glass soda-lime": (2500, 1.00),
+}
+
+
+@pytest.mark.parametrize(("name", "values"), list(ISO10456_TABLE3_READ.items()))
+def test_library_rows_match_iso10456(name, values):
+    mat = default_library().get(name)
+    assert (mat.density, mat.conductivity) == values
+    assert "ISO 10456" in mat.source
+
+
+def test_every_row_has_source_and_confidence():
+    for mat in default_library():
+        assert mat.source, mat.name
+        assert mat.confidence in {"read", "recalled", "typical"}, mat.name
+        assert mat.conductivity > 0
+
+
+def test_lookup_is_case_and_space_insensitive():
+    assert default_library().get("  Mineral   WOOL 035 ").name == "mineral wool 035"
+
+
+def test_unknown_name_suggests_closest():
+    with pytest.raises(HeatLedgerError, match="closest known: 'steel'"):
+        default_library().get("steal")
+
+
+def test_add_and_override():
+    lib = default_library()
+    lib.add(Material("my board", 0.03, source="declared"))
+    assert lib.get("MY BOARD").conductivity == 0.03
+    with pytest.raises(HeatLedgerError, match="already in the library"):
+        lib.add(Material("steel", 45.0))
+    lib.add(Material("steel", 45.0, source="CIBSE Guide A"), override=True)
+    assert lib.get("steel").conductivity == 45.0
+    # the shipped library is not changed by a user's copy
+    assert default_library().get("steel").conductivity == 50.0
+
+
+def test_material_validates_conductivity():
+    with pytest.raises(HeatLedgerError, match="conductivity of material 'x' must be greater"):
+        Material("x", 0.0)
