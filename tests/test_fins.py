@@ -16,17 +16,18 @@ import math
 import re
 import warnings
 
-import heatledger.fins as fins
 import ht
 import numpy as np
 import pytest
-from heatledger.errors import HeatLedgerError, HeatLedgerWarning
-from heatledger.fins import AnnularFin, FinArray, PowerLawCoefficient, StraightFin, solve_fin_fv
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.constants import Stefan_Boltzmann, zero_Celsius
 from scipy.integrate import solve_bvp
 from scipy.special import iv, kv, kve
+
+import heatledger.fins as fins
+from heatledger.errors import HeatLedgerError, HeatLedgerWarning
+from heatledger.fins import AnnularFin, FinArray, PowerLawCoefficient, StraightFin, solve_fin_fv
 
 # ----------------------------------------------------------------------------- tolerances
 rtol_closed = 1e-10  # closed form vs the same equation re-typed: round-off only

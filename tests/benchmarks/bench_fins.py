@@ -13,6 +13,7 @@ import statistics
 import time
 
 import numpy as np
+
 from heatledger.fins import PowerLawCoefficient, solve_fin_fv
 from heatledger.fv1d import fixed_flux, fixed_temperature, solve_conduction, solve_tridiagonal
 
