@@ -8,6 +8,9 @@ import re
 
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
 from heatledger import windows
 from heatledger.errors import HeatLedgerError
 from heatledger.windows import (
@@ -19,8 +22,6 @@ from heatledger.windows import (
     window_u,
     window_with_shutter_u,
 )
-from hypothesis import given, settings
-from hypothesis import strategies as st
 
 #: Floating-point agreement between two evaluations of the same equation. [W/(m2 K)]
 atol_same_equation = 1e-12
@@ -271,3 +272,19 @@ def test_every_public_parameter_has_a_unit(modname):
 def test_module_reference_and_memory_flags():
     assert "EN ISO 10077-1:2017" in windows.__doc__
     assert "[M" in windows.__doc__
+
+
+@pytest.mark.parametrize("modname", ["windows", "ground", "heatloss"])
+def test_public_functions_state_equation_and_reference(modname):
+    import importlib
+
+    mod = importlib.import_module(f"heatledger.{modname}")
+    lacking = []
+    for name in mod.__all__:
+        obj = getattr(mod, name)
+        if inspect.isfunction(obj):
+            doc = inspect.getdoc(obj) or ""
+            for section in ("Parameters", "Returns", "Raises", "Notes", "References"):
+                if not re.search(rf"^{section}\n-+$", doc, re.M):
+                    lacking.append(f"{name}: {section}")
+    assert not lacking, "docstring sections missing: " + "; ".join(lacking)

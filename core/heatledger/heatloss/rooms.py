@@ -526,7 +526,9 @@ class Building:
             f"{te!r} degC",
             "building H_T = sum of room H_T less exchange with rooms of this building; "
             "H_V = sum of room H_V (no infiltration diversity applied)",
-            *results[0].provenance[1:4],
+            results[0].provenance[1],
+            "ventilation: per room (see each room's provenance)",
+            results[0].provenance[3],
         )
         return BuildingHeatLoad(
             name=self.name, external_temperature=te, rooms=results,
