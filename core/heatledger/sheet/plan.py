@@ -249,6 +249,7 @@ STYLES: dict[str, Style] = {
         Style("hl check", bold=True, color="1E5130", fill="DCEFD9", border="thin",
               align="center"),
         Style("hl text", color="1F2A33", border="thin"),
+        Style("hl paragraph", color="1F2A33", wrap=True),
         Style("hl warning", bold=True, color="7A1F12", wrap=True),
     )
 }

@@ -1,0 +1,349 @@
+"""The audit workbook of a project: cover, materials, one sheet per construction, summary.
+
+The workbook is self-checking: every step is a live formula, the engine's values stand
+beside them as constants, and check cells compare the two. The cover counts the check cells
+and how many say OK with formulas, so a reviewer sees at a glance whether the file is sound
+after their own spreadsheet program has recalculated it.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Callable
+
+from .. import cautions as _cautions
+from .blocks_construction import DEFAULT_CHECK_TOLERANCE, ConstructionRefs, add_construction_sheet
+from .files import write_bytes_atomic
+from .plan import Chart, ChartSeries, PrintSetup, WorkbookPlan, sheet_ref
+from .render_openpyxl import workbook_bytes
+
+__all__ = ["audit_plan", "write_audit", "audit_bytes", "METHODS", "tool_version"]
+
+#: Methods and standards the audit workbook applies, as stated on the cover.
+METHODS = (
+    "Thermal resistance and U-value: EN ISO 6946:2017, 6.7 (R = d/λ; R_T = Rsi + Σ R + Rse; "
+    "U = 1/R_T)",
+    "Surface resistances: EN ISO 6946:2017, 6.8 and Table 7 (by heat-flow direction)",
+    "Air layers: EN ISO 6946:2017, 6.9 and Annex D (unventilated R_g); 6.9.3 slightly and "
+    "6.9.4 well ventilated layers",
+    "Inhomogeneous (bridged) layers: upper and lower limits, EN ISO 6946:2017, 6.7.2",
+    "Corrections to U: EN ISO 6946:2017, Annex F (air gaps F.2, mechanical fasteners F.3, "
+    "inverted roofs F.4); not applied below 3 % of U",
+    "U-value reported to two significant figures: EN ISO 6946:2017, clause 8",
+    "Temperatures: steady-state resistance ladder, and 1-D cell-centred finite volumes "
+    "(S. V. Patankar, Numerical Heat Transfer and Fluid Flow, 1980, ch. 4): Thomas algorithm "
+    "in the sheet, LAPACK gtsv in the engine; mesh check by Richardson extrapolation",
+)
+
+_PROJECT_FIELDS = (("name", "Project"), ("client", "Client"), ("site", "Site"),
+                   ("author", "Author"), ("checker", "Checker"), ("revision", "Revision"),
+                   ("date", "Date"), ("notes", "Notes"))
+
+
+def tool_version() -> str:
+    """heatledger's version: ``heatledger.__version__`` or the installed distribution's."""
+    import heatledger
+
+    version = getattr(heatledger, "__version__", None)
+    if version:
+        return str(version)
+    try:
+        from importlib.metadata import version as _dist_version
+
+        return _dist_version("heatledger")
+    except Exception:  # noqa: BLE001 - any failure means "unknown"
+        return "unknown"
+
+
+def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = None,
+               tolerance: float = DEFAULT_CHECK_TOLERANCE) -> WorkbookPlan:
+    """The workbook plan of the audit of ``project``.
+
+    Parameters
+    ----------
+    project : heatledger.project.Project
+        A parsed project. [-]
+    progress : callable, optional
+        Called as ``progress(done, total, name)`` after each construction. [-]
+    tolerance : float
+        Relative tolerance of the check cells. [-]
+
+    Returns
+    -------
+    WorkbookPlan
+    """
+    info = project.info
+    title = info.get("name") or "heatledger project"
+    plan = WorkbookPlan(title=f"heatledger audit: {title}")
+    cover = plan.add_sheet("Cover", column_widths={"A": 3, "B": 34, "C": 70, "D": 14},
+                           print_setup=_print(title, "portrait"), tab_color="2E5A6B")
+    materials = plan.add_sheet("Materials", column_widths=_widths([5, 34, 12, 12, 14, 12, 12,
+                                                                   60]),
+                               freeze="A4", print_setup=_print(title, "landscape", "1:3"))
+    summary = plan.add_sheet("Summary", column_widths=_widths([5, 36, 18, 12, 11, 12, 12, 12,
+                                                               12, 12, 12, 10, 10, 16]),
+                             freeze="A4", print_setup=_print(title, "landscape", "1:3"))
+    refs: list[ConstructionRefs] = []
+    names = _sheet_names([e.name for e in project.constructions])
+    total = len(project.constructions)
+    for i, (entry, sheet_name) in enumerate(zip(project.constructions, names, strict=True), 1):
+        mats = [str(r.get("material", "") or "") if isinstance(r, dict) else ""
+                for r in entry.layer_inputs]
+        refs.append(add_construction_sheet(
+            plan, sheet_name, entry.construction, temp_inside=project.temp_inside,
+            temp_outside=project.temp_outside, nodes_per_layer=entry.nodes_per_layer,
+            area=entry.area, target_u=entry.target_u, materials=mats, project_name=title,
+            tolerance=tolerance))
+        if progress is not None:
+            progress(i, total, entry.name)
+    summary_cells = _summary(summary, project, refs)
+    _materials(materials, project)
+    _cover(cover, project, summary_cells, tolerance)
+    return plan
+
+
+def audit_bytes(project, **kwargs) -> bytes:
+    """The audit workbook of ``project`` as .xlsx bytes (deterministic).
+
+    Parameters
+    ----------
+    project : heatledger.project.Project
+        A parsed project. [-]
+    **kwargs
+        Passed to :func:`audit_plan`. [-]
+    """
+    return workbook_bytes(audit_plan(project, **kwargs))
+
+
+def write_audit(project, path, *, force: bool = False, **kwargs):
+    """Write the audit workbook of ``project`` to ``path`` (atomic; no overwrite unless
+    ``force``).
+
+    Parameters
+    ----------
+    project : heatledger.project.Project
+        A parsed project. [-]
+    path : str or path-like
+        Output .xlsx file. [-]
+    force : bool
+        Replace an existing file. [-]
+    **kwargs
+        Passed to :func:`audit_plan`. [-]
+
+    Returns
+    -------
+    pathlib.Path
+    """
+    from pathlib import Path
+
+    from ..errors import HeatLedgerError
+
+    target = Path(path)
+    if target.suffix.lower() != ".xlsx":
+        raise HeatLedgerError(f"output file must end in .xlsx; got {str(target)!r}")
+    if target.exists() and not force:
+        raise HeatLedgerError(f"output file {str(target)!r} exists; choose another name or use "
+                              "--force to replace it")
+    return write_bytes_atomic(target, audit_bytes(project, **kwargs), force=force)
+
+
+# --------------------------------------------------------------------------- sheets
+def _widths(widths):
+    from .plan import col_letter
+
+    return {col_letter(i + 1): w for i, w in enumerate(widths)}
+
+
+def _print(title: str, orientation: str, rows: str | None = None) -> PrintSetup:
+    return PrintSetup(orientation=orientation, header=f"{title} | {{sheet}}",
+                      footer_left="heatledger audit {sheet}", footer_right="page {page} of {pages}",
+                      title_rows=rows)
+
+
+def _sheet_names(names) -> list[str]:
+    out: list[str] = []
+    used: set[str] = set()
+    width = max(2, len(str(len(names))))
+    for i, name in enumerate(names, 1):
+        clean = re.sub(r"[\[\]:*?/\\]", " ", str(name)).strip().strip("'")
+        clean = re.sub(r"\s+", " ", clean)
+        base = f"{i:0{width}d} {clean}"[:31].rstrip()
+        cand = base
+        k = 2
+        while cand.lower() in used or cand.lower() in ("cover", "materials", "summary"):
+            cand = f"{base[:28]}~{k}"
+            k += 1
+        used.add(cand.lower())
+        out.append(cand)
+    return out
+
+
+def _summary(sheet, project, refs) -> dict[str, str]:
+    b = sheet.block("summary")
+    b.put("A1", "Summary of constructions", style="hl title")
+    sheet.merges.append("A1:N1")
+    b.put("A2", "Values are live references to the construction sheets; U·A only where an area "
+                "is given. Area-weighted U is over the elements with an area.", role="note")
+    heads = ["No.", "Construction", "Sheet", "Heat flow", "Area A [m2]", "R_T [m2 K/W]",
+             "U [W/(m2 K)]", "U, 2 s.f. [W/(m2 K)]", "Target U [W/(m2 K)]", "Target met?",
+             "U·A [W/K]", "Check cells", "Checks OK", "State"]
+    for j, h in enumerate(heads, 1):
+        b.put(f"{_col(j)}3", h, role="header")
+    sheet.row_heights[3] = 30.0
+    first = 4
+    for i, (entry, ref) in enumerate(zip(project.constructions, refs, strict=True)):
+        r = first + i
+        b.put(f"A{r}", i + 1)
+        b.put(f"B{r}", entry.name, style="hl text")
+        b.put(f"C{r}", ref.sheet, style="hl text")
+        b.put(f"D{r}", entry.construction.heat_flow, style="hl text")
+        b.put(f"E{r}", formula=f'=IF(ISNUMBER({ref.extras["area"]}),{ref.extras["area"]},"")',
+              number_format="0.00")
+        b.put(f"F{r}", formula=f"={ref.r_total}", number_format="0.000")
+        b.put(f"G{r}", formula=f"={ref.u_value}", number_format="0.0000")
+        b.put(f"H{r}", formula=f"={ref.u_reported}", number_format="0.000")
+        b.put(f"I{r}", formula=f'=IF(ISNUMBER({ref.extras["target"]}),{ref.extras["target"]},"")',
+              number_format="0.000")
+        b.put(f"J{r}", formula=f'=IF(ISNUMBER(I{r}),IF(G{r}<=I{r},"yes","NO"),"no target")')
+        b.put(f"K{r}", formula=f'=IF(ISNUMBER(E{r}),G{r}*E{r},"")', number_format="0.00")
+        b.put(f"L{r}", ref.check_count, role="engine", number_format="0")
+        b.put(f"M{r}", formula=f"={ref.checks_ok}", number_format="0")
+        b.put(f"N{r}", formula=f'=IF(M{r}=L{r},"ALL CHECKS OK","NOT ALL OK")', style="hl check")
+    last = first + max(len(refs), 1) - 1
+    t = last + 2
+    b.put(f"B{t}", "Total area with U·A [m2]")
+    b.put(f"E{t}", formula=f"=SUM(E{first}:E{last})", number_format="0.00")
+    b.put(f"B{t + 1}", "Σ U·A [W/K]")
+    b.put(f"K{t + 1}", formula=f"=SUM(K{first}:K{last})", number_format="0.00")
+    b.put(f"B{t + 2}", "Area-weighted U = Σ U·A / Σ A [W/(m2 K)]")
+    b.put(f"G{t + 2}", formula=f'=IF(E{t}>0,K{t + 1}/E{t},"")', number_format="0.0000")
+    b.put(f"B{t + 3}", "Check cells in the workbook")
+    b.put(f"L{t + 3}", formula=f"=SUM(L{first}:L{last})", number_format="0")
+    b.put(f"M{t + 3}", formula=f"=SUM(M{first}:M{last})", number_format="0")
+    if refs:
+        sheet.charts.append(Chart(
+            "bar", "U-value and target per construction", f"B{t + 6}",
+            (ChartSeries("U [W/(m2 K)]", sheet_ref(sheet.name, f"G{first}:G{last}"),
+                         sheet_ref(sheet.name, f"A{first}:A{last}"), color="2E5A6B"),
+             ChartSeries("target U [W/(m2 K)]", sheet_ref(sheet.name, f"I{first}:I{last}"),
+                         sheet_ref(sheet.name, f"A{first}:A{last}"), color="D9A441")),
+            x_title="construction (No. in the table)", y_title="U [W/(m2 K)]",
+            width_cm=20.0, height_cm=8.0))
+    return {"count": sheet_ref(sheet.name, f"L{t + 3}"),
+            "ok": sheet_ref(sheet.name, f"M{t + 3}")}
+
+
+def _materials(sheet, project) -> None:
+    b = sheet.block("materials")
+    b.put("A1", "Materials used, with their design values and sources", style="hl title")
+    sheet.merges.append("A1:H1")
+    b.put("A2", _cautions.CAUTIONS.get("materials", ""), role="note")
+    heads = ["No.", "Material", "λ [W/(m K)]", "ρ [kg/m3]", "c [J/(kg K)]", "μ [-]",
+             "Confidence", "Source"]
+    for j, h in enumerate(heads, 1):
+        b.put(f"{_col(j)}3", h, role="header")
+    used = list(project.materials_used())
+    for mat in getattr(project, "user_materials", []):
+        if all(m.name != mat.name for m in used):
+            used.append(mat)
+    for i, mat in enumerate(used, 1):
+        r = 3 + i
+        b.put(f"A{r}", i)
+        b.put(f"B{r}", mat.name, style="hl text")
+        b.put(f"C{r}", float(mat.conductivity), role="input", number_format="0.000")
+        for col, val, fmt in (("D", mat.density, "0"), ("E", mat.specific_heat, "0"),
+                              ("F", mat.vapour_resistance_factor, "0")):
+            if val is not None:
+                v = float(val)
+                b.put(f"{col}{r}", v if v != float("inf") else "vapour-tight", role="input",
+                      number_format=fmt)
+        b.put(f"G{r}", str(getattr(mat, "confidence", "") or ""), style="hl text")
+        b.put(f"H{r}", str(mat.source or ""), style="hl text")
+    if not used:
+        b.put("B4", "no library materials are referred to by name", role="note")
+
+
+def _cover(sheet, project, summary_cells, tolerance) -> None:
+    info = project.info
+    b = sheet.block("cover")
+    b.put("B1", "heatledger calculation record", style="hl title")
+    b.put("B2", "Thermal resistance, U-values and temperatures through constructions",
+          role="note")
+    r = 4
+    b.put(f"B{r}", "Project information", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    for key, label in _PROJECT_FIELDS:
+        b.put(f"B{r}", label)
+        b.put(f"C{r}", str(info.get(key, "") or ""), style="hl text")
+        r += 1
+    b.put(f"B{r}", "Design temperature inside [degC]")
+    b.put(f"C{r}", float(project.temp_inside), role="input", number_format="0.0")
+    r += 1
+    b.put(f"B{r}", "Design temperature outside [degC]")
+    b.put(f"C{r}", float(project.temp_outside), role="input", number_format="0.0")
+    r += 2
+    b.put(f"B{r}", "Record", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    for label, value in (("Tool", f"heatledger {tool_version()}"),
+                         ("Input file", project.source_name or "(not from a file)"),
+                         ("SHA-256 of the input file", project.sha256),
+                         ("Check tolerance, relative [-]", float(tolerance))):
+        b.put(f"B{r}", label)
+        if isinstance(value, float):
+            b.put(f"C{r}", value, role="input", number_format="0.0E+00")
+        else:
+            b.put(f"C{r}", value, style="hl text")
+        r += 1
+    r += 1
+    b.put(f"B{r}", "Checks (formula against engine, after recalculation)", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    b.put(f"B{r}", "Check cells in the workbook")
+    count = b.put(f"C{r}", formula=f"={summary_cells['count']}", number_format="0").ref
+    r += 1
+    b.put(f"B{r}", "Check cells that say OK")
+    ok = b.put(f"C{r}", formula=f"={summary_cells['ok']}", number_format="0").ref
+    r += 1
+    b.put(f"B{r}", "State")
+    b.put(f"C{r}", formula=f'=IF(AND({count}>0,{ok}={count}),"ALL CHECKS OK",'
+                           f'"NOT ALL OK: "&({count}-{ok})&" check(s) fail; do not rely on this '
+                           'file")', style="hl check")
+    r += 2
+    b.put(f"B{r}", "Methods and standards applied", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    for text in METHODS:
+        b.put(f"B{r}", "•")
+        b.put(f"C{r}", text, style="hl paragraph")
+        sheet.row_heights[r] = 27.0
+        r += 1
+    r += 1
+    b.put(f"B{r}", "Cautions", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    for text in _cautions.caution_lines():
+        b.put(f"B{r}", "!")
+        b.put(f"C{r}", text, style="hl warning")
+        sheet.row_heights[r] = 27.0
+        r += 1
+    r += 1
+    b.put(f"B{r}", "How to read this workbook", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    for text in ("Sand cells are inputs, teal cells are formulas, grey cells are the engine's "
+                 "values as constants, green cells compare formula and engine.",
+                 "Every step is a live formula: change an input and the sheet recomputes; the "
+                 "checks then compare with the engine's values for the original input.",
+                 "Layers are listed inside to outside; thickness in mm; heat flux is positive "
+                 "from inside to outside."):
+        b.put(f"C{r}", text, style="hl paragraph")
+        sheet.row_heights[r] = 27.0
+        r += 1
+
+
+def _col(j: int) -> str:
+    from .plan import col_letter
+
+    return col_letter(j)
