@@ -464,3 +464,27 @@ def test_room_alone_next_to_spaces_at_its_own_temperature_loses_nothing():
     assert room.design_heat_load(-5.0) == 0.0
     # shares are undefined for a zero load and say so (nan), rather than dividing by zero
     assert all(math.isnan(ln.share) for ln in room.heat_load(-5.0).lines)
+
+
+def test_constructions_resolved_through_the_building():
+    class StandIn:
+        def __init__(self, u):
+            self.u_value = u
+
+    shared = StandIn(0.35)
+    a = Room("A", 20.0, 30.0, [Element("wall", 10.0, "block")], Ventilation("flow"))
+    b = Building("B", [a], constructions={"block": shared})
+    assert b.transmission_coefficient == pytest.approx(3.5)
+    line = b.heat_load(-5.0).lines[0]
+    assert "'block' (building mapping)" in line.source
+    # the same name defined differently by the room and the building is ambiguous
+    a2 = Room("A", 20.0, 30.0, [Element("wall", 10.0, "block")], Ventilation("flow"),
+              constructions={"block": StandIn(0.5)})
+    with pytest.raises(HeatLedgerError, match="defined differently by the room and the building"):
+        Building("B", [a2], constructions={"block": shared}).heat_load(-5.0)
+
+
+def test_ground_result_area_must_match_element_area():
+    slab = slab_on_ground(20.0, 18.0, 0.3, 2.0)
+    with pytest.raises(HeatLedgerError, match=r"element 'floor': element area 25 m2 differs"):
+        simple_room(elements=[Element("floor", 25.0, slab, Ground(9.0), kind="floor")])

@@ -33,7 +33,7 @@ AIR_DENSITY = AIR_REFERENCE_PRESSURE * DRY_AIR_MOLAR_MASS / (
 #: of the ASHRAE Handbook -- Fundamentals (2017) ch. 1 moist-air enthalpy [M]. [J/(kg K)]
 AIR_SPECIFIC_HEAT = 1006.0
 
-_SECONDS_PER_HOUR = 3600.0
+_SECONDS_PER_HOUR = const.hour  # 3600 s
 
 
 def ventilation_heat_loss_coefficient(
