@@ -235,7 +235,7 @@ def test_minimum_air_change_tops_up_without_recovery():
     v = Ventilation("flow", ventilation=10.0, infiltration=2.0, heat_recovery=0.8,
                     minimum_air_change=0.5)
     room = Room("Office", 21.0, 60.0, [Element("wall", 5.0, 0.3)], v)
-    r = room.ventilation_result()
+    r = room.ventilation_flows()
     # from memory: EN 12831 natural case V = max(V_inf, V_min); here the shortfall of
     # 0.5 x 60 - (10 + 2) = 18 m3/h is added as outdoor air without recovery
     assert r.top_up_flow == pytest.approx(18.0)

@@ -31,7 +31,7 @@ from .air import (
     AIR_SPECIFIC_HEAT,
     DRY_AIR_MOLAR_MASS,
     Ventilation,
-    VentilationResult,
+    VentilationFlows,
     ventilation_heat_loss_coefficient,
 )
 from .elements import (
@@ -60,7 +60,7 @@ __all__ = [
     "LinearBridge",
     "PointBridge",
     "Ventilation",
-    "VentilationResult",
+    "VentilationFlows",
     "Room",
     "Building",
     "LossLine",

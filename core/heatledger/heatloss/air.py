@@ -124,7 +124,7 @@ class Ventilation:
 
 
 @dataclass(frozen=True)
-class VentilationResult:
+class VentilationFlows:
     """Air flows and the ventilation heat-loss coefficient of one room.
 
     Parameters
@@ -167,7 +167,7 @@ class VentilationResult:
 
 
 
-def _ventilation(v: Ventilation, volume: float) -> VentilationResult:
+def _ventilation(v: Ventilation, volume: float) -> VentilationFlows:
     scale = volume if v.basis == "air_change" else 1.0
     vent = v.ventilation * scale
     inf = v.infiltration * scale
@@ -181,7 +181,7 @@ def _ventilation(v: Ventilation, volume: float) -> VentilationResult:
         + ("governs" if top_up > 0.0 else "met")
         + "; EN 12831-1 style [M]"
     )
-    return VentilationResult(
+    return VentilationFlows(
         basis=v.basis, ventilation_flow=vent, infiltration_flow=inf, minimum_flow=vmin,
         top_up_flow=top_up, heat_recovery=v.heat_recovery, effective_flow=eff,
         volumetric_heat_capacity=c,

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .air import VentilationResult
+from .air import VentilationFlows
 
 
 @dataclass(frozen=True)
@@ -89,7 +89,7 @@ class RoomHeatLoad:
         ``Phi_T``, ``Phi_V``, ``Phi_hu``. [W]
     design_heat_load : float
         ``Phi_HL = Phi_T + Phi_V + Phi_hu``. [W]
-    ventilation : VentilationResult
+    ventilation : VentilationFlows
         Air flows. [-]
     lines : tuple of LossLine
         Breakdown; shares add up to 1. [-]
@@ -109,7 +109,7 @@ class RoomHeatLoad:
     ventilation_heat_loss: float
     reheat_allowance: float
     design_heat_load: float
-    ventilation: VentilationResult
+    ventilation: VentilationFlows
     lines: tuple[LossLine, ...]
     provenance: tuple[str, ...]
 

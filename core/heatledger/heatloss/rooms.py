@@ -21,7 +21,7 @@ from .air import (
     AIR_DENSITY,
     AIR_SPECIFIC_HEAT,
     Ventilation,
-    VentilationResult,
+    VentilationFlows,
     _check_ventilation,
     _ventilation,
 )
@@ -127,19 +127,19 @@ class Room:
     @property
     def ventilation_coefficient(self) -> float:
         """``H_V``. [W/K]"""
-        return self.ventilation_result().coefficient
+        return self.ventilation_flows().coefficient
 
     @property
     def heat_loss_coefficient(self) -> float:
         """``H_T + H_V``. [W/K]"""
         return self.transmission_coefficient + self.ventilation_coefficient
 
-    def ventilation_result(self) -> VentilationResult:
+    def ventilation_flows(self) -> VentilationFlows:
         """Air flows and ``H_V`` of this room.
 
         Returns
         -------
-        VentilationResult
+        VentilationFlows
             Flows and coefficient. [-]
         """
         return _ventilation(self.ventilation, self.volume)
@@ -278,7 +278,7 @@ class Room:
                               transmittance_unit=tu, bridge_allowance=0.0, factor=f,
                               factor_rule=rule, coefficient=q * t * f, internal=internal,
                               source="given"))
-        vent = self.ventilation_result()
+        vent = self.ventilation_flows()
         lines.append(dict(name="ventilation", category="ventilation", kind="ventilation",
                           boundary="outside air", quantity=vent.effective_flow,
                           quantity_unit="m3/h", transmittance=vent.volumetric_heat_capacity,
