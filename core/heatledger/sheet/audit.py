@@ -94,6 +94,7 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
             temp_outside=project.temp_outside, nodes_per_layer=entry.nodes_per_layer,
             area=entry.area, target_u=entry.target_u, materials=mats, project_name=title,
             tolerance=tolerance))
+        plan.index[entry.name] = refs[-1]
         if progress is not None:
             progress(i, total, entry.name)
     summary_cells = _summary(summary, project, refs)

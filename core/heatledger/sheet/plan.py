@@ -554,6 +554,9 @@ class WorkbookPlan:
         Document author (file properties).
     timestamp : datetime
         Created/modified time written into the file; fixed for reproducible bytes.
+    index : dict
+        Where key results are (construction name -> references), for tests and callers;
+        not rendered.
     """
 
     title: str = ""
@@ -561,6 +564,7 @@ class WorkbookPlan:
     defined_names: dict[str, str] = field(default_factory=dict)
     creator: str = "heatledger"
     timestamp: _dt.datetime = FIXED_TIMESTAMP
+    index: dict = field(default_factory=dict)
 
     def add_sheet(self, name: str, **kwargs) -> Sheet:
         """Append a new sheet and return it.
