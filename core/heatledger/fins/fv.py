@@ -316,6 +316,26 @@ def _flux_slope(law, eps, x, temp, t_inf, t_sur) -> np.ndarray:
     return g1
 
 
+def _flux_and_slope(law, eps, x, temp, t_inf, t_sur):
+    """``q''(T)`` and ``dq''/dT`` together (one power evaluation for the power law)."""
+    obj = law[1]
+    if isinstance(obj, PowerLawCoefficient):
+        theta = temp - t_inf
+        h_c = obj.coefficient * np.abs(theta) ** obj.exponent
+        g0 = h_c * theta
+        g1 = (obj.exponent + 1.0) * h_c
+        if eps > 0.0:
+            tk = temp + zero_Celsius
+            tk3 = tk * tk * tk
+            sk = t_sur + zero_Celsius
+            es = eps * Stefan_Boltzmann
+            g0 = g0 + es * (tk3 * tk - sk**4)
+            g1 = g1 + 4.0 * es * tk3
+        return g0, g1
+    return (_flux(law, eps, x, temp, t_inf, t_sur),
+            _flux_slope(law, eps, x, temp, t_inf, t_sur))
+
+
 def _tip_coefficient(law, eps, x_tip, t_tip, t_inf, t_sur):
     """Combined coefficient and weighted ambient for the tip face (secant linearisation)."""
     hc = float(_h_of(law, np.array([x_tip]), np.array([t_tip]), t_inf)[0])
@@ -376,8 +396,7 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
                 h_r = eps * Stefan_Boltzmann * (tk * tk + sk * sk) * (tk + sk)
                 sc, sp = sc + h_r * p_dx * t_sur, sp - h_r * p_dx
         else:
-            g0 = _flux(law, eps, x, temp, t_inf, t_sur)
-            g1 = _flux_slope(law, eps, x, temp, t_inf, t_sur)
+            g0, g1 = _flux_and_slope(law, eps, x, temp, t_inf, t_sur)
             sc, sp = -p_dx * (g0 - g1 * temp), -p_dx * g1
         sol = solve_conduction(widths, kk, left, right_bc(t_tip), area=a_c, source=sc,
                                source_slope=sp)
