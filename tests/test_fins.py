@@ -408,6 +408,10 @@ def test_effectiveness_below_one_warns_only_when_asked():
         warnings.simplefilter("error")  # quiet by default: nothing emitted
         res = fin.evaluate(T_B, T_INF)
     assert any("does not help" in w for w in res.warnings)
+    for nodes in (None, 50):  # the temperature profile carries the same warnings
+        prof = fin.temperatures(T_B, T_INF, nodes=nodes)
+        assert any("does not help" in w for w in prof.warnings)
+        assert any("Biot" in w for w in prof.warnings)
     # such a fin has h (t/2)/k = (h/mk)^2 > 1, so the Biot-number warning comes with it
     with pytest.warns(HeatLedgerWarning) as record:
         fin.evaluate(T_B, T_INF, warn=True)

@@ -146,7 +146,8 @@ class FinBase:
             return FinTemperatures(x=fv.x, temperature=fv.temperature, tip_temperature=tip_t,
                                    heat_rate=fv.heat_rate,
                                    method=f"finite volume: {fv.settings['cells']} cells",
-                                   fv=fv, warnings=fv.warnings)
+                                   fv=fv, warnings=tuple(dict.fromkeys(
+                                       self._warnings_notes(None)[0] + fv.warnings)))
         if isinstance(points, bool) or not isinstance(points, (int, np.integer)) or points < 2:
             raise HeatLedgerError(f"points must be a whole number >= 2; got {points!r}")
         start, tip = self._length_axis()
