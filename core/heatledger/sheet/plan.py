@@ -456,12 +456,15 @@ class DataValidation:
         Help text shown when a cell is selected.
     error : str
         Message shown for a value not in the list.
+    error_style : str
+        ``"stop"`` (refuse other values) or ``"warning"`` (warn, allow).
     """
 
     cells: str
     source: str
     prompt: str = ""
     error: str = ""
+    error_style: str = "stop"
 
 
 # --------------------------------------------------------------------------- sheet, workbook

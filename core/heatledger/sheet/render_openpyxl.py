@@ -93,7 +93,7 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
             ws.sheet_properties.tabColor = sheet.tab_color
         for dv in sheet.validations:
             rule = XLDataValidation(type="list", formula1=dv.source, allow_blank=True,
-                                    showDropDown=False)
+                                    showDropDown=False, errorStyle=dv.error_style)
             rule.promptTitle = None
             if dv.prompt:
                 rule.prompt = dv.prompt[:255]

@@ -1,0 +1,547 @@
+"""The fill-in template: a workbook a consultant fills in, and its reader.
+
+``template_plan`` lays out the sheets (Instructions, Project, Materials, Constructions,
+Layers, Corrections and the drop-down Lists) with input styles and data-validation lists;
+example rows come from a project's data (the invented demo by default). ``read_template``
+takes a filled-in file back: it refuses over-large or malformed files, parses with
+defusedxml active (openpyxl uses it when installed), skips blank rows, and reports every
+problem at once, each naming its sheet and cell. It returns the same project data as the
+TOML route, so ``project_from_template`` ends in :func:`heatledger.project.project_from_dict`.
+"""
+
+from __future__ import annotations
+
+import io
+import zipfile
+from pathlib import Path
+
+from ..errors import HeatLedgerError, ProjectError
+from ..materials import default_library
+from ..project import (
+    CORRECTION_KINDS,
+    LAYER_KINDS,
+    Project,
+    project_from_dict,
+)
+from ..surfaces import HEAT_FLOWS
+from .plan import DataValidation, PrintSetup, WorkbookPlan, col_letter, sheet_ref
+
+__all__ = [
+    "template_plan",
+    "read_template",
+    "project_from_template",
+    "MAX_TEMPLATE_BYTES",
+    "MAX_UNCOMPRESSED_BYTES",
+    "MAX_ROWS",
+    "TEMPLATE_SHEETS",
+]
+
+#: Largest template file accepted. [bytes]
+MAX_TEMPLATE_BYTES = 10 * 1024 * 1024
+#: Largest total uncompressed size of the file's parts (guards against zip bombs). [bytes]
+MAX_UNCOMPRESSED_BYTES = 200 * 1024 * 1024
+#: Largest number of data rows read from one sheet. [-]
+MAX_ROWS = 5000
+#: Row of the column headers on every data sheet; data start on the next row.
+HEADER_ROW = 3
+#: Input rows prepared (styled, with drop-downs) on each data sheet.
+INPUT_ROWS = 200
+
+PROJECT_FIELDS = (
+    ("name", "Project name", "text"), ("client", "Client", "text"), ("site", "Site", "text"),
+    ("author", "Author", "text"), ("checker", "Checker", "text"),
+    ("revision", "Revision", "text"), ("date", "Date (YYYY-MM-DD)", "text"),
+    ("notes", "Notes", "text"),
+    ("temp_inside", "Inside design air temperature [degC]", "number"),
+    ("temp_outside", "Outside design air temperature [degC]", "number"),
+)
+# (key, header, type) per sheet; type "text", "number", "int" or "ref" (a layer named by
+# its name, or by its number 1, 2, ... from the inside)
+COLUMNS = {
+    "Materials": (
+        ("name", "Material name", "text"), ("conductivity", "λ [W/(m K)]", "number"),
+        ("density", "ρ [kg/m3]", "number"), ("specific_heat", "c [J/(kg K)]", "number"),
+        ("vapour_resistance_factor", "μ [-]", "number"), ("source", "Source of the values",
+                                                           "text"),
+    ),
+    "Constructions": (
+        ("name", "Construction name", "text"), ("heat_flow", "Heat flow", "text"),
+        ("area", "Area [m2]", "number"), ("target_u", "Target U [W/(m2 K)]", "number"),
+        ("nodes_per_layer", "FV cells per layer [-]", "int"),
+        ("rsi", "Rsi if not Table 7 [m2 K/W]", "number"),
+        ("rse", "Rse if not Table 7 [m2 K/W]", "number"),
+        ("size_layer", "Layer to size for the target", "ref"), ("notes", "Notes", "text"),
+    ),
+    "Layers": (
+        ("construction", "Construction name", "text"), ("name", "Layer name", "text"),
+        ("kind", "Kind", "text"), ("material", "Material", "text"),
+        ("thickness_mm", "d [mm]", "number"), ("conductivity", "λ if no material [W/(m K)]",
+                                                "number"),
+        ("resistance", "Declared R [m2 K/W]", "number"),
+        ("ventilation", "Air layer ventilation", "text"),
+        ("vent_area_mm2", "Vent area [mm2 per m or m2]", "number"),
+        ("emissivity_1", "ε1 [-]", "number"), ("emissivity_2", "ε2 [-]", "number"),
+        ("bridging_material", "Bridging material", "text"),
+        ("bridging_conductivity", "Bridging λ [W/(m K)]", "number"),
+        ("bridging_fraction", "Bridging fraction [-]", "number"),
+    ),
+    "Corrections": (
+        ("construction", "Construction name", "text"), ("kind", "Kind", "text"),
+        ("layer", "Layer name", "ref"), ("level", "Air-gap level [0/1/2]", "int"),
+        ("material", "Fastener material", "text"),
+        ("conductivity", "Fastener λ [W/(m K)]", "number"),
+        ("cross_section_mm2", "Fastener section [mm2]", "number"),
+        ("count_per_m2", "Fasteners per m2 [1/m2]", "number"),
+        ("penetration_mm", "Fastener length in layer [mm]", "number"),
+        ("edition", "ISO 6946 edition (2017/2007)", "text"),
+        ("application", "wall / roof (2007)", "text"),
+        ("precipitation_mm_per_day", "p [mm/day]", "number"),
+        ("drainage_factor", "f [-]", "number"), ("factor_x", "x [W day/(m2 K mm)]", "number"),
+    ),
+}
+TEMPLATE_SHEETS = ("Instructions", "Project", "Materials", "Constructions", "Layers",
+                   "Corrections", "Lists")
+VENTILATION = ("unventilated", "slightly", "well")
+_WIDTHS = {"text": 26, "number": 14, "int": 12, "ref": 22}
+
+
+# --------------------------------------------------------------------------- writing
+def template_plan(data: dict | None = None) -> WorkbookPlan:
+    """The fill-in template, with example rows from ``data`` (project-file schema).
+
+    Parameters
+    ----------
+    data : dict, optional
+        Project data whose rows are filled in (the demo project for the CLI's template);
+        None for an empty template. [-]
+
+    Returns
+    -------
+    WorkbookPlan
+    """
+    data = data or {}
+    plan = WorkbookPlan(title="heatledger project template")
+    lib_names = default_library().names()
+    _instructions(plan, bool(data))
+    # Project sheet
+    sh = plan.add_sheet("Project", column_widths={"A": 16, "B": 40, "C": 50},
+                        freeze=f"A{HEADER_ROW + 1}", print_setup=_print("Project"))
+    b = sh.block("project")
+    b.put("A1", "Project information and design temperatures", style="hl title")
+    b.put("A2", "Fill in column C. Column A holds the key the reader looks for; keep it.",
+          role="note")
+    for j, head in enumerate(("Key", "Field", "Value"), 1):
+        b.put(f"{col_letter(j)}{HEADER_ROW}", head, role="header")
+    info = dict(data.get("project", {}))
+    info.update(data.get("design", {}))
+    for i, (key, label, kind) in enumerate(PROJECT_FIELDS, HEADER_ROW + 1):
+        b.put(f"A{i}", key, role="label")
+        b.put(f"B{i}", label)
+        value = info.get(key)
+        if kind == "number" and value is not None:
+            value = float(value)
+        elif value is not None:
+            value = str(value)
+        b.put(f"C{i}", value, role="input", number_format="0.0" if kind == "number" else None)
+    # data sheets
+    rows = {
+        "Materials": list(data.get("materials", [])),
+        "Constructions": [{k: v for k, v in c.items() if k not in ("layers", "corrections")}
+                          for c in data.get("constructions", [])],
+        "Layers": [dict(layer, construction=c.get("name", ""))
+                   for c in data.get("constructions", []) for layer in c.get("layers", [])],
+        "Corrections": [dict(corr, construction=c.get("name", ""))
+                        for c in data.get("constructions", [])
+                        for corr in c.get("corrections", [])],
+    }
+    notes = {
+        "Materials": "Your own materials or overrides of the library (declared values of the "
+                     "products used). Library names are on the Lists sheet.",
+        "Constructions": "One row per wall, roof or floor. Heat flow: up (roofs), horizontal "
+                         "(walls), down (floors).",
+        "Layers": "One row per layer, inside to outside, grouped by construction. Thickness in "
+                  "mm. Kind: material, declared, air or bridged.",
+        "Corrections": "Optional corrections to U (ISO 6946 Annex F): air_gaps, fasteners, "
+                       "inverted_roof. Name the layer as on the Layers sheet.",
+    }
+    n_lib = len(lib_names)
+    lists = {"materials": sheet_ref("Lists", f"A2:A{n_lib + 1}"),
+             "heat_flow": sheet_ref("Lists", f"B2:B{len(HEAT_FLOWS) + 1}"),
+             "kind": sheet_ref("Lists", f"C2:C{len(LAYER_KINDS) + 1}"),
+             "ventilation": sheet_ref("Lists", f"D2:D{len(VENTILATION) + 1}"),
+             "correction": sheet_ref("Lists", f"E2:E{len(CORRECTION_KINDS) + 1}")}
+    for name, cols in COLUMNS.items():
+        widths = {col_letter(j): max(_WIDTHS[kind], min(len(head) + 2, 30))
+                  for j, (_key, head, kind) in enumerate(cols, 1)}
+        sh = plan.add_sheet(name, column_widths=widths, freeze=f"B{HEADER_ROW + 1}",
+                            print_setup=_print(name, "landscape"))
+        b = sh.block("data")
+        b.put("A1", f"{name}", style="hl title")
+        b.put("A2", notes[name], role="note")
+        for j, (_key, head, _kind) in enumerate(cols, 1):
+            b.put(f"{col_letter(j)}{HEADER_ROW}", head, role="header")
+        sh.row_heights[HEADER_ROW] = 30.0
+        table_rows = rows[name]
+        n_rows = max(INPUT_ROWS, len(table_rows) + 50)
+        for i in range(n_rows):
+            r = HEADER_ROW + 1 + i
+            src = table_rows[i] if i < len(table_rows) else {}
+            for j, (key, _head, kind) in enumerate(cols, 1):
+                value = src.get(key)
+                if value is not None and kind == "number":
+                    value = float(value)
+                elif value is not None and kind == "int" and not isinstance(value, bool):
+                    value = int(value) if isinstance(value, (int, float)) else str(value)
+                elif value is not None and not isinstance(value, (int, float)):
+                    value = str(value)
+                b.put(f"{col_letter(j)}{r}", value, role="input")
+        last = HEADER_ROW + n_rows
+        keys = [k for k, _h, _t in cols]
+
+        def rng(key, keys=keys, last=last):
+            c = col_letter(keys.index(key) + 1)
+            return f"{c}{HEADER_ROW + 1}:{c}{last}"
+
+        if name == "Constructions":
+            sh.validations.append(DataValidation(rng("heat_flow"), lists["heat_flow"],
+                                                 "up, horizontal or down", "choose from the list"))
+        if name == "Layers":
+            sh.validations += [
+                DataValidation(rng("kind"), lists["kind"], "material, declared, air or bridged",
+                               "choose from the list"),
+                DataValidation(rng("material"), lists["materials"],
+                               "a library material or one of your Materials rows",
+                               "not in the library: add it on the Materials sheet",
+                               error_style="warning"),
+                DataValidation(rng("bridging_material"), lists["materials"], "",
+                               "not in the library: add it on the Materials sheet",
+                               error_style="warning"),
+                DataValidation(rng("ventilation"), lists["ventilation"], "", "choose from the "
+                               "list")]
+        if name == "Corrections":
+            sh.validations.append(DataValidation(rng("kind"), lists["correction"], "",
+                                                 "choose from the list"))
+    # Lists
+    sh = plan.add_sheet("Lists", column_widths={"A": 34, "B": 14, "C": 14, "D": 16, "E": 16},
+                        print_setup=_print("Lists"))
+    b = sh.block("lists")
+    for j, (head, values) in enumerate((("Library materials", lib_names),
+                                        ("Heat flow", HEAT_FLOWS), ("Layer kind", LAYER_KINDS),
+                                        ("Ventilation", VENTILATION),
+                                        ("Correction kind", CORRECTION_KINDS)), 1):
+        b.put(f"{col_letter(j)}1", head, role="header")
+        for i, v in enumerate(values, 2):
+            b.put(f"{col_letter(j)}{i}", v)
+    return plan
+
+
+def _print(name: str, orientation: str = "portrait") -> PrintSetup:
+    return PrintSetup(orientation=orientation, header=f"heatledger project template | {name}",
+                      footer_right="page {page} of {pages}", title_rows=f"1:{HEADER_ROW}")
+
+
+def _instructions(plan: WorkbookPlan, with_examples: bool) -> None:
+    sh = plan.add_sheet("Instructions", column_widths={"A": 4, "B": 100},
+                        print_setup=_print("Instructions"))
+    b = sh.block("text")
+    b.put("B1", "heatledger project template", style="hl title")
+    lines = [
+        "1. Project: fill in the project information and the design temperatures (column C).",
+        "2. Materials: add your own materials (declared values of the products used); the "
+        "generic library is listed on the Lists sheet.",
+        "3. Constructions: one row per wall, roof or floor, with its heat-flow direction, area "
+        "and target U where you have one.",
+        "4. Layers: one row per layer, inside to outside, each naming its construction. "
+        "Thickness in mm. Kind 'material' needs a material or λ; 'declared' a resistance; "
+        "'air' a ventilation class (and vent area when slightly ventilated); 'bridged' a "
+        "material, a bridging material or λ and the bridging fraction.",
+        "5. Corrections (optional): air_gaps (level), fasteners (λ or material, section, "
+        "count), inverted_roof (p, f, x).",
+        "6. Run: heatledger audit this-file.xlsx -o audit.xlsx",
+        "Sand cells are inputs. Blank rows are skipped. Do not rename the sheets or move the "
+        "header rows: the reader checks them and names every problem by sheet and cell.",
+        "Units: thickness mm; λ W/(m K); R m2 K/W; U W/(m2 K); temperatures degC; area m2.",
+    ]
+    if with_examples:
+        lines.append("The rows already filled in are the invented heatledger demo project; "
+                     "overwrite or delete them.")
+    lines.append("Results support, and do not replace, design by a competent person under the "
+                 "local building regulations and codes; check material values against the "
+                 "declared values of the products actually used.")
+    for i, text in enumerate(lines, 3):
+        b.put(f"B{i}", text, style="hl paragraph")
+        sh.row_heights[i] = 30.0
+
+
+# --------------------------------------------------------------------------- reading
+def read_template(path) -> tuple[dict, bytes]:
+    """Read a filled-in template into project data (the project-file schema).
+
+    Parameters
+    ----------
+    path : str or path-like
+        The .xlsx file. [-]
+
+    Returns
+    -------
+    (dict, bytes)
+        The project data and the file's bytes (for the SHA-256 on the cover).
+
+    Raises
+    ------
+    ProjectError
+        Listing every problem, each naming its sheet and cell (``Layers!E7``).
+    HeatLedgerError
+        If the file is missing, too large or not an .xlsx workbook.
+    """
+    data, raw, _cells = _read(Path(path))
+    return data, raw
+
+
+def project_from_template(path) -> Project:
+    """Read a filled-in template and build the :class:`~heatledger.project.Project`.
+
+    Parameters
+    ----------
+    path : str or path-like
+        The .xlsx file. [-]
+
+    Returns
+    -------
+    Project
+
+    Raises
+    ------
+    ProjectError
+        Every problem found, in the template or in the project data, naming sheet and cell.
+    """
+    p = Path(path)
+    data, raw, cells = _read(p)
+    try:
+        return project_from_dict(data, source_bytes=raw, source_name=p.name)
+    except ProjectError as exc:
+        problems = [(_locate(where, cells), msg) for where, msg in exc.problems]
+        raise ProjectError(problems, source=p.name) from None
+
+
+def _read(p: Path):
+    import openpyxl
+    from openpyxl.utils.exceptions import InvalidFileException
+
+    try:
+        size = p.stat().st_size
+    except OSError as exc:
+        raise HeatLedgerError(f"cannot read template {str(p)!r}: {exc.strerror}") from None
+    if size > MAX_TEMPLATE_BYTES:
+        raise HeatLedgerError(f"template {p.name!r} is {size} bytes; the limit is "
+                              f"{MAX_TEMPLATE_BYTES} bytes")
+    raw = p.read_bytes()
+    try:
+        with zipfile.ZipFile(io.BytesIO(raw)) as zf:
+            total = sum(i.file_size for i in zf.infolist())
+            names = set(zf.namelist())
+    except zipfile.BadZipFile:
+        raise HeatLedgerError(f"{p.name!r} is not an .xlsx workbook (not a zip archive); save "
+                              "the template as Excel Workbook (.xlsx)") from None
+    if total > MAX_UNCOMPRESSED_BYTES:
+        raise HeatLedgerError(f"template {p.name!r} unpacks to {total} bytes; the limit is "
+                              f"{MAX_UNCOMPRESSED_BYTES} bytes")
+    if "xl/workbook.xml" not in names:
+        raise HeatLedgerError(f"{p.name!r} is not an .xlsx workbook (no xl/workbook.xml)")
+    try:
+        wb = openpyxl.load_workbook(io.BytesIO(raw), read_only=True, data_only=True)
+    except (InvalidFileException, KeyError, ValueError, TypeError, zipfile.BadZipFile,
+            OSError) as exc:
+        raise HeatLedgerError(f"{p.name!r} cannot be read as a workbook: "
+                              f"{type(exc).__name__}: {str(exc)[:120]}") from None
+    except Exception as exc:  # noqa: BLE001 - malformed XML surfaces as many exception types
+        raise HeatLedgerError(f"{p.name!r} is malformed and cannot be read: "
+                              f"{type(exc).__name__}") from None
+    try:
+        return _parse(wb, p.name, raw)
+    finally:
+        wb.close()
+
+
+def _parse(wb, source: str, raw: bytes):
+    problems: list[tuple[str, str]] = []
+    cells: dict[str, str] = {}
+    missing = [s for s in TEMPLATE_SHEETS[1:6] if s not in wb.sheetnames]
+    for s in missing:
+        problems.append((f"{s}!", f"sheet {s!r} is missing; the template needs the sheets "
+                         f"{', '.join(TEMPLATE_SHEETS[1:6])}"))
+    data: dict = {"project": {}, "design": {}}
+    if "Project" in wb.sheetnames:
+        _read_project(wb["Project"], data, problems, cells)
+    tables = {}
+    for name, cols in COLUMNS.items():
+        if name in wb.sheetnames:
+            tables[name] = _read_table(wb[name], name, cols, problems)
+    if problems:
+        raise ProjectError(problems, source=source)
+    materials = []
+    for i, (row, where) in enumerate(tables.get("Materials", []), 1):
+        materials.append(row)
+        _note(cells, f"materials[{i}]", where, COLUMNS["Materials"])
+    if materials:
+        data["materials"] = materials
+    constructions = []
+    by_name: dict[str, dict] = {}
+    for i, (row, where) in enumerate(tables.get("Constructions", []), 1):
+        row = dict(row)
+        row["layers"] = []
+        constructions.append(row)
+        key = f"constructions[{i}]"
+        _note(cells, key, where, COLUMNS["Constructions"])
+        name = str(row.get("name", "")).strip().lower()
+        if name in by_name:
+            continue  # the duplicate is reported by project_from_dict
+        by_name[name] = {"row": row, "key": key, "corr": 0}
+    for sheet, child in (("Layers", "layers"), ("Corrections", "corrections")):
+        for row, where in tables.get(sheet, []):
+            row = dict(row)
+            owner = str(row.pop("construction", "") or "").strip()
+            target = by_name.get(owner.lower())
+            if target is None:
+                choices = ", ".join(repr(c.get("name", "")) for c in constructions) or "none"
+                problems.append((where["construction"],
+                                 f"construction {owner!r} is not on the Constructions sheet; "
+                                 f"choose one of {choices}"))
+                continue
+            lst = target["row"].setdefault(child, [])
+            lst.append(row)
+            _note(cells, f"{target['key']}.{child}[{len(lst)}]", where, COLUMNS[sheet])
+    if problems:
+        raise ProjectError(problems, source=source)
+    for c in constructions:
+        if not c.get("corrections"):
+            c.pop("corrections", None)
+    data["constructions"] = constructions
+    return data, raw, cells
+
+
+def _read_project(ws, data, problems, cells) -> None:
+    heads = [_text(v) for v in _row_values(ws, HEADER_ROW, 3)]
+    if [h.lower() for h in heads] != ["key", "field", "value"]:
+        problems.append((f"Project!A{HEADER_ROW}", f"header row must read Key, Field, Value in "
+                         f"A{HEADER_ROW}:C{HEADER_ROW}; found {', '.join(map(repr, heads))} "
+                         "(rows or columns were inserted or deleted?)"))
+        return
+    fields = {k: (label, kind) for k, label, kind in PROJECT_FIELDS}
+    seen = set()
+    for r, row in enumerate(ws.iter_rows(min_row=HEADER_ROW + 1, max_row=HEADER_ROW + 200,
+                                         max_col=3, values_only=True), HEADER_ROW + 1):
+        key, _label, value = (tuple(row) + (None, None, None))[:3]
+        if key in (None, "") and value in (None, ""):
+            continue
+        key = _text(key).strip()
+        where = f"Project!C{r}"
+        if key not in fields:
+            problems.append((f"Project!A{r}", f"unknown key {key!r}; keys are "
+                             f"{', '.join(fields)}"))
+            continue
+        seen.add(key)
+        section = "design" if key.startswith("temp_") else "project"
+        cells[f"{section}.{key}"] = where
+        if value in (None, ""):
+            continue
+        if fields[key][1] == "number":
+            num = _number(value, where, problems)
+            if num is not None:
+                data[section][key] = num
+        else:
+            data[section][key] = _text(value)
+
+
+def _read_table(ws, name, cols, problems):
+    expected = [h for _k, h, _t in cols]
+    found = [_text(v) for v in _row_values(ws, HEADER_ROW, len(cols))]
+    if [f.strip().lower() for f in found] != [e.lower() for e in expected]:
+        bad = next(j for j, (f, e) in enumerate(zip(found, expected, strict=True))
+                   if f.strip().lower() != e.lower())
+        problems.append((f"{name}!{col_letter(bad + 1)}{HEADER_ROW}",
+                         f"header must be {expected[bad]!r}; found {found[bad]!r} (the header "
+                         f"row is row {HEADER_ROW} from column A; were rows or columns "
+                         "inserted or deleted?)"))
+        return []
+    out = []
+    for r, row in enumerate(ws.iter_rows(min_row=HEADER_ROW + 1, max_col=len(cols),
+                                         values_only=True), HEADER_ROW + 1):
+        values = list(row) + [None] * (len(cols) - len(row))
+        if all(v is None or (isinstance(v, str) and not v.strip()) for v in values):
+            continue
+        if r > HEADER_ROW + MAX_ROWS:
+            problems.append((f"{name}!A{r}", f"more than {MAX_ROWS} rows; split the project"))
+            break
+        rec: dict = {}
+        where: dict = {}
+        for j, ((key, _head, kind), value) in enumerate(zip(cols, values, strict=True), 1):
+            ref = f"{name}!{col_letter(j)}{r}"
+            where[key] = ref
+            if value is None or (isinstance(value, str) and not value.strip()):
+                continue
+            if kind == "number":
+                num = _number(value, ref, problems)
+                if num is not None:
+                    rec[key] = num
+            elif kind == "int":
+                num = _number(value, ref, problems)
+                if num is not None:
+                    if num != int(num):
+                        problems.append((ref, f"must be a whole number; got {value!r}"))
+                    else:
+                        rec[key] = int(num)
+            elif kind == "ref" and isinstance(value, (int, float)) and not isinstance(
+                    value, bool) and float(value).is_integer():
+                rec[key] = int(value)
+            else:
+                rec[key] = _text(value).strip()
+        where["_row"] = f"{name}!A{r}"
+        out.append((rec, where))
+    return out
+
+
+def _row_values(ws, row, ncols):
+    for values in ws.iter_rows(min_row=row, max_row=row, max_col=ncols, values_only=True):
+        vals = list(values) + [None] * (ncols - len(values))
+        return vals[:ncols]
+    return [None] * ncols
+
+
+def _number(value, where, problems):
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        problems.append((where, f"must be a number; got {value!r} (text in a number cell)"))
+        return None
+    value = float(value)
+    if value != value or value in (float("inf"), float("-inf")):
+        problems.append((where, f"must be a finite number; got {value!r}"))
+        return None
+    return value
+
+
+def _text(value) -> str:
+    if value is None:
+        return ""
+    if isinstance(value, float) and value.is_integer():
+        return str(int(value))
+    return str(value)
+
+
+def _note(cells, key, where, cols) -> None:
+    cells[key] = where["_row"]
+    for k, _h, _t in cols:
+        if k in where:
+            cells[f"{key}.{k}"] = where[k]
+
+
+def _locate(where: str, cells: dict) -> str:
+    """Translate a project key path (``constructions[2].layers[3].thickness_mm``) into the
+    template cell it came from (``Layers!E9``); unknown paths are kept."""
+    key = where
+    while key:
+        if key in cells:
+            return cells[key]
+        if "." not in key:
+            break
+        key = key.rsplit(".", 1)[0]
+    return where
