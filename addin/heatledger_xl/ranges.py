@@ -1,0 +1,500 @@
+"""Spreadsheet cell values and layer-table ranges turned into engine inputs.
+
+Everything here is plain Python: no spreadsheet library is imported, so the parser serves
+desktop Excel (classic xlwings), Excel on the web and macOS (the in-browser runtime) and
+plain tests alike. Every rejected value raises :class:`heatledger.errors.HeatLedgerError`
+with a one-line message naming the argument (and the row of a layer table) and the rule;
+the function layer (:mod:`heatledger_xl.udfs`) turns it into the text shown in the cell.
+
+Layer-table conventions
+-----------------------
+A layer table is a range of 2 to 6 columns, one row per layer, **inside to outside**.
+Columns are read by position; a narrower range simply leaves the later columns blank.
+
+==== ======================= ======================= ============================================
+col  heading (suggested)     unit                    rule
+==== ======================= ======================= ============================================
+1    name or material        text                    Library material name (case-insensitive),
+                                                     or any label when column 3 or 4 is given.
+                                                     ``air`` = unventilated air layer (ISO 6946
+                                                     Annex D); ``air:well`` = well ventilated;
+                                                     ``air:slightly:<Av mm2>`` = slightly
+                                                     ventilated. Blank: layer is called
+                                                     ``layer <n>``.
+2    thickness               mm                      Required, 0 < d <= 10000 mm (air layers
+                                                     at most 300 mm).
+3    conductivity            W/(m K)                 Optional. Blank: taken from the library
+                                                     material named in column 1.
+4    declared resistance     m2 K/W                  Optional, instead of a conductivity (give
+                                                     one or the other, never both).
+5    bridging fraction       -                       Optional, 0 < f < 1: the area fraction of
+                                                     studs/joists/battens in this layer; the
+                                                     rest is the main material (col. 3 or 1).
+6    bridging conductivity   W/(m K) or text         Required with column 5: a number or a
+                                                     library material name; blank otherwise.
+==== ======================= ======================= ============================================
+
+Further rules:
+
+- **Blank row ends the table.** A row whose cells are all blank (empty, or text of spaces
+  only) ends the table; rows below it are ignored, so a range may reach below the table.
+- **Header row.** The first row is a header, and skipped, when every filled cell in it is
+  text and its thickness cell (column 2) mentions ``mm`` or ``thick``.
+- **Blank optional cells take defaults**: blank conductivity -> library value; blank
+  resistance -> not declared; blank bridging fraction -> homogeneous layer.
+- **Numbers written as text** (``"12.5"``) are read as numbers; other text, TRUE/FALSE,
+  dates and spreadsheet errors (``#N/A``) in a number column are rejected with the row.
+- At most :data:`MAX_LAYERS` layers; a range of 1 column, or of more than 6, is rejected.
+- **Spilled results** (temperatures, layer tables, material list) are 2-D arrays; their
+  optional last argument ``header`` (TRUE) adds one row of column titles with units.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import math
+from numbers import Real
+
+from heatledger.constructions import AirLayer, BridgedLayer, Construction, Layer
+from heatledger.errors import HeatLedgerError
+from heatledger.materials import Material, default_library
+
+__all__ = [
+    "LAYER_COLUMNS",
+    "MAX_LAYERS",
+    "LIBRARY",
+    "ERROR_VALUES",
+    "Required",
+    "REQUIRED",
+    "number",
+    "integer",
+    "text",
+    "flag",
+    "heat_flow_value",
+    "layer_rows",
+    "build_construction",
+]
+
+#: Column names of a layer table, in order, as used in messages.
+LAYER_COLUMNS = ("material", "thickness_mm", "conductivity", "resistance",
+                 "bridging_fraction", "bridging_conductivity")
+#: Most layers a table may hold (a real build-up has well under 30).
+MAX_LAYERS = 100
+#: Largest layer thickness accepted. [mm]
+MAX_THICKNESS_MM = 10_000.0
+#: Spreadsheet error values as they arrive as text (xlwings ``err_to_str``).
+ERROR_VALUES = frozenset({"#N/A", "#VALUE!", "#REF!", "#DIV/0!", "#NUM!", "#NAME?",
+                          "#NULL!", "#SPILL!", "#CALC!", "#GETTING_DATA", "#FIELD!",
+                          "#BLOCKED!", "#CONNECT!", "#BUSY!", "#UNKNOWN!", "#PYTHON!"})
+#: The generic material library, read once when the add-in loads (package data through
+#: importlib.resources, so it also loads in an in-browser Python).
+LIBRARY = default_library()
+
+_HEAT_FLOWS = ("up", "horizontal", "down")
+_BLANK_TEXT = ""
+
+
+class Required:
+    """Marker for an argument that has no default."""
+
+    __slots__ = ()
+
+    def __repr__(self) -> str:
+        return "REQUIRED"
+
+
+REQUIRED = Required()
+
+
+# --------------------------------------------------------------------------- cell values
+def _describe(value: object) -> str:
+    if isinstance(value, bool):
+        return "TRUE" if value else "FALSE"
+    if isinstance(value, (_dt.date, _dt.datetime, _dt.time)):
+        return f"a date ({value.isoformat()})"
+    if isinstance(value, str):
+        short = value if len(value) <= 40 else value[:37] + "..."
+        return repr(short)
+    if isinstance(value, Real):
+        return f"{float(value):g}"
+    if isinstance(value, (list, tuple)):
+        return "a range"
+    return f"a {type(value).__name__}"
+
+
+def _is_blank(value: object) -> bool:
+    if value is None:
+        return True
+    if isinstance(value, str):
+        return value.strip() == _BLANK_TEXT
+    return False
+
+
+def _unwrap_single(name: str, value: object) -> object:
+    """A 1x1 range (``[[x]]`` or ``[x]``) is its cell; a larger range is rejected."""
+    while isinstance(value, (list, tuple)):
+        if len(value) == 0:
+            return None
+        if len(value) != 1:
+            raise HeatLedgerError(f"{name} must be a single cell; got a range of "
+                                  f"{len(value)} cells")
+        value = value[0]
+    return value
+
+
+def number(name: str, value: object, default: object = REQUIRED, *, low: float | None = None,
+           high: float | None = None, low_inclusive: bool = False,
+           unit: str = "") -> float:
+    """A finite number from a cell, with optional bounds.
+
+    Parameters
+    ----------
+    name : str
+        Argument name used in messages. [-]
+    value : object
+        The cell value (number, numeric text, blank). [-]
+    default : object
+        Returned for a blank cell; :data:`REQUIRED` makes a blank an error. [-]
+    low, high : float, optional
+        Bounds; ``low`` is exclusive unless ``low_inclusive``; ``high`` is inclusive. [-]
+    low_inclusive : bool
+        Accept ``value == low``. [-]
+    unit : str
+        Unit shown in messages. [-]
+
+    Returns
+    -------
+    float
+    """
+    value = _unwrap_single(name, value)
+    if _is_blank(value):
+        if isinstance(default, Required):
+            raise HeatLedgerError(f"{name} is blank; give a number{_in(unit)}")
+        return default  # type: ignore[return-value]
+    if isinstance(value, bool) or not isinstance(value, (Real, str)):
+        raise HeatLedgerError(f"{name} must be a number{_in(unit)}; got {_describe(value)}")
+    if isinstance(value, str):
+        stripped = value.strip()
+        if stripped.upper() in ERROR_VALUES:
+            raise HeatLedgerError(f"{name} holds the error {stripped.upper()}; "
+                                  f"give a number{_in(unit)}")
+        try:
+            out = float(stripped)
+        except ValueError:
+            raise HeatLedgerError(f"{name} must be a number{_in(unit)}; got "
+                                  f"{_describe(value)}") from None
+    else:
+        try:
+            out = float(value)
+        except (OverflowError, ValueError):
+            raise HeatLedgerError(f"{name} must be a finite number; got "
+                                  f"{_describe(value)}") from None
+    if not math.isfinite(out):
+        raise HeatLedgerError(f"{name} must be a finite number; got {_describe(value)}")
+    if low is not None:
+        if out < low or (out == low and not low_inclusive):
+            rule = "at least" if low_inclusive else "greater than"
+            raise HeatLedgerError(f"{name} must be {rule} {low:g}{_u(unit)}; got {out:g}")
+    if high is not None and out > high:
+        raise HeatLedgerError(f"{name} must be at most {high:g}{_u(unit)}; got {out:g}")
+    return out
+
+
+def integer(name: str, value: object, default: object = REQUIRED, *, low: int = 1,
+            high: int | None = None) -> int:
+    """A whole number from a cell (``3`` or ``3.0``), with bounds ``low <= n <= high``.
+
+    Parameters
+    ----------
+    name : str
+        Argument name used in messages. [-]
+    value : object
+        The cell value. [-]
+    default : object
+        Returned for a blank cell; :data:`REQUIRED` makes a blank an error. [-]
+    low, high : int
+        Inclusive bounds. [-]
+    """
+    out = number(name, value, default)
+    if out is default and not isinstance(default, Required):
+        return default  # type: ignore[return-value]
+    if out != math.floor(out):
+        raise HeatLedgerError(f"{name} must be a whole number; got {out:g}")
+    n = int(out)
+    if n < low or (high is not None and n > high):
+        span = f"{low} to {high}" if high is not None else f"{low} or more"
+        raise HeatLedgerError(f"{name} must be {span}; got {n}")
+    return n
+
+
+def text(name: str, value: object, default: object = REQUIRED) -> str:
+    """Text from a cell (numbers are written as text, ``12`` -> ``"12"``).
+
+    Parameters
+    ----------
+    name : str
+        Argument name used in messages. [-]
+    value : object
+        The cell value. [-]
+    default : object
+        Returned for a blank cell; :data:`REQUIRED` makes a blank an error. [-]
+    """
+    value = _unwrap_single(name, value)
+    if _is_blank(value):
+        if isinstance(default, Required):
+            raise HeatLedgerError(f"{name} is blank; give a text")
+        return default  # type: ignore[return-value]
+    if isinstance(value, str):
+        stripped = value.strip()
+        if stripped.upper() in ERROR_VALUES:
+            raise HeatLedgerError(f"{name} holds the error {stripped.upper()}; give a text")
+        return stripped
+    if isinstance(value, bool) or not isinstance(value, Real):
+        raise HeatLedgerError(f"{name} must be a text; got {_describe(value)}")
+    out = float(value)
+    if not math.isfinite(out):
+        raise HeatLedgerError(f"{name} must be a text; got {_describe(value)}")
+    return f"{out:g}"
+
+
+def flag(name: str, value: object, default: bool = False) -> bool:
+    """TRUE/FALSE from a cell (also 1/0 and the texts TRUE/FALSE); blank -> ``default``.
+
+    Parameters
+    ----------
+    name : str
+        Argument name used in messages. [-]
+    value : object
+        The cell value. [-]
+    default : bool
+        Value of a blank cell. [-]
+    """
+    value = _unwrap_single(name, value)
+    if _is_blank(value):
+        return default
+    if isinstance(value, bool):
+        return value
+    if isinstance(value, Real) and not isinstance(value, bool):
+        if float(value) in (0.0, 1.0):
+            return bool(float(value))
+    if isinstance(value, str) and value.strip().upper() in ("TRUE", "FALSE"):
+        return value.strip().upper() == "TRUE"
+    raise HeatLedgerError(f"{name} must be TRUE or FALSE; got {_describe(value)}")
+
+
+def heat_flow_value(value: object) -> str:
+    """The heat-flow direction from a cell; blank -> ``"horizontal"``.
+
+    Parameters
+    ----------
+    value : object
+        The cell value. [-]
+    """
+    raw = text("heat_flow", value, "horizontal")
+    out = raw.lower()
+    if out not in _HEAT_FLOWS:
+        raise HeatLedgerError(f"heat_flow must be one of 'up', 'horizontal', 'down'; "
+                              f"got {_describe(raw)}")
+    return out
+
+
+# --------------------------------------------------------------------------- layer tables
+def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
+    """The filled rows of a layer-table range, up to the first blank row.
+
+    Parameters
+    ----------
+    name : str
+        Argument name used in messages (``"layers"``). [-]
+    cells : object
+        The range as a 2-D list (rows of cells); a 1-D list is one row. [-]
+
+    Returns
+    -------
+    tuple of (int, tuple)
+        ``(row number in the range, 1-based; the six cells)`` for every layer row, with the
+        header row (if any) dropped. Hashable, so it can key a cache.
+
+    Raises
+    ------
+    HeatLedgerError
+        If the range is a single cell, has 1 or more than 6 columns, holds no layer, or
+        more than :data:`MAX_LAYERS` layers.
+    """
+    if not isinstance(cells, (list, tuple)):
+        raise HeatLedgerError(f"{name} must be a range of 2 to 6 columns (material, "
+                              f"thickness_mm, ...); got {_describe(cells)}")
+    if cells and not any(isinstance(r, (list, tuple)) for r in cells):
+        cells = [cells]  # a single row given as a 1-D list
+    out = []
+    width = 0
+    for i, row in enumerate(cells, start=1):
+        if not isinstance(row, (list, tuple)):
+            row = (row,)
+        if all(_is_blank(c) for c in row):
+            break
+        width = max(width, len(row))
+        if len(row) > len(LAYER_COLUMNS):
+            extra = row[len(LAYER_COLUMNS):]
+            if any(not _is_blank(c) for c in extra):
+                raise HeatLedgerError(
+                    f"{name} has {len(row)} columns; a layer table has 2 to 6 (material, "
+                    "thickness_mm, conductivity, resistance, bridging_fraction, "
+                    "bridging_conductivity)")
+            row = row[:len(LAYER_COLUMNS)]
+        padded = tuple(row) + (None,) * (len(LAYER_COLUMNS) - len(row))
+        if i == 1 and _is_header(padded):
+            continue
+        if len(out) >= MAX_LAYERS:
+            raise HeatLedgerError(f"{name} holds more than {MAX_LAYERS} layers; end the "
+                                  "table with a blank row")
+        out.append((i, padded))
+    if width == 1:
+        raise HeatLedgerError(f"{name} has 1 column; a layer table needs at least material "
+                              "and thickness_mm")
+    if not out:
+        raise HeatLedgerError(f"{name} holds no layer: the first row is blank (a blank row "
+                              "ends the table)")
+    return tuple(out)
+
+
+def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
+                       rse: float | None, *, name: str = "layers") -> Construction:
+    """A :class:`heatledger.Construction` from parsed layer rows.
+
+    Parameters
+    ----------
+    rows : tuple
+        Output of :func:`layer_rows`. [-]
+    heat_flow : str
+        ``"up"``, ``"horizontal"`` or ``"down"``. [-]
+    rsi, rse : float or None
+        Surface resistances; None for the ISO 6946 Table 7 values. [m2 K/W]
+    name : str
+        Argument name used in messages. [-]
+
+    Returns
+    -------
+    Construction
+    """
+    layers = [_layer(name, i, cells) for i, cells in rows]
+    return Construction(layers, heat_flow, rsi=rsi, rse=rse)
+
+
+# --------------------------------------------------------------------------- internals
+def _is_header(cells: tuple) -> bool:
+    filled = [c for c in cells if not _is_blank(c)]
+    if not filled or not all(isinstance(c, str) for c in filled):
+        return False
+    thick = cells[1]
+    if not isinstance(thick, str):
+        return False
+    low = thick.lower()
+    return "mm" in low or "thick" in low
+
+
+def _material(where: str, value: object) -> Material:
+    label = text(where, value)
+    try:
+        return LIBRARY.get(label)
+    except HeatLedgerError as exc:
+        raise HeatLedgerError(f"{where}: {exc}") from None
+
+
+def _layer(name: str, row: int, cells: tuple):
+    where = f"{name} row {row}"
+    c_name, c_thick, c_cond, c_res, c_frac, c_bcond = cells
+    label = text(f"{where} material", c_name, "")
+    thickness_mm = number(f"{where} thickness_mm", c_thick, low=0.0, high=MAX_THICKNESS_MM,
+                          unit="mm")
+    thickness = thickness_mm / 1000.0
+    cond = number(f"{where} conductivity", c_cond, None, low=0.0, high=1.0e4,
+                  unit="W/(m K)")
+    res = number(f"{where} resistance", c_res, None, low=0.0, high=1.0e3, unit="m2 K/W")
+    frac = number(f"{where} bridging_fraction", c_frac, None, low=0.0, high=1.0)
+    if frac is not None and frac >= 1.0:
+        raise HeatLedgerError(f"{where} bridging_fraction must be below 1; got {frac:g} "
+                              "(give the fraction of studs or battens, e.g. 0.12)")
+    has_bcond = not _is_blank(_unwrap_single(f"{where} bridging_conductivity", c_bcond))
+    try:
+        low = label.lower()
+        if low == "air" or low.startswith("air:"):
+            if cond is not None or res is not None or frac is not None or has_bcond:
+                raise HeatLedgerError(
+                    f"{where}: an air layer takes its resistance from ISO 6946 Annex D; "
+                    "leave conductivity, resistance and bridging blank (or give the layer "
+                    "another name and a declared resistance)")
+            return _air_layer(where, label, thickness)
+        if frac is None and has_bcond:
+            raise HeatLedgerError(f"{where}: bridging_conductivity is given but "
+                                  "bridging_fraction is blank; give both or neither")
+        if frac is not None:
+            if res is not None:
+                raise HeatLedgerError(f"{where}: a bridged layer needs a conductivity, not a "
+                                      "declared resistance")
+            if not has_bcond:
+                raise HeatLedgerError(f"{where}: bridging_fraction is given but "
+                                      "bridging_conductivity is blank; give both or neither")
+            main = cond if cond is not None else _main_conductivity(where, label)
+            bcond = _bridging_conductivity(where, c_bcond)
+            return BridgedLayer(thickness, [(main, 1.0 - frac), (bcond, frac)],
+                                name=label or f"layer {row}")
+        if res is not None:
+            if cond is not None:
+                raise HeatLedgerError(f"{where}: give conductivity or a declared resistance, "
+                                      "not both")
+            return Layer(thickness, resistance=res, name=label or f"layer {row}")
+        if cond is not None:
+            return Layer(thickness, cond, name=label or f"layer {row}")
+        if not label:
+            raise HeatLedgerError(f"{where}: give a material name, a conductivity or a "
+                                  "declared resistance")
+        return Layer(thickness, material=_material(f"{where} material", label))
+    except HeatLedgerError as exc:
+        msg = str(exc)
+        if msg.startswith(where):
+            raise
+        raise HeatLedgerError(f"{where}: {msg}") from None
+
+
+def _main_conductivity(where: str, label: str) -> float:
+    if not label:
+        raise HeatLedgerError(f"{where}: a bridged layer needs the main material's "
+                              "conductivity (column 3) or a library material name")
+    return _material(f"{where} material", label).conductivity
+
+
+def _bridging_conductivity(where: str, value: object) -> float:
+    value = _unwrap_single(f"{where} bridging_conductivity", value)
+    if isinstance(value, str):
+        try:
+            float(value.strip())
+        except ValueError:
+            if value.strip().upper() not in ERROR_VALUES:
+                return _material(f"{where} bridging_conductivity", value).conductivity
+    return number(f"{where} bridging_conductivity", value, low=0.0, high=1.0e4,
+                  unit="W/(m K)")
+
+
+def _air_layer(where: str, label: str, thickness: float) -> AirLayer:
+    parts = [p.strip().lower() for p in label.split(":")]
+    kind = parts[1] if len(parts) > 1 else "unventilated"
+    if kind in ("unventilated", "") and len(parts) <= 2:
+        return AirLayer(thickness, name="air layer")
+    if kind == "well" and len(parts) == 2:
+        return AirLayer(thickness, ventilation="well", name="air layer, well ventilated")
+    if kind == "slightly" and len(parts) == 3:
+        area = number(f"{where} material (vent area of air:slightly:<mm2>)", parts[2],
+                      low=0.0, unit="mm2")
+        return AirLayer(thickness, ventilation="slightly", vent_area=area,
+                        name="air layer, slightly ventilated")
+    raise HeatLedgerError(f"{where} material {label!r}: write 'air', 'air:unventilated', "
+                          "'air:well' or 'air:slightly:<vent area mm2>'")
+
+
+def _u(unit: str) -> str:
+    return f" {unit}" if unit else ""
+
+
+def _in(unit: str) -> str:
+    return f" in {unit}" if unit else ""

@@ -1,0 +1,226 @@
+"""One registry of the add-in's spreadsheet functions, shared by every engine family.
+
+A function is declared once with :func:`udf`: its Excel name (the Python name, capitals,
+prefix :data:`PREFIX`), its family (``"constructions"``, later ``"fins"``, ``"heat loss"``),
+a short description and one description per argument. :func:`udf`
+
+1. wraps the function so that it never raises into the spreadsheet: a
+   :class:`~heatledger.errors.HeatLedgerError` becomes the one-line text
+   ``"HL_UVALUE: layers row 3 thickness_mm must be greater than 0 mm; got -5"``, any other
+   exception a one-line text that says it is unexpected;
+2. applies xlwings' own ``func``, ``arg`` and ``ret`` decorators (imported from
+   ``xlwings``, so the same module serves classic xlwings on Windows, xlwings Lite in the
+   browser and xlwings Server), giving every argument its description and conversion
+   options (``ndim=2`` for ranges, ``err_to_str=True`` so error cells arrive as text);
+3. records a :class:`FunctionSpec` in :data:`REGISTRY` (tests check names, lengths of
+   descriptions, argument order).
+
+A later family adds its functions by writing them in its own module with the same
+decorator and importing that module from :mod:`heatledger_xl.udfs`.
+"""
+
+from __future__ import annotations
+
+import functools
+import inspect
+import re
+from dataclasses import dataclass
+
+from xlwings import arg as xl_arg
+from xlwings import func as xl_func
+from xlwings import ret as xl_ret
+
+from heatledger.errors import HeatLedgerError
+
+__all__ = [
+    "PREFIX",
+    "MAX_DESCRIPTION",
+    "ArgSpec",
+    "FunctionSpec",
+    "REGISTRY",
+    "udf",
+    "looks_like_cell_reference",
+    "error_text",
+]
+
+#: Common prefix of every function name.
+PREFIX = "HL_"
+#: Longest description the spreadsheet's function dialog shows (function and argument).
+MAX_DESCRIPTION = 255
+#: Category of the functions in the classic Excel function dialog.
+CATEGORY = "heatledger"
+
+_A1 = re.compile(r"^\$?[A-Z]{1,3}\$?[0-9]+$", re.IGNORECASE)
+_R1C1 = re.compile(r"^R(\[?-?[0-9]*\]?)C(\[?-?[0-9]*\]?)$|^[RC]\[?-?[0-9]*\]?$",
+                   re.IGNORECASE)
+_NAME = re.compile(r"^[A-Z][A-Z0-9_]*$")
+
+
+@dataclass(frozen=True)
+class ArgSpec:
+    """One argument of a spreadsheet function.
+
+    Attributes
+    ----------
+    name : str
+        Python and spreadsheet name of the argument.
+    doc : str
+        Description shown in the function dialog (unit in brackets at the end).
+    optional : bool
+        Whether the argument may be left out (optional arguments come last).
+    is_range : bool
+        Whether the argument takes a 2-D range.
+    """
+
+    name: str
+    doc: str
+    optional: bool
+    is_range: bool
+
+
+@dataclass(frozen=True)
+class FunctionSpec:
+    """One spreadsheet function of the registry.
+
+    Attributes
+    ----------
+    name : str
+        Spreadsheet name (``HL_UVALUE``).
+    family : str
+        Engine family (``"constructions"``).
+    description : str
+        Function description (the docstring) shown in the function dialog.
+    args : tuple of ArgSpec
+    returns : str
+        What the function returns, with unit.
+    spills : bool
+        Whether the result is a 2-D array that spills.
+    function : callable
+        The decorated function.
+    """
+
+    name: str
+    family: str
+    description: str
+    args: tuple
+    returns: str
+    spills: bool
+    function: object
+
+
+#: Every registered function, by spreadsheet name, in declaration order.
+REGISTRY: dict[str, FunctionSpec] = {}
+
+
+def looks_like_cell_reference(name: str) -> bool:
+    """True when ``name`` could be read as an A1 or R1C1 cell reference.
+
+    Parameters
+    ----------
+    name : str
+        A function name. [-]
+
+    Examples
+    --------
+    >>> looks_like_cell_reference("HL1"), looks_like_cell_reference("R2C3")
+    (True, True)
+    >>> looks_like_cell_reference("HL_UVALUE")
+    False
+    """
+    return bool(_A1.match(name) or _R1C1.match(name))
+
+
+def error_text(function_name: str, exc: BaseException) -> str:
+    """The one-line text a function returns instead of raising.
+
+    Parameters
+    ----------
+    function_name : str
+        Spreadsheet name of the function. [-]
+    exc : BaseException
+        The exception caught. [-]
+
+    Examples
+    --------
+    >>> error_text("HL_X", HeatLedgerError("temp_inside is blank"))
+    'HL_X: temp_inside is blank'
+    """
+    if isinstance(exc, HeatLedgerError):
+        body = str(exc)
+    else:
+        body = (f"unexpected problem ({type(exc).__name__}: {exc}); please report it with "
+                "the arguments used")
+    line = " ".join(f"{function_name}: {body}".split())
+    return line if len(line) <= 250 else line[:247] + "..."
+
+
+def udf(family: str, *, returns: str, args: dict[str, str], ranges: tuple[str, ...] = (),
+        spills: bool = False):
+    """Declare a spreadsheet function (see the module docstring).
+
+    Parameters
+    ----------
+    family : str
+        Engine family the function belongs to. [-]
+    returns : str
+        What the function returns, with its unit. [-]
+    args : dict
+        Argument name -> description, for every argument, in signature order. [-]
+    ranges : tuple of str
+        Arguments that take a 2-D range. [-]
+    spills : bool
+        Whether the result is a 2-D array. [-]
+
+    Returns
+    -------
+    callable
+        A decorator.
+    """
+
+    def decorate(fn):
+        name = fn.__name__
+        _check_name(name)
+        sig = inspect.signature(fn)
+        params = list(sig.parameters.values())
+        if [p.name for p in params] != list(args):
+            raise HeatLedgerError(f"{name}: argument descriptions {list(args)} do not match "
+                                  f"the signature {[p.name for p in params]}")
+        specs = []
+        seen_optional = False
+        for p in params:
+            optional = p.default is not inspect.Parameter.empty
+            if seen_optional and not optional:
+                raise HeatLedgerError(f"{name}: optional arguments must come last")
+            seen_optional = seen_optional or optional
+            specs.append(ArgSpec(p.name, args[p.name], optional, p.name in ranges))
+        description = inspect.cleandoc(fn.__doc__ or "")
+
+        @functools.wraps(fn)
+        def guarded(*a, **k):
+            try:
+                return fn(*a, **k)
+            except Exception as exc:  # noqa: BLE001 - never raise into the spreadsheet
+                return error_text(name, exc)
+
+        guarded.__doc__ = description
+        decorated = guarded
+        for spec in reversed(specs):
+            options = {"ndim": 2} if spec.is_range else {}
+            decorated = xl_arg(spec.name, doc=spec.doc, err_to_str=True, **options)(decorated)
+        decorated = xl_ret()(decorated)
+        decorated = xl_func(category=CATEGORY)(decorated)
+        if name in REGISTRY:
+            raise HeatLedgerError(f"function {name} is registered twice")
+        REGISTRY[name] = FunctionSpec(name, family, description, tuple(specs), returns,
+                                      spills, decorated)
+        return decorated
+
+    return decorate
+
+
+def _check_name(name: str) -> None:
+    if not (name.startswith(PREFIX) and _NAME.match(name)):
+        raise HeatLedgerError(f"function name {name!r} must be capitals, digits and '_' "
+                              f"and start with {PREFIX!r}")
+    if looks_like_cell_reference(name):
+        raise HeatLedgerError(f"function name {name!r} looks like a cell reference")
