@@ -184,6 +184,10 @@ def _clean(obj):
 
 
 def _cmd_demo(args) -> int:
+    if getattr(args, "output", None):
+        from .sheet.commands import run_demo_audit
+
+        return run_demo_audit(args.output, force=args.force, quiet=args.quiet)
     if args.write_toml:
         from .fileio import write_bytes_atomic
 
@@ -191,6 +195,18 @@ def _cmd_demo(args) -> int:
         return 0
     _emit(project_results(demo_project()), args.json)
     return 0
+
+
+def _cmd_template(args) -> int:
+    from .sheet.commands import run_template
+
+    return run_template(args.output, force=args.force, blank=args.blank)
+
+
+def _cmd_audit(args) -> int:
+    from .sheet.commands import run_audit
+
+    return run_audit(args.file, args.output, force=args.force, quiet=args.quiet)
 
 
 def _cmd_calc(args) -> int:
@@ -233,7 +249,24 @@ def _parser() -> argparse.ArgumentParser:
     d.add_argument("--json", action="store_true", help="machine-readable output")
     d.add_argument("--write-toml", metavar="PATH",
                    help="write the demo project file (TOML) to PATH instead")
+    d.add_argument("-o", "--output", metavar="XLSX",
+                   help="write the audit workbook of the demo project to XLSX")
+    d.add_argument("--force", action="store_true", help="replace an existing output file")
+    d.add_argument("--quiet", action="store_true", help="no progress display")
     d.set_defaults(handler=_cmd_demo)
+
+    t = sub.add_parser("template", help="write the fill-in project template (.xlsx)")
+    t.add_argument("-o", "--output", metavar="XLSX", required=True, help="output file")
+    t.add_argument("--force", action="store_true", help="replace an existing output file")
+    t.add_argument("--blank", action="store_true", help="leave out the demo example rows")
+    t.set_defaults(handler=_cmd_template)
+
+    a = sub.add_parser("audit", help="write the self-checking audit workbook of a project")
+    a.add_argument("file", help="project file (.toml) or filled-in template (.xlsx)")
+    a.add_argument("-o", "--output", metavar="XLSX", required=True, help="output file")
+    a.add_argument("--force", action="store_true", help="replace an existing output file")
+    a.add_argument("--quiet", action="store_true", help="no progress display")
+    a.set_defaults(handler=_cmd_audit)
 
     c = sub.add_parser("calc", help="results of a TOML project file")
     c.add_argument("file", help="project file (.toml)")
