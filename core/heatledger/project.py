@@ -100,6 +100,8 @@ class Project:
     materials: MaterialLibrary
     constructions: list
     user_materials: list = field(default_factory=list)
+    fins: list = field(default_factory=list)
+    building: object = None
     raw: dict = field(default_factory=dict)
     source_bytes: bytes = b""
     source_name: str = ""
@@ -231,11 +233,42 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
                              "names must be unique"))
         names_seen.add(entry.name.lower())
         entries.append(entry)
+    fins = _parse_fins(data, library, problems)
+    building = _parse_building(data, entries, library, t_i, t_e, problems)
     if problems:
         raise ProjectError(problems, source=source_name)
     return Project(info=info, temp_inside=t_i, temp_outside=t_e, materials=library,
-                   constructions=entries, user_materials=user_materials, raw=data,
-                   source_bytes=source_bytes, source_name=source_name)
+                   constructions=entries, user_materials=user_materials, fins=fins,
+                   building=building, raw=data, source_bytes=source_bytes,
+                   source_name=source_name)
+
+
+# Hooks for the other method families: each parses its own section(s), appends every
+# problem as (key path, message) to ``problems`` and returns its domain objects.
+
+
+def _parse_fins(data, library, problems) -> list:
+    if "fins" not in data:
+        return []
+    try:
+        from .fins.project_io import fins_from_dict
+    except ImportError:  # pragma: no cover - until the fins section is wired
+        problems.append(("fins", "the fins section is not supported by this version yet"))
+        return []
+    return fins_from_dict(data["fins"], library, problems)
+
+
+def _parse_building(data, entries, library, temp_inside, temp_outside, problems):
+    if "rooms" not in data and "building" not in data:
+        return None
+    try:
+        from .heatloss.project_io import building_from_dict
+    except ImportError:  # pragma: no cover - until the rooms section is wired
+        problems.append(("rooms", "the rooms section is not supported by this version yet"))
+        return None
+    constructions = {e.name: e.construction for e in entries}
+    return building_from_dict(data, constructions, library, temp_inside, temp_outside,
+                              problems)
 
 
 def build_construction(row: dict, library: MaterialLibrary | None = None, *,
