@@ -55,6 +55,7 @@ import datetime as _dt
 import math
 from numbers import Real
 
+from heatledger.airlayers import MAX_AIR_LAYER_THICKNESS
 from heatledger.constructions import AirLayer, BridgedLayer, Construction, Layer
 from heatledger.errors import HeatLedgerError
 from heatledger.materials import Material, default_library
@@ -477,6 +478,10 @@ def _bridging_conductivity(where: str, value: object) -> float:
 
 
 def _air_layer(where: str, label: str, thickness: float) -> AirLayer:
+    if thickness > MAX_AIR_LAYER_THICKNESS + 1e-12:
+        raise HeatLedgerError(f"{where}: air layer thickness must be at most "
+                              f"{MAX_AIR_LAYER_THICKNESS * 1000:g} mm for ISO 6946 Annex D; got "
+                              f"{thickness * 1000:g} mm")
     parts = [p.strip().lower() for p in label.split(":")]
     kind = parts[1] if len(parts) > 1 else "unventilated"
     if kind in ("unventilated", "") and len(parts) <= 2:

@@ -193,7 +193,7 @@ def udf(family: str, *, returns: str, args: dict[str, str], ranges: tuple[str, .
                 raise HeatLedgerError(f"{name}: optional arguments must come last")
             seen_optional = seen_optional or optional
             specs.append(ArgSpec(p.name, args[p.name], optional, p.name in ranges))
-        description = inspect.cleandoc(fn.__doc__ or "")
+        description = " ".join((fn.__doc__ or "").split())
 
         @functools.wraps(fn)
         def guarded(*a, **k):

@@ -268,7 +268,12 @@ def HL_THICKNESS(layers, layer_number, target_u, heat_flow=None, rsi=None, rse=N
     c = _construction(layers, heat_flow, rsi, rse)
     k = integer("layer_number", layer_number, low=1, high=len(c.layers))
     u_t = number("target_u", target_u, low=0.0, high=1.0e3, unit="W/(m2 K)")
-    return required_thickness(c, k - 1, u_t) * 1000.0
+    try:
+        return required_thickness(c, k - 1, u_t) * 1000.0
+    except HeatLedgerError as exc:
+        msg = str(exc).replace(f"layer {k - 1} ", f"layer {k} ").replace("layer_index",
+                                                                       "layer_number")
+        raise HeatLedgerError(f"layer_number {k}: {msg}") from None
 
 
 # --------------------------------------------------------------------------- materials
