@@ -117,7 +117,10 @@ def _describe(value: object) -> str:
         short = value if len(value) <= 40 else value[:37] + "..."
         return repr(short)
     if isinstance(value, Real):
-        return f"{float(value):g}"
+        try:
+            return f"{float(value):g}"
+        except OverflowError:
+            return "a number too large for a spreadsheet"
     if isinstance(value, (list, tuple)):
         return "a range"
     return f"a {type(value).__name__}"
@@ -252,7 +255,7 @@ def text(name: str, value: object, default: object = REQUIRED) -> str:
         return stripped
     if isinstance(value, bool) or not isinstance(value, Real):
         raise HeatLedgerError(f"{name} must be a text; got {_describe(value)}")
-    out = float(value)
+    out = _float_or_nan(value)
     if not math.isfinite(out):
         raise HeatLedgerError(f"{name} must be a text; got {_describe(value)}")
     return f"{out:g}"
@@ -276,8 +279,8 @@ def flag(name: str, value: object, default: bool = False) -> bool:
     if isinstance(value, bool):
         return value
     if isinstance(value, Real) and not isinstance(value, bool):
-        if float(value) in (0.0, 1.0):
-            return bool(float(value))
+        if _float_or_nan(value) in (0.0, 1.0):
+            return bool(_float_or_nan(value))
     if isinstance(value, str) and value.strip().upper() in ("TRUE", "FALSE"):
         return value.strip().upper() == "TRUE"
     raise HeatLedgerError(f"{name} must be TRUE or FALSE; got {_describe(value)}")
@@ -379,7 +382,15 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
     Construction
     """
     layers = [_layer(name, i, cells) for i, cells in rows]
-    return Construction(layers, heat_flow, rsi=rsi, rse=rse)
+    try:
+        return Construction(layers, heat_flow, rsi=rsi, rse=rse)
+    except HeatLedgerError as exc:
+        msg = str(exc)
+        for head in ("construction: ", "construction "):
+            if msg.startswith(head):
+                msg = msg[len(head):]
+                break
+        raise HeatLedgerError(f"{name}: {msg}") from None
 
 
 # --------------------------------------------------------------------------- internals
@@ -495,6 +506,13 @@ def _air_layer(where: str, label: str, thickness: float) -> AirLayer:
                         name="air layer, slightly ventilated")
     raise HeatLedgerError(f"{where} material {label!r}: write 'air', 'air:unventilated', "
                           "'air:well' or 'air:slightly:<vent area mm2>'")
+
+
+def _float_or_nan(value: Real) -> float:
+    try:
+        return float(value)
+    except (OverflowError, ValueError):
+        return math.nan
 
 
 def _u(unit: str) -> str:

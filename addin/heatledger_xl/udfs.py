@@ -115,6 +115,7 @@ def HL_RTOTAL(layers, heat_flow=None, rsi=None, rse=None):
 def HL_RLIMITS(layers, heat_flow=None, rsi=None, rse=None, header=None):
     """Upper and lower limits R'_T, R''_T, R_T, relative error and ratio of a table with a
     bridged layer (EN ISO 6946:2017, 6.7.2), as a spilled list. [m2 K/W, -]"""
+    show_header = flag("header", header, False)
     c = _construction(layers, heat_flow, rsi, rse)
     b = c.bridging
     if b is None:
@@ -123,7 +124,7 @@ def HL_RLIMITS(layers, heat_flow=None, rsi=None, rse=None, header=None):
     rows = [["upper limit R'_T", b.upper], ["lower limit R''_T", b.lower],
             ["total R_T", b.total], ["relative error e", b.relative_error],
             ["ratio R'_T/R''_T", b.ratio]]
-    return _with_header(rows, ["quantity", "value [m2 K/W or -]"], header)
+    return _with_header(rows, ["quantity", "value [m2 K/W or -]"], show_header)
 
 
 @udf(FAMILY, returns="spill: layer table as used", args={**_CONSTRUCTION_ARGS,
@@ -133,6 +134,7 @@ def HL_LAYERS(layers, heat_flow=None, rsi=None, rse=None, header=None):
     """Layer table as the engine used it: number, name, kind, thickness, conductivity,
     resistance in the series sum and counted flag, with Rsi and Rse rows. [mm, W/(m K),
     m2 K/W]"""
+    show_header = flag("header", header, False)
     c = _construction(layers, heat_flow, rsi, rse)
     rows = [[0, "inside surface", "surface", None, None, c.rsi, True]]
     for r in c.layer_table:
@@ -142,7 +144,7 @@ def HL_LAYERS(layers, heat_flow=None, rsi=None, rse=None, header=None):
                  c.rse_used, True])
     titles = ["layer", "name", "kind", "thickness [mm]", "conductivity [W/(m K)]",
               "resistance [m2 K/W]", "counted"]
-    return _with_header(rows, titles, header)
+    return _with_header(rows, titles, show_header)
 
 
 @udf(FAMILY, returns="spill: warnings (text)", args=_CONSTRUCTION_ARGS, ranges=("layers",),
@@ -214,6 +216,7 @@ def HL_TINTERFACES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, 
     """Temperatures at the inside surface, every layer interface and the outside surface
     from the resistance ladder, as rows of interface, x from the inside, temperature.
     [mm, degC]"""
+    show_header = flag("header", header, False)
     c = _construction(layers, heat_flow, rsi, rse)
     t_i, t_e = _temperatures(temp_inside, temp_outside)
     temps = c.ladder_temperatures(t_i, t_e)
@@ -225,7 +228,7 @@ def HL_TINTERFACES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, 
         label = ("outside surface" if k == len(counted) - 1
                  else f"{r.name} | {counted[k + 1].name}")
         rows.append([label, x, float(temps[k + 1])])
-    return _with_header(rows, ["interface", "x [mm]", "temperature [degC]"], header)
+    return _with_header(rows, ["interface", "x [mm]", "temperature [degC]"], show_header)
 
 
 @udf(FAMILY, returns="spill: node, layer, x [mm], temperature [degC]",
@@ -237,6 +240,7 @@ def HL_TNODES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=N
               nodes_per_layer=None, header=None):
     """Nodal temperatures through a layer table by the 1-D finite-volume solver, as rows of
     node, layer number, x of the cell centre from the inside, temperature. [mm, degC]"""
+    show_header = flag("header", header, False)
     c = _construction(layers, heat_flow, rsi, rse)
     t_i, t_e = _temperatures(temp_inside, temp_outside)
     n = integer("nodes_per_layer", nodes_per_layer, 4, low=1, high=MAX_NODES_PER_LAYER)
@@ -244,7 +248,7 @@ def HL_TNODES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=N
     rows = [[i + 1, int(layer) + 1, float(x) * 1000.0, float(t)]
             for i, (layer, x, t) in enumerate(zip(res.layer_of_node, res.x, res.temperature,
                                                   strict=True))]
-    return _with_header(rows, ["node", "layer", "x [mm]", "temperature [degC]"], header)
+    return _with_header(rows, ["node", "layer", "x [mm]", "temperature [degC]"], show_header)
 
 
 @udf(FAMILY, returns="heat flux [W/m2]", args=_TEMP_ARGS, ranges=("layers",))
@@ -307,13 +311,14 @@ def HL_MATERIAL(material, quantity=None):
 def HL_MATERIALS(header=None):
     """The generic material library as rows of name, conductivity, density, specific heat,
     vapour resistance factors (dry, wet), source and confidence. [W/(m K), kg/m3, J/(kg K)]"""
+    show_header = flag("header", header, False)
     rows = [[m.name, m.conductivity, m.density, m.specific_heat,
              _finite_or_text(m.vapour_resistance_factor),
              _finite_or_text(m.vapour_resistance_factor_wet), m.source, m.confidence]
             for m in LIBRARY]
     titles = ["material", "conductivity [W/(m K)]", "density [kg/m3]",
               "specific heat [J/(kg K)]", "mu dry [-]", "mu wet [-]", "source", "confidence"]
-    return _with_header(rows, titles, header)
+    return _with_header(rows, titles, show_header)
 
 
 @udf(FAMILY, returns="version text", args={})
@@ -352,10 +357,8 @@ def _side(value):
     return out
 
 
-def _with_header(rows, titles, header):
-    if flag("header", header, False):
-        return [list(titles)] + rows
-    return rows
+def _with_header(rows, titles, show_header):
+    return [list(titles)] + rows if show_header else rows
 
 
 def _finite_or_text(value):
