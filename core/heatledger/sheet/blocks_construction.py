@@ -113,7 +113,6 @@ class _Rows:
             title = f"{self.section}. {title}"
             self.row += 1
             self.put(2, title, style="hl subtitle")
-            self.sheet.merges.append(f"B{self.row}:N{self.row}")
             self.row += 1
 
     def a1(self, col: int, row: int | None = None) -> str:

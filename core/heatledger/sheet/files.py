@@ -14,9 +14,10 @@ from pathlib import Path
 
 from ..errors import HeatLedgerError
 
-__all__ = ["write_bytes_atomic", "normalise_zip"]
+__all__ = ["write_bytes_atomic", "normalise_zip", "ZIP_EPOCH"]
 
-_ZIP_EPOCH = (1980, 1, 1, 0, 0, 0)
+#: Date of every zip member written by heatledger (the earliest date zip can store).
+ZIP_EPOCH = (1980, 1, 1, 0, 0, 0)
 
 
 def write_bytes_atomic(path: str | os.PathLike, data: bytes, *, force: bool = False) -> Path:
@@ -110,7 +111,7 @@ def normalise_zip(data: bytes) -> bytes:
         out, "w", zipfile.ZIP_DEFLATED
     ) as dst:
         for info in src.infolist():
-            member = zipfile.ZipInfo(info.filename, date_time=_ZIP_EPOCH)
+            member = zipfile.ZipInfo(info.filename, date_time=ZIP_EPOCH)
             member.compress_type = zipfile.ZIP_DEFLATED
             member.external_attr = 0o644 << 16
             dst.writestr(member, src.read(info.filename), compresslevel=6)

@@ -21,6 +21,7 @@ The plan never imports a spreadsheet library.
 from __future__ import annotations
 
 import datetime as _dt
+import functools
 import re
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
@@ -125,6 +126,7 @@ def ref(row: int, col: int, *, absolute_ref: bool = False) -> str:
     return f"{col_letter(col)}{row}"
 
 
+@functools.lru_cache(maxsize=65536)
 def split_ref(a1: str) -> tuple[int, int]:
     """Row and column (1-based) of an A1 reference such as ``"B7"`` or ``"$B$7"``.
 

@@ -14,10 +14,10 @@ import os
 import re
 from copy import copy
 from pathlib import Path
-from zipfile import ZIP_DEFLATED, ZipFile
+from zipfile import ZIP_DEFLATED, ZipFile, ZipInfo
 
 from openpyxl import Workbook
-from openpyxl.cell.cell import ILLEGAL_CHARACTERS_RE
+from openpyxl.cell.cell import ILLEGAL_CHARACTERS_RE, Cell, MergedCell
 from openpyxl.chart import BarChart, Reference, ScatterChart, Series
 from openpyxl.chart.marker import Marker
 from openpyxl.styles import Alignment, Border, Font, NamedStyle, PatternFill, Side
@@ -25,11 +25,12 @@ from openpyxl.styles.cell_style import StyleArray
 from openpyxl.styles.numbers import BUILTIN_FORMATS_MAX_SIZE, BUILTIN_FORMATS_REVERSE
 from openpyxl.workbook.defined_name import DefinedName
 from openpyxl.worksheet.datavalidation import DataValidation as XLDataValidation
+from openpyxl.worksheet.merge import MergedCellRange
 from openpyxl.worksheet.pagebreak import Break
 from openpyxl.writer.excel import ExcelWriter
 
 from ..errors import HeatLedgerError
-from .files import normalise_zip, write_bytes_atomic
+from .files import ZIP_EPOCH, write_bytes_atomic
 from .plan import STYLES, Chart, Style, WorkbookPlan, is_formula_like, split_ref
 
 __all__ = ["render_workbook", "workbook_bytes", "write_workbook"]
@@ -62,25 +63,36 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
     style_cache = _StyleCache(wb)
     for sheet in plan.sheets:
         ws = wb.create_sheet(sheet.name)
+        cells = ws._cells
         for cell in sheet.cells():
             row, col = split_ref(cell.ref)
-            xc = ws.cell(row=row, column=col)
+            xc = Cell(ws, row=row, column=col)
             quote = False
             if cell.formula is not None:
-                xc.value = cell.formula
+                xc._value = cell.formula
+                xc.data_type = "f"
             else:
                 value = cell.value
-                if isinstance(value, str):
-                    value = ILLEGAL_CHARACTERS_RE.sub("", value)
-                    xc.value = value
-                    if is_formula_like(value):
-                        xc.data_type = "s"  # text, never a formula
-                        quote = True
+                kind = type(value)
+                if value is None:
+                    pass
+                elif kind is str:
+                    # always text: never a formula, never an error code such as '#N/A'
+                    value = ILLEGAL_CHARACTERS_RE.sub("", value)[:32767]
+                    xc._value = value
+                    xc.data_type = "s"
+                    quote = is_formula_like(value)
+                elif kind is float or kind is int:
+                    xc._value = value
+                elif kind is bool:
+                    xc._value = value
+                    xc.data_type = "b"
                 else:
                     xc.value = value
             xc._style = style_cache.get(cell.style, cell.number_format, quote)
+            cells[(row, col)] = xc
         for rng in sheet.merges:
-            ws.merge_cells(rng)
+            _merge(ws, rng)
         for letters, width in sheet.column_widths.items():
             ws.column_dimensions[letters].width = width
         for row, height in sheet.row_heights.items():
@@ -126,11 +138,11 @@ def workbook_bytes(plan: WorkbookPlan) -> bytes:
     """
     wb = render_workbook(plan)
     buf = io.BytesIO()
-    archive = ZipFile(buf, "w", ZIP_DEFLATED, allowZip64=True)
+    archive = _FixedTimeZipFile(buf, "w", ZIP_DEFLATED, allowZip64=True)
     # ExcelWriter keeps the modified time we set; openpyxl's save_workbook would stamp now.
     wb.properties.modified = plan.timestamp
     ExcelWriter(wb, archive).save()
-    return normalise_zip(buf.getvalue())
+    return buf.getvalue()
 
 
 def write_workbook(plan: WorkbookPlan, path: str | os.PathLike, *, force: bool = False) -> Path:
@@ -167,6 +179,24 @@ def write_workbook(plan: WorkbookPlan, path: str | os.PathLike, *, force: bool =
 
 
 # --------------------------------------------------------------------------- helpers
+class _FixedTimeZipFile(ZipFile):
+    """A zip archive whose members all carry the same date (reproducible bytes)."""
+
+    def writestr(self, zinfo_or_arcname, data, compress_type=None, compresslevel=None):
+        if not isinstance(zinfo_or_arcname, ZipInfo):
+            zinfo_or_arcname = ZipInfo(zinfo_or_arcname, date_time=ZIP_EPOCH)
+            zinfo_or_arcname.compress_type = ZIP_DEFLATED
+            zinfo_or_arcname.external_attr = 0o644 << 16
+        else:
+            zinfo_or_arcname.date_time = ZIP_EPOCH
+        super().writestr(zinfo_or_arcname, data, compress_type, compresslevel)
+
+    def write(self, filename, arcname=None, compress_type=None, compresslevel=None):
+        # openpyxl streams each worksheet to a temporary file and adds it with write()
+        with open(filename, "rb") as fh:
+            self.writestr(str(arcname or filename), fh.read(), compress_type, compresslevel)
+
+
 class _StyleCache:
     """One openpyxl style array per (named style, number format, quote prefix)."""
 
@@ -193,7 +223,29 @@ class _StyleCache:
             if quote:
                 arr.quotePrefix = 1
             self.arrays[key] = arr
-        return copy(arr)
+        # one shared array per style: nothing mutates a cell's style after rendering, and
+        # openpyxl indexes styles by value when it writes the file
+        return arr
+
+
+def _merge(ws, rng: str) -> None:
+    """Merge ``rng``; the covered cells take the top-left cell's style.
+
+    openpyxl's ``merge_cells`` re-derives edge borders cell by cell, which costs more than
+    writing all other cells of a large workbook; the top-left style copied across gives the
+    same look for our styles (fills and rules run the full width).
+    """
+    mcr = MergedCellRange(ws, rng)
+    ws.merged_cells.add(mcr)
+    top = ws._cells.get((mcr.min_row, mcr.min_col))
+    style = top._style if top is not None else None
+    cells = mcr.cells
+    next(cells)
+    for row, col in cells:
+        mc = MergedCell(ws, row, col)
+        if style is not None:
+            mc._style = copy(style)
+        ws._cells[row, col] = mc
 
 
 def _named_style(style: Style) -> NamedStyle:
