@@ -1,0 +1,148 @@
+"""The functions run through xlwings' own calling machinery (``xlwings.server``).
+
+xlwings picks its decorators when it is imported: with ``XLWINGS_ON_SERVER=true`` they are
+the ones of xlwings Server / xlwings Lite (the runtime of Excel on the web and macOS), which
+record the metadata and conversion options. The fixture sets the environment for these
+tests only (monkeypatch), imports fresh copies of xlwings and of the add-in, and puts the
+original modules back afterwards. ``XLWINGS_LICENSE_KEY=noncommercial`` is the key value
+xlwings documents for noncommercial use of its PRO part (xlwings README, "License key for
+noncommercial purpose"); it is used here only to run the tests.
+
+Payloads are shaped as the spreadsheet sends them: every argument a 2-D matrix
+(``[[value]]`` for one cell), ``None`` for an omitted optional argument, error cells as
+``{"type": "Error", "basicValue": "#N/A"}``.
+"""
+
+from __future__ import annotations
+
+import asyncio
+import importlib
+import sys
+from types import SimpleNamespace
+
+import pytest
+from heatledger.constructions import AirLayer, Construction, Layer
+from heatledger.materials import default_library
+
+PACKAGES = ("xlwings", "heatledger_xl")
+WALL = [["material", "thickness [mm]", "conductivity [W/(m K)]"],
+        ["gypsum plasterboard 900", 12.5, None],
+        ["mineral wool 035", 100, None],
+        ["block", 150, 1.35],
+        ["air", 25, None],
+        ["brick", 102, 0.77]]  # invented demo wall
+rtol_engine = 1e-12  # the same engine numbers, only converted through xlwings
+
+
+def _ours(name: str) -> bool:
+    return name.split(".")[0] in PACKAGES
+
+
+@pytest.fixture
+def xl(monkeypatch):
+    monkeypatch.setenv("XLWINGS_ON_SERVER", "true")
+    monkeypatch.setenv("XLWINGS_LICENSE_KEY", "noncommercial")
+    saved = {k: v for k, v in sys.modules.items() if _ours(k)}
+    for k in saved:
+        del sys.modules[k]
+    try:
+        xlwings = importlib.import_module("xlwings")
+        server = importlib.import_module("xlwings.server")
+        udfs = importlib.import_module("heatledger_xl.udfs")
+        registry = importlib.import_module("heatledger_xl.registry")
+        yield SimpleNamespace(xlwings=xlwings, server=server, udfs=udfs,
+                              registry=registry.REGISTRY)
+    finally:
+        for k in [k for k in sys.modules if _ours(k)]:
+            del sys.modules[k]
+        sys.modules.update(saved)
+
+
+def call(xl, func_name, *args):
+    payload = {
+        "func_name": func_name,
+        "args": list(args),
+        "caller_address": "Sheet1!B2",
+        "version": xl.xlwings.__version__,
+        "client": "Office.js",
+        "runtime": "1.4",
+        "culture_info_name": "en-GB",
+        "date_format": "dd/mm/yyyy",
+    }
+    return asyncio.run(xl.server.custom_functions_call(payload, xl.udfs))
+
+
+def engine_wall() -> Construction:
+    lib = default_library()
+    return Construction([
+        Layer(0.0125, material=lib.get("gypsum plasterboard 900")),
+        Layer(0.100, material=lib.get("mineral wool 035")),
+        Layer(0.150, 1.35), AirLayer(0.025), Layer(0.102, 0.77)], "horizontal")
+
+
+def test_decorators_are_the_server_ones(xl):
+    assert xl.xlwings.on_server
+    assert all(hasattr(spec.function, "__xlfunc__") for spec in xl.registry.values())
+
+
+def test_metadata_lists_every_function_with_its_descriptions(xl):
+    meta = xl.server.custom_functions_meta(xl.udfs)
+    listed = {f["name"]: f for f in meta["functions"]}
+    assert set(listed) == set(xl.registry)
+    for name, spec in xl.registry.items():
+        f = listed[name]
+        assert f["id"] == name
+        assert f["description"] == spec.description
+        assert len(f["description"]) <= 255
+        assert [p["name"] for p in f["parameters"]] == [a.name for a in spec.args]
+        for p, a in zip(f["parameters"], spec.args, strict=True):
+            assert p["description"] == a.doc and len(p["description"]) <= 255
+            assert p.get("optional", False) == a.optional
+            assert p["dimensionality"] == "matrix"
+
+
+def test_u_value_call_returns_the_engine_value(xl):
+    want = engine_wall().u_value
+    out = call(xl, "HL_UVALUE", WALL, None, None, None)
+    assert out == [[pytest.approx(want, rel=rtol_engine)]]
+    # blank cells in optional arguments, and optional arguments left out
+    assert call(xl, "HL_UVALUE", WALL, [[None]], [[None]], [[None]]) == out
+    assert call(xl, "HL_UVALUE", WALL) == out
+    assert call(xl, "HL_RTOTAL", WALL, [["horizontal"]]) == [[pytest.approx(
+        engine_wall().total_resistance, rel=rtol_engine)]]
+
+
+def test_spilled_nodal_table_matches_the_engine(xl):
+    res = engine_wall().temperatures(20.0, -5.0, nodes_per_layer=3)
+    out = call(xl, "HL_TNODES", WALL, [[20]], [[-5]], None, None, None, [[3]], [[True]])
+    assert out[0] == ["node", "layer", "x [mm]", "temperature [degC]"]
+    body = out[1:]
+    assert len(body) == len(res.x) == 15
+    atol_K = 1e-12  # same solve, no conversion of the numbers
+    for row, x, t, layer in zip(body, res.x, res.temperature, res.layer_of_node, strict=True):
+        assert row[1] == int(layer) + 1
+        assert row[2] == pytest.approx(x * 1000.0, abs=1e-12)
+        assert row[3] == pytest.approx(t, abs=atol_K)
+
+
+def test_spilled_interfaces_and_other_functions(xl):
+    ladder = engine_wall().ladder_temperatures(20.0, -5.0)
+    out = call(xl, "HL_TINTERFACES", WALL, [[20]], [[-5]])
+    assert [r[2] for r in out] == pytest.approx(list(ladder), abs=1e-12)
+    assert call(xl, "HL_RSURFACE", [["inside"]], [["up"]]) == [[0.10]]  # ISO 6946 Table 7
+    assert call(xl, "HL_MATERIAL", [["steel"]]) == [[50.0]]
+    listing = call(xl, "HL_MATERIALS", [[True]])
+    assert listing[0][0] == "material" and len(listing) == len(default_library()) + 1
+
+
+def test_error_cells_and_bad_arguments_come_back_as_text(xl):
+    na = {"type": "Error", "basicValue": "#N/A", "errorType": "NotAvailable"}
+    out = call(xl, "HL_UVALUE", WALL, [[na]])
+    assert out == [["HL_UVALUE: heat_flow holds the error #N/A; give a text"]]
+    bad_table = [["block", na, 1.0]]
+    out = call(xl, "HL_UVALUE", bad_table)
+    assert out[0][0].startswith("HL_UVALUE: layers row 1 thickness_mm holds the error #N/A")
+    out = call(xl, "HL_TINTERFACES", WALL, [["warm"]], [[-5]])
+    assert out[0][0].startswith("HL_TINTERFACES: temp_inside must be a number")
+    # the error text is a plain string for the spreadsheet, never an error value
+    assert isinstance(out[0][0], str) and not out[0][0].startswith("#")
