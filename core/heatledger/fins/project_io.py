@@ -1,0 +1,466 @@
+"""The ``[[fins]]`` section of a project file: fins and finned surfaces as project entries.
+
+Lengths are given in millimetres, as in a heat-sink or finned-tube data sheet (and as
+thicknesses are in the construction tables); everything else is SI: conductivity in
+W/(m K), convection coefficient in W/(m2 K), temperatures in degC, areas in m2, heat rates
+in W. The method is always explicit: ``kind`` says whether the fin is straight or annular,
+and a straight fin is a plate when ``thickness_mm`` is given and a pin when ``diameter_mm``
+is given (the engine's front door). Every problem is reported with its key path, for
+example ``fins[2].length_mm`` (numbering from 1); unknown keys are problems, so a typo never
+passes silently.
+
+Schema (one ``[[fins]]`` table per fin or finned surface)::
+
+    [[fins]]
+    name = "HS1 drive heat-sink fin"   # required, unique
+    kind = "straight"                  # required: "straight" or "annular"
+    material = "aluminium alloy"       # a library material name, or:
+    # conductivity = 160.0             # W/(m K) (one of material / conductivity)
+    h = 12.0                           # W/(m2 K), convection coefficient on the fin
+    base_temperature = 70.0            # degC, temperature of the fin base
+    ambient = 40.0                     # degC, fluid (air) temperature
+    # straight fins:
+    length_mm = 40.0                   # base to tip
+    thickness_mm = 2.0                 # plate fin (or diameter_mm = 6.0 for a pin fin)
+    width_mm = 120.0                   # plate width along the base (default 1000 = per m)
+    profile = "rectangular"            # "rectangular" (default), "triangular", "parabolic"
+    tip = "convective"                 # "convective" (default for straight fins),
+                                       # "adiabatic", "temperature", "infinite"
+    # tip_temperature = 30.0           # degC, only with tip = "temperature"
+    corrected_length = false           # L_c = L + t/2 (or D/4), convective tip only
+    # annular fins (instead of length/thickness/width/profile):
+    # tube_diameter_mm = 22.0          # outside diameter of the tube = fin root diameter
+    # fin_diameter_mm = 50.0           # outside diameter of the fin
+    # thickness_mm = 0.5
+    # tip = "adiabatic"                # "adiabatic" (default for annular) or "convective"
+    notes = ""
+
+      [fins.array]                     # optional: N fins on a base
+      count = 14                       # number of fins
+      base_area = 0.0216               # m2, base area INCLUDING the fin roots
+      contact_resistance = 0.0         # m2 K/W at each fin root (default 0)
+      target_heat_rate = 150.0         # W, optional: size fin length and fin count
+
+      [fins.fv]                        # optional finite-volume settings
+      cells = 40                       # control volumes (default 40, at most 500)
+      emissivity = 0.0                 # radiation to surroundings (default 0 = none)
+      temp_surroundings = 40.0         # degC, radiating surroundings (default ambient)
+      h_coefficient = 3.0              # with h_exponent: h = C |T - T_inf|^n in the FV
+      h_exponent = 0.25                # solution (natural convection), replacing h
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from ..errors import HeatLedgerError
+from .annular import ANNULAR_TIPS, AnnularFin
+from .arrays import FinArray
+from .fv import PowerLawCoefficient
+from .straight import STRAIGHT_PROFILES, STRAIGHT_TIPS, StraightFin
+
+__all__ = ["FinEntry", "FinFVSettings", "fins_from_dict", "FIN_KINDS", "FIN_KEYS",
+           "ARRAY_KEYS", "FV_KEYS", "DEFAULT_FV_CELLS", "MAX_FV_CELLS"]
+
+FIN_KINDS = ("straight", "annular")
+COMMON_KEYS = ("name", "kind", "material", "conductivity", "h", "base_temperature", "ambient",
+               "tip", "thickness_mm", "corrected_length", "notes", "array", "fv")
+FIN_KEYS = {
+    "straight": COMMON_KEYS + ("length_mm", "diameter_mm", "width_mm", "profile",
+                               "tip_temperature"),
+    "annular": COMMON_KEYS + ("tube_diameter_mm", "fin_diameter_mm"),
+}
+ARRAY_KEYS = ("count", "base_area", "contact_resistance", "target_heat_rate")
+FV_KEYS = ("cells", "emissivity", "temp_surroundings", "h_coefficient", "h_exponent")
+#: Control volumes of the finite-volume check when ``[fins.fv] cells`` is not given. [-]
+DEFAULT_FV_CELLS = 40
+#: Most control volumes a project may ask for (each is a row of the calculation sheet). [-]
+MAX_FV_CELLS = 500
+_ABS_ZERO = -273.15
+
+
+@dataclass(frozen=True)
+class FinFVSettings:
+    """Finite-volume settings of a fin entry.
+
+    Attributes
+    ----------
+    cells : int
+        Number of control volumes. [-]
+    emissivity : float
+        Emissivity for radiation to the surroundings (0 = none). [-]
+    temp_surroundings : float or None
+        Radiating surroundings temperature; None = the ambient. [degC]
+    h_law : PowerLawCoefficient or None
+        ``h = C |T - T_inf|^n`` replacing the constant ``h`` in the finite volumes. [-]
+    """
+
+    cells: int = DEFAULT_FV_CELLS
+    emissivity: float = 0.0
+    temp_surroundings: float | None = None
+    h_law: PowerLawCoefficient | None = None
+
+    @property
+    def nonlinear(self) -> bool:
+        """True when the FV solution iterates (h(T) or radiation). [-]"""
+        return self.h_law is not None or self.emissivity > 0.0
+
+
+@dataclass
+class FinEntry:
+    """A fin or finned surface of the project.
+
+    Attributes
+    ----------
+    name : str
+        Name of the entry (unique in the project).
+    fin : StraightFin or AnnularFin
+        One fin, SI units.
+    array : FinArray or None
+        The fins on their base when ``[fins.array]`` is given.
+    base_temperature, ambient : float
+        Base and fluid temperatures. [degC]
+    fv : FinFVSettings
+        Finite-volume settings.
+    target_heat_rate : float or None
+        Target heat rate of the array for the inverse answers. [W]
+    material : Material or None
+        The library material named, if any.
+    row : dict
+        The raw ``[[fins]]`` table.
+    where : str
+        Key path of the table (``fins[2]``).
+    notes : str
+    """
+
+    name: str
+    fin: object
+    array: FinArray | None
+    base_temperature: float
+    ambient: float
+    fv: FinFVSettings
+    target_heat_rate: float | None
+    material: object
+    row: dict
+    where: str
+    notes: str = ""
+
+    @property
+    def kind(self) -> str:
+        """``"straight"`` or ``"annular"``. [-]"""
+        return "annular" if isinstance(self.fin, AnnularFin) else "straight"
+
+    def evaluate(self):
+        """Closed-form result of one fin (:class:`~heatledger.fins.FinResult`)."""
+        return self.fin.evaluate(self.base_temperature, self.ambient)
+
+    def evaluate_array(self):
+        """Array result (:class:`~heatledger.fins.FinArrayResult`) or None."""
+        if self.array is None:
+            return None
+        return self.array.evaluate(self.base_temperature, self.ambient)
+
+    def finite_volume(self):
+        """Finite-volume result of one fin with this entry's settings
+        (:class:`~heatledger.fins.FinFVResult`)."""
+        s = self.fv
+        return self.fin.finite_volume(self.base_temperature, self.ambient, nodes=s.cells,
+                                      h=s.h_law, emissivity=s.emissivity,
+                                      temp_surroundings=s.temp_surroundings)
+
+    def sizing(self) -> dict:
+        """Inverse answers for ``target_heat_rate``: ``{"length": FinSizing or message,
+        "count": FinSizing or message}``; empty without a target or an array."""
+        if self.array is None or self.target_heat_rate is None:
+            return {}
+        out = {}
+        for key, method in (("length", self.array.length_for_heat_rate),
+                            ("count", self.array.count_for_heat_rate)):
+            try:
+                out[key] = method(self.target_heat_rate, self.base_temperature, self.ambient)
+            except HeatLedgerError as exc:
+                out[key] = str(exc)
+        return out
+
+
+def fins_from_dict(rows, library, problems) -> list:
+    """Fin entries from the ``[[fins]]`` tables of a project.
+
+    Parameters
+    ----------
+    rows : list of dict
+        The ``fins`` list of the project data. [-]
+    library : MaterialLibrary
+        Materials to resolve ``material`` names against. [-]
+    problems : list
+        Every problem is appended as ``(key path, message)``. [-]
+
+    Returns
+    -------
+    list of FinEntry
+        The entries that have no problem.
+    """
+    if not isinstance(rows, list):
+        problems.append(("fins", "must be a list of tables ([[fins]])"))
+        return []
+    out = []
+    seen: set[str] = set()
+    for i, row in enumerate(rows, 1):
+        where = f"fins[{i}]"
+        entry = _entry(row, where, library, problems)
+        if entry is None:
+            continue
+        if entry.name.lower() in seen:
+            problems.append((f"{where}.name", f"fin name {entry.name!r} is used twice; names "
+                             "must be unique"))
+            continue
+        seen.add(entry.name.lower())
+        out.append(entry)
+    return out
+
+
+# ----------------------------------------------------------------------------- internals
+def _entry(row, where, library, problems):
+    if not isinstance(row, dict):
+        problems.append((where, "must be a table with name, kind, material or conductivity, "
+                         "h, base_temperature, ambient and the dimensions"))
+        return None
+    start = len(problems)
+    name = row.get("name")
+    if not isinstance(name, str) or not name.strip():
+        problems.append((f"{where}.name", "every fin needs a name (text)"))
+        name = ""
+    kind = row.get("kind")
+    if kind not in FIN_KINDS:
+        problems.append((f"{where}.kind", f"must be one of {', '.join(map(repr, FIN_KINDS))}; "
+                         f"got {kind!r}"))
+        _unknown(row, sorted(set(FIN_KEYS["straight"]) | set(FIN_KEYS["annular"])), where,
+                 problems)
+        return None
+    _unknown(row, FIN_KEYS[kind], where, problems)
+    material, k = _conductivity(row, where, library, problems)
+    h = _num(row, "h", where, problems, required=True, positive=True)
+    t_b = _num(row, "base_temperature", where, problems, required=True, low=_ABS_ZERO)
+    t_inf = _num(row, "ambient", where, problems, required=True, low=_ABS_ZERO)
+    corrected = row.get("corrected_length", False)
+    if not isinstance(corrected, bool):
+        problems.append((f"{where}.corrected_length", f"must be true or false; got "
+                         f"{corrected!r}"))
+    notes = row.get("notes", "")
+    if not isinstance(notes, str):
+        problems.append((f"{where}.notes", f"must be text; got {notes!r}"))
+    if kind == "straight":
+        dims = _straight_inputs(row, where, problems)
+    else:
+        dims = _annular_inputs(row, where, problems)
+    array_in = _sub(row, "array", ARRAY_KEYS, where, problems)
+    fv = _fv(row, where, problems)
+    if len(problems) > start:
+        return None
+    try:
+        if kind == "straight":
+            length = dims.pop("length")
+            fin = StraightFin(length, k, h, corrected_length=corrected, **dims)
+        else:
+            fin = AnnularFin(dims["inner_radius"], dims["outer_radius"], dims["thickness"], k,
+                             h, tip=dims["tip"], corrected_length=corrected)
+    except HeatLedgerError as exc:
+        problems.append((_key_of(str(exc), where), str(exc)))
+        return None
+    array, target = None, None
+    if array_in is not None:
+        array, target = _array(array_in, fin, f"{where}.array", problems)
+        if array is None:
+            return None
+    if fv.h_law is not None and getattr(fin, "tip", None) == "infinite":
+        problems.append((f"{where}.fv.h_coefficient", "tip = 'infinite' takes only the fin's "
+                         "constant h; use a finite tip with h_coefficient"))
+        return None
+    return FinEntry(name=name.strip(), fin=fin, array=array, base_temperature=t_b,
+                    ambient=t_inf, fv=fv, target_heat_rate=target, material=material,
+                    row=row, where=where, notes=notes if isinstance(notes, str) else "")
+
+
+def _straight_inputs(row, where, problems) -> dict:
+    length = _num(row, "length_mm", where, problems, required=True, positive=True)
+    t = _num(row, "thickness_mm", where, problems, positive=True)
+    d = _num(row, "diameter_mm", where, problems, positive=True)
+    w = _num(row, "width_mm", where, problems, positive=True)
+    if (row.get("thickness_mm") is None) == (row.get("diameter_mm") is None):
+        got = "both" if row.get("thickness_mm") is not None else "neither"
+        problems.append((f"{where}.thickness_mm", "give exactly one of thickness_mm (a plate "
+                         f"fin) or diameter_mm (a pin fin); got {got}"))
+    if w is not None and row.get("diameter_mm") is not None:
+        problems.append((f"{where}.width_mm", "width_mm applies to plate fins only (not with "
+                         "diameter_mm)"))
+    tip = _choice(row, "tip", STRAIGHT_TIPS, "convective", where, problems)
+    profile = _choice(row, "profile", STRAIGHT_PROFILES, "rectangular", where, problems)
+    t_l = _num(row, "tip_temperature", where, problems, low=_ABS_ZERO)
+    if tip == "temperature" and row.get("tip_temperature") is None:
+        problems.append((f"{where}.tip_temperature", "tip = 'temperature' needs "
+                         "tip_temperature (degC)"))
+    if tip != "temperature" and row.get("tip_temperature") is not None:
+        problems.append((f"{where}.tip_temperature", f"is used only with tip = 'temperature'; "
+                         f"got tip = {tip!r}"))
+    out = {"length": None if length is None else length / 1000.0, "tip": tip,
+           "profile": profile, "tip_temperature": t_l}
+    if t is not None:
+        out["thickness"] = t / 1000.0
+        out["width"] = 1.0 if w is None else w / 1000.0
+    if d is not None:
+        out["diameter"] = d / 1000.0
+    return out
+
+
+def _annular_inputs(row, where, problems) -> dict:
+    d1 = _num(row, "tube_diameter_mm", where, problems, required=True, positive=True)
+    d2 = _num(row, "fin_diameter_mm", where, problems, required=True, positive=True)
+    t = _num(row, "thickness_mm", where, problems, required=True, positive=True)
+    if d1 is not None and d2 is not None and not d1 < d2:
+        problems.append((f"{where}.fin_diameter_mm", f"must exceed tube_diameter_mm "
+                         f"({d1:g} mm); got {d2:g} mm"))
+    tip = _choice(row, "tip", ANNULAR_TIPS, "adiabatic", where, problems)
+    return {"inner_radius": None if d1 is None else d1 / 2000.0,
+            "outer_radius": None if d2 is None else d2 / 2000.0,
+            "thickness": None if t is None else t / 1000.0, "tip": tip}
+
+
+def _array(data, fin, where, problems):
+    start = len(problems)
+    count = data.get("count")
+    if isinstance(count, bool) or not isinstance(count, int) or count < 0:
+        problems.append((f"{where}.count", f"must be a whole number >= 0; got {count!r}"))
+    area = _num(data, "base_area", where, problems, required=True, positive=True)
+    rc = _num(data, "contact_resistance", where, problems, non_negative=True, default=0.0)
+    target = _num(data, "target_heat_rate", where, problems)
+    if target is not None and target == 0.0:
+        problems.append((f"{where}.target_heat_rate", "must not be zero (leave it out for no "
+                         "sizing)"))
+    if len(problems) > start:
+        return None, None
+    try:
+        return FinArray(fin, count, area, rc), target
+    except HeatLedgerError as exc:
+        key = ("base_area" if "base_area" in str(exc) else
+               "count" if "count" in str(exc) else "")
+        problems.append((f"{where}.{key}" if key else where, str(exc)))
+        return None, None
+
+
+def _fv(row, where, problems) -> FinFVSettings:
+    data = _sub(row, "fv", FV_KEYS, where, problems) or {}
+    sub = f"{where}.fv"
+    cells = data.get("cells", DEFAULT_FV_CELLS)
+    if isinstance(cells, bool) or not isinstance(cells, int) or not 2 <= cells <= MAX_FV_CELLS:
+        problems.append((f"{sub}.cells", f"must be a whole number from 2 to {MAX_FV_CELLS}; "
+                         f"got {cells!r}"))
+        cells = DEFAULT_FV_CELLS
+    eps = _num(data, "emissivity", sub, problems, non_negative=True, default=0.0)
+    if eps is not None and eps > 1.0:
+        problems.append((f"{sub}.emissivity", f"must be between 0 and 1; got {eps:g}"))
+        eps = 0.0
+    t_sur = _num(data, "temp_surroundings", sub, problems, low=_ABS_ZERO)
+    c = _num(data, "h_coefficient", sub, problems, positive=True)
+    n = _num(data, "h_exponent", sub, problems, non_negative=True)
+    law = None
+    if (data.get("h_coefficient") is None) != (data.get("h_exponent") is None):
+        problems.append((f"{sub}.h_exponent", "give h_coefficient and h_exponent together "
+                         "(h = C |T - T_inf|^n) or neither"))
+    elif c is not None and n is not None:
+        try:
+            law = PowerLawCoefficient(c, n)
+        except HeatLedgerError as exc:
+            problems.append((f"{sub}.h_exponent", str(exc)))
+    return FinFVSettings(cells=cells, emissivity=eps or 0.0, temp_surroundings=t_sur,
+                         h_law=law)
+
+
+def _conductivity(row, where, library, problems):
+    name = row.get("material")
+    lam = row.get("conductivity")
+    if name not in (None, "") and lam is not None:
+        problems.append((f"{where}.conductivity", "give material (a library name) or "
+                         "conductivity (W/(m K)), not both"))
+        return None, None
+    if name not in (None, ""):
+        try:
+            mat = library.get(str(name))
+        except HeatLedgerError as exc:
+            problems.append((f"{where}.material", str(exc)))
+            return None, None
+        return mat, mat.conductivity
+    if lam is None:
+        problems.append((f"{where}.material", "give material (a library name) or "
+                         "conductivity (W/(m K))"))
+        return None, None
+    return None, _num(row, "conductivity", where, problems, positive=True)
+
+
+def _sub(row, key, allowed, where, problems):
+    if key not in row:
+        return None
+    data = row[key]
+    if not isinstance(data, dict):
+        problems.append((f"{where}.{key}", f"must be a table ([fins.{key}])"))
+        return None
+    _unknown(data, allowed, f"{where}.{key}", problems)
+    return data
+
+
+def _choice(row, key, choices, default, where, problems):
+    value = row.get(key, default)
+    if value not in choices:
+        problems.append((f"{where}.{key}", f"must be one of {', '.join(map(repr, choices))}; "
+                         f"got {value!r}"))
+        return default
+    return value
+
+
+def _num(row, key, where, problems, *, required=False, positive=False, non_negative=False,
+         low=None, default=None):
+    value = row.get(key)
+    path = f"{where}.{key}"
+    if value is None or value == "":
+        if required:
+            problems.append((path, "is required"))
+        return default
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        problems.append((path, f"must be a number; got {value!r}"))
+        return None
+    value = float(value)
+    if not math.isfinite(value):
+        problems.append((path, f"must be a finite number; got {value!r}"))
+        return None
+    if positive and value <= 0.0:
+        problems.append((path, f"must be greater than zero; got {value:g}"))
+        return None
+    if non_negative and value < 0.0:
+        problems.append((path, f"must not be negative; got {value:g}"))
+        return None
+    if low is not None and value < low:
+        problems.append((path, f"must be at least {low:g} (absolute zero); got {value:g}"))
+        return None
+    return value
+
+
+def _unknown(row, allowed, where, problems) -> None:
+    for key in row:
+        if key not in allowed:
+            problems.append((f"{where}.{key}", f"unknown key; allowed here: "
+                             f"{', '.join(allowed)}"))
+
+
+_ENGINE_KEYS = (("tip_temperature", "tip_temperature"), ("corrected_length", "corrected_length"),
+                ("inner_radius", "tube_diameter_mm"), ("outer_radius", "fin_diameter_mm"),
+                ("thickness", "thickness_mm"), ("diameter", "diameter_mm"),
+                ("width", "width_mm"), ("length", "length_mm"), ("profile", "profile"),
+                ("tip", "tip"), ("conductivity", "conductivity"), ("h", "h"))
+
+
+def _key_of(message: str, where: str) -> str:
+    """The project key an engine message is about (the first engine name it mentions)."""
+    for engine_name, key in _ENGINE_KEYS:
+        if message.startswith(engine_name) or f" {engine_name}" in message:
+            return f"{where}.{key}"
+    return where
