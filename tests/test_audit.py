@@ -229,3 +229,28 @@ def test_progress_is_reported_per_construction(demo):
     seen = []
     audit.audit_plan(demo, progress=lambda i, n, name: seen.append((i, n, name)))
     assert [s[0] for s in seen] == list(range(1, len(demo.constructions) + 1))
+
+
+@pytest.mark.calc
+def test_changing_a_material_recomputes_the_sheet(demo, tmp_path, recalc):
+    """The layer table refers to the Materials sheet: a new λ flows through to U."""
+    plan = audit.audit_plan(demo)
+    path = write_workbook(plan, tmp_path / "live.xlsx")
+    wb = openpyxl.load_workbook(path)
+    ws = wb["Materials"]
+    row = next(r for r in range(4, ws.max_row + 1) if ws[f"B{r}"].value == "mineral wool 035")
+    ws[f"C{row}"] = 0.070  # twice the conductivity
+    wb.save(path)
+    out = openpyxl.load_workbook(recalc(path), data_only=True)
+    entry = next(e for e in demo.constructions if e.name.startswith("EW2"))
+    refs = plan.index[entry.name]
+    # the engine's answer for the changed input, computed independently of the sheet
+    layers = list(entry.construction.layers)
+    idx = next(i for i, lay in enumerate(layers) if lay.name == "Cavity insulation")
+    from heatledger.constructions import Layer
+
+    layers[idx] = Layer(layers[idx].thickness, 0.070, name=layers[idx].name)
+    changed = entry.construction.with_layer(idx, layers[idx])
+    assert _value(out, refs.u_value) == pytest.approx(changed.u_value, rel=REL)
+    cover = {r[0]: r[1] for r in out["Cover"].iter_rows(min_col=2, max_col=3, values_only=True)}
+    assert str(cover["State"]).startswith("NOT ALL OK")  # the engine constants are for 0.035

@@ -80,25 +80,28 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
     materials = plan.add_sheet("Materials", column_widths=_widths([5, 34, 12, 12, 14, 12, 12,
                                                                    60]),
                                freeze="A4", print_setup=_print(title, "landscape", "1:3"))
-    summary = plan.add_sheet("Summary", column_widths=_widths([5, 36, 18, 12, 11, 12, 12, 12,
+    summary = plan.add_sheet("Summary", column_widths=_widths([5, 36, 31, 12, 11, 12, 12, 12,
                                                                12, 12, 12, 10, 10, 16]),
                              freeze="A4", print_setup=_print(title, "landscape", "1:3"))
+    material_refs = _materials(materials, project)
     refs: list[ConstructionRefs] = []
     names = _sheet_names([e.name for e in project.constructions])
     total = len(project.constructions)
     for i, (entry, sheet_name) in enumerate(zip(project.constructions, names, strict=True), 1):
         mats = [str(r.get("material", "") or "") if isinstance(r, dict) else ""
                 for r in entry.layer_inputs]
+        bmats = [str(r.get("bridging_material", "") or "") if isinstance(r, dict) else ""
+                 for r in entry.layer_inputs]
         refs.append(add_construction_sheet(
             plan, sheet_name, entry.construction, temp_inside=project.temp_inside,
             temp_outside=project.temp_outside, nodes_per_layer=entry.nodes_per_layer,
-            area=entry.area, target_u=entry.target_u, materials=mats, project_name=title,
+            area=entry.area, target_u=entry.target_u, materials=mats,
+            bridging_materials=bmats, material_refs=material_refs, project_name=title,
             tolerance=tolerance))
         plan.index[entry.name] = refs[-1]
         if progress is not None:
             progress(i, total, entry.name)
     summary_cells = _summary(summary, project, refs)
-    _materials(materials, project)
     _cover(cover, project, summary_cells, tolerance)
     return plan
 
@@ -186,7 +189,8 @@ def _summary(sheet, project, refs) -> dict[str, str]:
     b.put("A2", "Values are live references to the construction sheets; U·A only where an area "
                 "is given. Area-weighted U is over the elements with an area.", role="note")
     heads = ["No.", "Construction", "Sheet", "Heat flow", "Area A [m2]", "R_T [m2 K/W]",
-             "U [W/(m2 K)]", "U, 2 s.f. [W/(m2 K)]", "Target U [W/(m2 K)]", "Target met?",
+             "U [W/(m2 K)]", "U, 2 s.f. [W/(m2 K)]", "Target U [W/(m2 K)]",
+             "Target met? (U ≤ target)",
              "U·A [W/K]", "Check cells", "Checks OK", "State"]
     for j, h in enumerate(heads, 1):
         b.put(f"{_col(j)}3", h, role="header")
@@ -234,7 +238,7 @@ def _summary(sheet, project, refs) -> dict[str, str]:
             "ok": sheet_ref(sheet.name, f"M{t + 3}")}
 
 
-def _materials(sheet, project) -> None:
+def _materials(sheet, project) -> dict:
     b = sheet.block("materials")
     b.put("A1", "Materials used, with their design values and sources", style="hl title")
     sheet.merges.append("A1:H1")
@@ -244,14 +248,22 @@ def _materials(sheet, project) -> None:
     for j, h in enumerate(heads, 1):
         b.put(f"{_col(j)}3", h, role="header")
     used = list(project.materials_used())
-    for mat in getattr(project, "user_materials", []):
+    extra = list(getattr(project, "user_materials", []))
+    for entry in project.constructions:  # fastener materials named in corrections
+        for row in (_entry_raw(project, entry).get("corrections") or []):
+            name = row.get("material") if isinstance(row, dict) else None
+            if isinstance(name, str) and name in project.materials:
+                extra.append(project.materials.get(name))
+    for mat in extra:
         if all(m.name != mat.name for m in used):
             used.append(mat)
+    refs = {}
     for i, mat in enumerate(used, 1):
         r = 3 + i
         b.put(f"A{r}", i)
         b.put(f"B{r}", mat.name, style="hl text")
-        b.put(f"C{r}", float(mat.conductivity), role="input", number_format="0.000")
+        lam = b.put(f"C{r}", float(mat.conductivity), role="input", number_format="0.000")
+        refs[mat.name.strip().lower()] = (sheet_ref(sheet.name, lam.ref), float(mat.conductivity))
         for col, val, fmt in (("D", mat.density, "0"), ("E", mat.specific_heat, "0"),
                               ("F", mat.vapour_resistance_factor, "0")):
             if val is not None:
@@ -262,6 +274,16 @@ def _materials(sheet, project) -> None:
         b.put(f"H{r}", str(mat.source or ""), style="hl text")
     if not used:
         b.put("B4", "no library materials are referred to by name", role="note")
+    return refs
+
+
+def _entry_raw(project, entry) -> dict:
+    """The raw construction table of ``entry`` from the project data (empty if unknown)."""
+    raw = getattr(project, "raw", None) or {}
+    for row in raw.get("constructions", []) or []:
+        if isinstance(row, dict) and str(row.get("name", "")).strip() == entry.name:
+            return row
+    return {}
 
 
 def _cover(sheet, project, summary_cells, tolerance) -> None:
@@ -318,7 +340,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     for text in METHODS:
         b.put(f"B{r}", "•")
         b.put(f"C{r}", text, style="hl paragraph")
-        sheet.row_heights[r] = 27.0
+        sheet.row_heights[r] = _height(text)
         r += 1
     r += 1
     b.put(f"B{r}", "Cautions", style="hl subtitle")
@@ -327,7 +349,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     for text in _cautions.caution_lines():
         b.put(f"B{r}", "!")
         b.put(f"C{r}", text, style="hl warning")
-        sheet.row_heights[r] = 27.0
+        sheet.row_heights[r] = _height(text, 70)
         r += 1
     r += 1
     b.put(f"B{r}", "How to read this workbook", style="hl subtitle")
@@ -340,8 +362,14 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
                  "Layers are listed inside to outside; thickness in mm; heat flux is positive "
                  "from inside to outside."):
         b.put(f"C{r}", text, style="hl paragraph")
-        sheet.row_heights[r] = 27.0
+        sheet.row_heights[r] = _height(text)
         r += 1
+
+
+def _height(text: str, per_line: int = 80) -> float:
+    """Row height in points for ``text`` wrapped in the cover's wide column."""
+    lines = max(1, -(-len(text) // per_line))
+    return 13.5 * lines + 2.0
 
 
 def _col(j: int) -> str:

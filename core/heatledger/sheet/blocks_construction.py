@@ -159,6 +159,8 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                            *, temp_inside: float, temp_outside: float,
                            nodes_per_layer=None, area: float | None = None,
                            target_u: float | None = None, materials=None,
+                           material_refs: dict | None = None,
+                           bridging_materials=None,
                            project_name: str = "",
                            tolerance: float = DEFAULT_CHECK_TOLERANCE,
                            temperatures: ConstructionTemperatures | None = None
@@ -183,6 +185,11 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         Target U-value. [W/(m2 K)]
     materials : sequence of str, optional
         Material name of each layer, for the table (blank where none). [-]
+    material_refs : dict, optional
+        Lower-case material name -> (reference of its λ cell on a materials sheet, λ
+        [W/(m K)]); a layer whose λ equals it refers to that cell by formula. [-]
+    bridging_materials : sequence of str, optional
+        Bridging material name of each layer (bridged layers only). [-]
     project_name : str
         Project name for the page header. [-]
     tolerance : float
@@ -272,11 +279,17 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         for idx in bridged_idx:
             lay = con.layers[idx]
             first = w.row
+            names = [_pick(materials, idx), _pick(bridging_materials, idx)]
             for k, (lam, frac) in enumerate(lay.parts, 1):
                 w.put(1, idx + 1)
                 w.put(2, f"{lay.name}: part {k}")
                 w.put(5, formula=f"=E{layer_row[idx]}", fmt=FMT_MM)
-                w.put(6, float(lam), role="input", fmt=FMT_LAMBDA)
+                link = _material_link(material_refs, names[k - 1] if k <= 2 else "", lam)
+                if link:
+                    w.put(6, formula=f"={link}", fmt=FMT_LAMBDA)
+                    w.put(4, names[k - 1])
+                else:
+                    w.put(6, float(lam), role="input", fmt=FMT_LAMBDA)
                 w.put(7, float(frac), role="input", fmt="0.000")
                 w.put(8, formula=f"=F{w.row}*G{w.row}", fmt=FMT_LAMBDA)
                 w.row += 1
@@ -299,7 +312,11 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         d_ref = w.put(5, r.thickness * 1000.0, role="input", fmt=FMT_MM, row=rr)
         note = ""
         if r.kind == "material":
-            w.put(6, float(r.conductivity), role="input", fmt=FMT_LAMBDA, row=rr)
+            link = _material_link(material_refs, mat, r.conductivity)
+            if link:
+                w.put(6, formula=f"={link}", fmt=FMT_LAMBDA, row=rr)
+            else:
+                w.put(6, float(r.conductivity), role="input", fmt=FMT_LAMBDA, row=rr)
             own = w.put(7, formula=f"=E{rr}/1000/F{rr}", fmt=FMT_R, row=rr)
             note = "R = d/λ"
         elif r.kind == "declared":
@@ -307,9 +324,8 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
             note = "declared thermal resistance (input)"
         elif r.kind == "air":
             own = w.put(7, float(r.resistance_own), role="engine", fmt=FMT_R, row=rr)
-            note = (f"{lay.ventilation} air layer: R_g from ISO 6946:2017 Annex D (stated "
-                    f"value), ε1 = {lay.emissivity_1:g}, ε2 = {lay.emissivity_2:g}, heat flow "
-                    f"{con.heat_flow}")
+            note = (f"{lay.ventilation}: R_g of ISO 6946 Annex D (stated), ε {lay.emissivity_1:g}"
+                    f"/{lay.emissivity_2:g}")
         elif r.index not in parts_at:  # bridged but not counted: stated value only
             own = w.put(7, float(r.resistance_own), role="engine", fmt=FMT_R, row=rr)
         else:  # bridged
@@ -398,7 +414,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
             "Rsi + Rse used + Σ R of the homogeneous counted layers [m2 K/W]",
             formula=f"={rsi}+{rse_used_ref}" + "".join(f"+{c}" for c in base_cells),
             engine=base_engine)
-        w.headers(["Section", "Parts (one per bridged layer)", "", "", "", "", "f [-]",
+        w.headers(["No.", "Section: parts (one per bridged layer)", "", "", "", "", "f [-]",
                    "R_T,q [m2 K/W]", "f/R_T,q [W/(m2 K)]", "", "Engine R_T,q", "Check"])
         first_sec = w.row
         part_lists = [list(range(parts_at[i][0], parts_at[i][1] + 1)) for i in bridged_idx]
@@ -713,6 +729,23 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                 "target": sheet_ref(sheet_name, target_ref),
                 "nodes": (node0, nodeN), "interfaces": (first_if, last_if)},
     )
+
+
+def _pick(names, idx: int) -> str:
+    if names is None or idx >= len(names):
+        return ""
+    return str(names[idx] or "")
+
+
+def _material_link(refs, name: str, conductivity) -> str:
+    """Reference of the material's λ cell when the layer uses exactly that value."""
+    if not refs or not name or conductivity is None:
+        return ""
+    hit = refs.get(name.strip().lower())
+    if hit is None:
+        return ""
+    ref, lam = hit
+    return ref if float(lam) == float(conductivity) else ""
 
 
 def _product(lists):
