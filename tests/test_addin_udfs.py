@@ -256,9 +256,10 @@ def test_declared_resistance_and_air_keywords():
 
 
 @pytest.mark.parametrize(("table", "fragment"), [
-    ([["a", 10, 1], ["b", 20, 1], ["c", 0, 1]], "layers row 3 thickness_mm must be greater "
-                                                "than 0"),
-    ([["a", 10, 1], ["b", -4, 1]], "layers row 2 thickness_mm must be greater than 0"),
+    ([["a", 10, 1], ["b", 20, 1], ["c", 0, 1]], "layers row 3 thickness_mm must be at least "
+                                                "0.001 mm; got 0"),
+    ([["a", 10, 1], ["b", -4, 1]], "layers row 2 thickness_mm must be at least 0.001 mm; "
+                                   "got -4"),
     ([["a", "ten", 1]], "layers row 1 thickness_mm must be a number in mm; got 'ten'"),
     ([["a", 10, "#N/A"]], "layers row 1 conductivity holds the error #N/A"),
     ([["a", 10, True]], "layers row 1 conductivity must be a number"),

@@ -21,6 +21,7 @@ import sys
 from types import SimpleNamespace
 
 import pytest
+
 from heatledger.constructions import AirLayer, Construction, Layer
 from heatledger.materials import default_library
 

@@ -21,8 +21,8 @@ col  heading (suggested)     unit                    rule
                                                      ``air:slightly:<Av mm2>`` = slightly
                                                      ventilated. Blank: layer is called
                                                      ``layer <n>``.
-2    thickness               mm                      Required, 0 < d <= 10000 mm (air layers
-                                                     at most 300 mm).
+2    thickness               mm                      Required, 0.001 <= d <= 10000 mm (air
+                                                     layers at most 300 mm).
 3    conductivity            W/(m K)                 Optional. Blank: taken from the library
                                                      material named in column 1.
 4    declared resistance     m2 K/W                  Optional, instead of a conductivity (give
@@ -83,6 +83,8 @@ LAYER_COLUMNS = ("material", "thickness_mm", "conductivity", "resistance",
 MAX_LAYERS = 100
 #: Largest layer thickness accepted. [mm]
 MAX_THICKNESS_MM = 10_000.0
+#: Smallest layer thickness accepted (a thin film is about 0.1 mm). [mm]
+MIN_THICKNESS_MM = 0.001
 #: Spreadsheet error values as they arrive as text (xlwings ``err_to_str``).
 ERROR_VALUES = frozenset({"#N/A", "#VALUE!", "#REF!", "#DIV/0!", "#NUM!", "#NAME?",
                           "#NULL!", "#SPILL!", "#CALC!", "#GETTING_DATA", "#FIELD!",
@@ -170,11 +172,25 @@ def number(name: str, value: object, default: object = REQUIRED, *, low: float |
     -------
     float
     """
+    kind = type(value)
+    if kind is float or kind is int:  # the common case: a number cell (fast path)
+        out = float(value) if kind is float or -2**53 < value < 2**53 else _number_slow(
+            name, value, unit)
+        return _bounded(name, value, out, low, high, low_inclusive, unit)
+    if value is None:
+        if isinstance(default, Required):
+            raise HeatLedgerError(f"{name} is blank; give a number{_in(unit)}")
+        return default  # type: ignore[return-value]
     value = _unwrap_single(name, value)
     if _is_blank(value):
         if isinstance(default, Required):
             raise HeatLedgerError(f"{name} is blank; give a number{_in(unit)}")
         return default  # type: ignore[return-value]
+    return _bounded(name, value, _number_slow(name, value, unit), low, high, low_inclusive,
+                    unit)
+
+
+def _number_slow(name: str, value: object, unit: str) -> float:
     if isinstance(value, bool) or not isinstance(value, (Real, str)):
         raise HeatLedgerError(f"{name} must be a number{_in(unit)}; got {_describe(value)}")
     if isinstance(value, str):
@@ -193,6 +209,11 @@ def number(name: str, value: object, default: object = REQUIRED, *, low: float |
         except (OverflowError, ValueError):
             raise HeatLedgerError(f"{name} must be a finite number; got "
                                   f"{_describe(value)}") from None
+    return out
+
+
+def _bounded(name: str, value: object, out: float, low, high, low_inclusive: bool,
+             unit: str) -> float:
     if not math.isfinite(out):
         raise HeatLedgerError(f"{name} must be a finite number; got {_describe(value)}")
     if low is not None:
@@ -417,8 +438,8 @@ def _layer(name: str, row: int, cells: tuple):
     where = f"{name} row {row}"
     c_name, c_thick, c_cond, c_res, c_frac, c_bcond = cells
     label = text(f"{where} material", c_name, "")
-    thickness_mm = number(f"{where} thickness_mm", c_thick, low=0.0, high=MAX_THICKNESS_MM,
-                          unit="mm")
+    thickness_mm = number(f"{where} thickness_mm", c_thick, low=MIN_THICKNESS_MM,
+                          low_inclusive=True, high=MAX_THICKNESS_MM, unit="mm")
     thickness = thickness_mm / 1000.0
     cond = number(f"{where} conductivity", c_cond, None, low=0.0, high=1.0e4,
                   unit="W/(m K)")

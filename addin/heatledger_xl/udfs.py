@@ -32,6 +32,7 @@ from heatledger.surfaces import surface_resistance, surface_resistance_calc
 
 from .ranges import (
     LIBRARY,
+    MIN_THICKNESS_MM,
     build_construction,
     flag,
     heat_flow_value,
@@ -196,7 +197,8 @@ def HL_RAIR(thickness_mm, heat_flow=None, emissivity_1=None, emissivity_2=None,
             temp_mean=None):
     """Thermal resistance Rg of an unventilated air layer (EN ISO 6946:2017 Annex D, Table 8
     for emissivity 0.9). [m2 K/W]"""
-    d = number("thickness_mm", thickness_mm, low=0.0, high=300.0, unit="mm")
+    d = number("thickness_mm", thickness_mm, low=MIN_THICKNESS_MM, low_inclusive=True,
+               high=300.0, unit="mm")
     e1 = number("emissivity_1", emissivity_1, 0.9, low=0.0, high=1.0)
     e2 = number("emissivity_2", emissivity_2, 0.9, low=0.0, high=1.0)
     t_m = number("temp_mean", temp_mean, 10.0, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
