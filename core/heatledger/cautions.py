@@ -6,7 +6,7 @@ name so that every output shows the same wording.
 
 from __future__ import annotations
 
-__all__ = ["CAUTIONS", "caution_lines"]
+__all__ = ["CAUTIONS", "ON_REQUEST", "caution_lines"]
 
 CAUTIONS: dict[str, str] = {
     "general": (
@@ -21,11 +21,23 @@ CAUTIONS: dict[str, str] = {
         "Surface and interface temperatures inform condensation and mould-risk checks; they "
         "are not by themselves a condensation or mould assessment (see EN ISO 13788)."
     ),
+    "hot_surfaces": (
+        "Fins and finned surfaces (heat sinks, finned tubes, heater fins) can be hot to the "
+        "touch: a fin shedding heat is hottest at its base (unless its tip is held hotter). "
+        "Check accessible surface temperatures against the touch limits that apply (for example "
+        "EN ISO 13732-1, hot surfaces and contact burns; standard number from memory) and "
+        "guard or insulate where they are exceeded."
+    ),
 }
+
+#: Topics shown only where they apply (named explicitly), not in the default list:
+#: ``hot_surfaces`` when a project has fins.
+ON_REQUEST = ("hot_surfaces",)
 
 
 def caution_lines(*topics: str) -> list[str]:
-    """The caution texts for ``topics`` (all when none are named), in a stable order.
+    """The caution texts for ``topics`` (when none are named, all except those in
+    :data:`ON_REQUEST`), in a stable order.
 
     Parameters
     ----------
@@ -36,5 +48,5 @@ def caution_lines(*topics: str) -> list[str]:
     -------
     list of str
     """
-    keys = topics or tuple(CAUTIONS)
+    keys = topics or tuple(k for k in CAUTIONS if k not in ON_REQUEST)
     return [CAUTIONS[k] for k in keys if k in CAUTIONS]
