@@ -102,6 +102,7 @@ COLUMNS = {
 TEMPLATE_SHEETS = ("Instructions", "Project", "Materials", "Constructions", "Layers",
                    "Corrections", "Lists")
 VENTILATION = ("unventilated", "slightly", "well")
+_SHORT = ("kind", "heat_flow", "ventilation", "edition", "application")
 _WIDTHS = {"text": 26, "number": 14, "int": 12, "ref": 22}
 
 
@@ -171,8 +172,9 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
              "ventilation": sheet_ref("Lists", f"D2:D{len(VENTILATION) + 1}"),
              "correction": sheet_ref("Lists", f"E2:E{len(CORRECTION_KINDS) + 1}")}
     for name, cols in COLUMNS.items():
-        widths = {col_letter(j): max(_WIDTHS[kind], min(len(head) + 2, 30))
-                  for j, (_key, head, kind) in enumerate(cols, 1)}
+        widths = {col_letter(j): (13 if key in _SHORT else
+                                  max(_WIDTHS[kind], min(len(head) + 2, 30)))
+                  for j, (key, head, kind) in enumerate(cols, 1)}
         sh = plan.add_sheet(name, column_widths=widths, freeze=f"B{HEADER_ROW + 1}",
                             print_setup=_print(name, "landscape"))
         b = sh.block("data")
