@@ -148,3 +148,9 @@ def stale_value() -> float:
 def poison():
     """``poison(path) -> count``: plant :data:`STALE_VALUE` as every formula's cached value."""
     return poison_cached_values
+
+
+@pytest.fixture
+def require_soffice():
+    """The check the ``calc`` tests run first: skip (or fail in CI) without LibreOffice."""
+    return _require_soffice

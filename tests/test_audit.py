@@ -64,6 +64,18 @@ def variety_data() -> dict:
                  {"kind": "air_gaps", "layer": "battens 2", "level": 2}]},
             {"name": "F3 one-layer slab", "heat_flow": "down", "nodes_per_layer": 5,
              "layers": [{"name": "slab", "conductivity": 1.6, "thickness_mm": 200}]},
+            {"name": "P4 declared panel, one cell", "heat_flow": "horizontal",
+             "nodes_per_layer": 1,
+             "layers": [{"name": "panel", "kind": "declared", "resistance": 2.0,
+                         "thickness_mm": 50}]},
+            {"name": "W5 rain screen, Rse given", "heat_flow": "horizontal", "rse": 0.13,
+             "layers": [
+                 {"name": "block", "material": "concrete medium density 1800",
+                  "thickness_mm": 140},
+                 {"name": "insulation", "material": "pir board 022", "thickness_mm": 80},
+                 {"name": "vented cavity", "kind": "air", "ventilation": "well",
+                  "thickness_mm": 30},
+                 {"name": "cladding", "material": "softwood 500", "thickness_mm": 18}]},
         ],
     }
 

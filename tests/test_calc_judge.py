@@ -12,8 +12,6 @@ import pytest
 from heatledger.sheet import render_openpyxl as rend
 from heatledger.sheet.plan import WorkbookPlan
 
-pytestmark = pytest.mark.calc
-
 HOSTILE_TEXT = ["=1+1", "+2", "-3 mm render", "@SUM(A1)", "=A1*1000"]
 
 
@@ -34,6 +32,7 @@ def judge_plan() -> WorkbookPlan:
     return plan
 
 
+@pytest.mark.calc
 def test_sentinel_stale_values_are_recomputed(tmp_path, recalc, stale_value):
     path = rend.write_workbook(judge_plan(), tmp_path / "judge.xlsx")
     out = recalc(path)
@@ -55,6 +54,7 @@ def test_without_recalculation_the_stale_value_would_show(tmp_path, stale_value,
     assert ws["B1"].value == stale_value
 
 
+@pytest.mark.calc
 def test_text_stays_text_in_libreoffice(tmp_path, recalc):
     path = rend.write_workbook(judge_plan(), tmp_path / "judge.xlsx")
     out = recalc(path)
@@ -65,3 +65,13 @@ def test_text_stays_text_in_libreoffice(tmp_path, recalc):
     for i in range(1, len(HOSTILE_TEXT) + 1):
         assert ws_f[f"C{i}"].data_type == "s"
     assert ws_f["B1"].data_type == "f"
+
+
+@pytest.mark.parametrize("ci, outcome", [("true", "fail"), ("", "skip")])
+def test_missing_libreoffice_skips_locally_and_fails_in_ci(monkeypatch, require_soffice, ci,
+                                                           outcome):
+    monkeypatch.setattr("shutil.which", lambda name: None)
+    monkeypatch.setenv("CI", ci)
+    expected = pytest.fail.Exception if outcome == "fail" else pytest.skip.Exception
+    with pytest.raises(expected, match="libreoffice-calc-nogui"):
+        require_soffice()
