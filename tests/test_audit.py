@@ -193,6 +193,7 @@ def test_user_text_stays_text(tmp_path, recalc):
     data["project"].update(HOSTILE)
     data["constructions"][2]["name"] = "=2+3 slab"
     data["constructions"][2]["layers"][0]["name"] = "-slab @ level 0"
+    data["constructions"][0]["name"] = "O'Neill's [north] wall: a/b? *draft*"
     project = project_from_dict(data)
     plan, wb = _recalculated(project, tmp_path, recalc)
     cover = {r[0]: r[1] for r in wb["Cover"].iter_rows(min_col=2, max_col=3, values_only=True)}
@@ -208,7 +209,11 @@ def test_user_text_stays_text(tmp_path, recalc):
     layer_names = [r[0] for r in wb[refs.sheet].iter_rows(min_col=2, max_col=2,
                                                           values_only=True)]
     assert "-slab @ level 0" in layer_names
+    odd = plan.index["O'Neill's [north] wall: a/b? *draft*"]
+    assert odd.sheet.startswith("01 O'Neill's north wall a b")
+    assert len(odd.sheet) <= 31 and not set(odd.sheet) & set("[]:*?/\\")
     _assert_all_checks_ok(plan, wb)
+    _assert_equals_engine(project, plan, wb)
 
 
 def test_audit_bytes_are_deterministic(demo):
