@@ -102,6 +102,11 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
         if progress is not None:
             progress(i, total, entry.name)
     summary_cells = _summary(summary, project, refs)
+    if getattr(project, "fins", None):  # fins sheets only when the project has fins
+        from .blocks_fins import add_fin_sheets
+
+        summary_cells = add_fin_sheets(plan, project, summary_cells, tolerance=tolerance,
+                                       project_name=title)
     _cover(cover, project, summary_cells, tolerance)
     return plan
 
@@ -337,7 +342,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     b.put(f"B{r}", "Methods and standards applied", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
-    for text in METHODS:
+    for text in METHODS + _fin_topics(project)[0]:
         b.put(f"B{r}", "•")
         b.put(f"C{r}", text, style="hl paragraph")
         sheet.row_heights[r] = _height(text)
@@ -346,7 +351,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     b.put(f"B{r}", "Cautions", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
-    for text in _cautions.caution_lines():
+    for text in _cautions.caution_lines() + _fin_topics(project)[1]:
         b.put(f"B{r}", "!")
         b.put(f"C{r}", text, style="hl warning")
         sheet.row_heights[r] = _height(text, 70)
@@ -376,3 +381,12 @@ def _col(j: int) -> str:
     from .plan import col_letter
 
     return col_letter(j)
+
+
+def _fin_topics(project) -> tuple[tuple, list]:
+    """Methods and cautions the cover adds when the project has fins."""
+    if not getattr(project, "fins", None):
+        return (), []
+    from .blocks_fins import FIN_METHODS
+
+    return FIN_METHODS, _cautions.caution_lines("hot_surfaces")

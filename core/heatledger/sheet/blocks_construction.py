@@ -566,6 +566,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
 
     # ---- ladder temperatures -------------------------------------------------------------
     w.row += 1
+    sheet.row_breaks.append(w.row)  # temperatures and their chart start a printed page
     w.start("interfaces", "Temperatures at the surfaces and layer interfaces (resistance "
                           "ladder, no corrections)")
     w.headers(["", "Position", "", "", "x [mm]", "", "θ [degC]", "", "", "", "Engine θ",
@@ -602,10 +603,9 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                 fmt="0.0000", note="plane element; a mould check uses Rsi = 0.25 (ISO 13788)")
 
     # ---- chart placeholder rows ----------------------------------------------------------
-    sheet.row_breaks.append(w.row)
     chart_row = w.row + 1
     w.row += 21
-    sheet.row_breaks.append(w.row)
+    sheet.row_breaks.append(w.row)  # the nodal table starts a printed page
 
     # ---- finite-volume nodal table -------------------------------------------------------
     w.start("fv", "Finite-volume nodal temperatures (cell-centred, Patankar 1980 ch. 4)")
@@ -710,7 +710,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                      f"G{first_if}:G{last_if}"), sheet_ref(sheet_name, f"E{first_if}:E{last_if}"),
                      line=False, marker="diamond", color="C0504D")),
         x_title="position from the inside surface [mm]", y_title="temperature [degC]",
-        width_cm=22.0, height_cm=9.5))
+        width_cm=30.0, height_cm=10.5))
 
     # ---- sheet check count ---------------------------------------------------------------
     w.block = sheet.block("header")

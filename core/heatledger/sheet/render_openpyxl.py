@@ -20,6 +20,7 @@ from openpyxl import Workbook
 from openpyxl.cell.cell import ILLEGAL_CHARACTERS_RE, Cell, MergedCell
 from openpyxl.chart import BarChart, Reference, ScatterChart, Series
 from openpyxl.chart.marker import Marker
+from openpyxl.chart.shapes import GraphicalProperties
 from openpyxl.styles import Alignment, Border, Font, NamedStyle, PatternFill, Side
 from openpyxl.styles.cell_style import StyleArray
 from openpyxl.styles.numbers import BUILTIN_FORMATS_MAX_SIZE, BUILTIN_FORMATS_REVERSE
@@ -286,20 +287,21 @@ def _reference(wb: Workbook, text: str) -> Reference:
 
 def _chart(wb: Workbook, spec: Chart):
     if spec.kind == "scatter":
-        ch = ScatterChart()
+        ch = ScatterChart(scatterStyle="lineMarker")
         ch.style = 13
         for s in spec.series:
             xs = _reference(wb, s.categories) if s.categories else None
             ys = _reference(wb, s.values)
             ser = Series(ys, xs, title=s.title)
             if s.marker:
-                ser.marker = Marker(symbol=s.marker, size=6)
+                ser.marker = Marker(symbol=s.marker, size=5 if s.line else 8)
                 if s.color:
-                    ser.marker.graphicalProperties = None
+                    ser.marker.graphicalProperties = GraphicalProperties(solidFill=s.color)
+                    ser.marker.graphicalProperties.line.solidFill = s.color
             else:
                 ser.marker = Marker(symbol="none")
+            ser.smooth = False  # straight segments between nodes, never a spline
             if s.line:
-                ser.smooth = False
                 if s.color:
                     ser.graphicalProperties.line.solidFill = s.color
                 ser.graphicalProperties.line.width = 19050
