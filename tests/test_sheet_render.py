@@ -122,3 +122,30 @@ def test_print_setup_is_a4_fit_to_width(tmp_path):
     assert ws.sheet_properties.pageSetUpPr.fitToPage
     assert "&&" in ws.oddFooter.left.text  # a literal ampersand is escaped
     assert ws.freeze_panes == "A2"
+
+
+def test_plan_and_blocks_know_no_spreadsheet_library():
+    """The plan and the construction blocks are backend-neutral (DESIGN.md section 2)."""
+    import ast
+    from pathlib import Path
+
+    import heatledger.sheet as pkg
+
+    folder = Path(pkg.__file__).parent
+    for name in ("plan.py", "blocks_construction.py"):
+        tree = ast.parse((folder / name).read_text(encoding="utf-8"))
+        imported = {alias.name.split(".")[0] for node in ast.walk(tree)
+                    if isinstance(node, ast.Import) for alias in node.names}
+        imported |= {(node.module or "").split(".")[0] for node in ast.walk(tree)
+                     if isinstance(node, ast.ImportFrom) and node.level == 0}
+        assert not imported & {"openpyxl", "xlwings"}, (name, imported)
+    for path in folder.glob("*.py"):
+        assert "import xlwings" not in path.read_text(encoding="utf-8"), path.name
+
+
+def test_user_text_never_becomes_an_error_value(tmp_path):
+    plan = WorkbookPlan()
+    plan.add_sheet("S").block("b").put("A1", "#N/A")
+    path = rend.write_workbook(plan, tmp_path / "e.xlsx")
+    cell = openpyxl.load_workbook(path)["S"]["A1"]
+    assert cell.value == "#N/A" and cell.data_type == "s"

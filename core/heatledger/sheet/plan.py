@@ -16,6 +16,24 @@ walk it the same way:
   ``{date}`` which each renderer translates to its program's codes.
 
 The plan never imports a spreadsheet library.
+
+How a renderer walks a plan (the openpyxl renderer does exactly this; a renderer for a
+workbook open in a spreadsheet program follows the same steps):
+
+1. For each :class:`Sheet` in ``plan.sheets``: create the sheet ``sheet.name``.
+2. For each :class:`Cell` in ``sheet.cells()``: at ``cell.ref`` write ``cell.formula`` as a
+   formula when it is not None, else ``cell.value``. A text value for which
+   :func:`is_formula_like` is true must stay text (in a live workbook, prefix it with an
+   apostrophe; in a file, store it as a string). Apply ``STYLES[cell.style]`` (font, fill,
+   border, alignment) and ``cell.number_format or STYLES[cell.style].number_format``.
+3. ``sheet.merges`` (ranges), ``sheet.column_widths`` (characters), ``sheet.row_heights``
+   (points), ``sheet.freeze`` (top-left cell of the scrolling pane), ``sheet.validations``
+   (drop-down lists), ``sheet.charts`` (ranges as ``'Sheet'!$A$1:$A$9``),
+   ``sheet.print_setup`` and ``sheet.row_breaks``.
+4. ``plan.defined_names``: workbook-level names.
+
+Cells are written in the order of ``sheet.cells()``; no cell is written twice
+(:meth:`WorkbookPlan.validate`).
 """
 
 from __future__ import annotations
