@@ -159,3 +159,29 @@ def test_xml_entity_expansion_is_refused(tmp_path, filled):
             dst.writestr(info, body)
     with pytest.raises(HeatLedgerError, match="entities.xlsx"):
         tpl.project_from_template(path)
+
+
+def test_project_sheet_problems_are_named(filled):
+    ws = openpyxl.load_workbook(filled)["Project"]
+    row = next(r for r in range(4, 20) if ws[f"A{r}"].value == "temp_outside")
+    _edit(filled, {("Project", f"C{row}"): "minus seven", ("Project", "A20"): "colour"})
+    problems, _ = _problems(filled)
+    assert f"Project!C{row}" in problems and "number" in problems[f"Project!C{row}"]
+    assert "Project!A20" in problems and "unknown key" in problems["Project!A20"]
+
+
+def test_design_rule_from_the_project_is_mapped_to_its_cell(filled):
+    ws = openpyxl.load_workbook(filled)["Project"]
+    row = next(r for r in range(4, 20) if ws[f"A{r}"].value == "temp_outside")
+    _edit(filled, {("Project", f"C{row}"): 30.0})  # warmer outside than inside
+    problems, _ = _problems(filled)
+    assert f"Project!C{row}" in problems
+
+
+def test_material_lists_warn_but_allow_own_materials(tmp_path):
+    path = write_workbook(tpl.template_plan(), tmp_path / "t.xlsx")
+    rules = openpyxl.load_workbook(path)["Layers"].data_validations.dataValidation
+    styles = {r.formula1: r.errorStyle for r in rules}
+    n = len(tpl.default_library().names())
+    assert styles[f"'Lists'!$A$2:$A${n + 1}"] == "warning"
+    assert styles["'Lists'!$C$2:$C$5"] == "stop"
