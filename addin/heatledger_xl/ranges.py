@@ -384,7 +384,8 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
 
 
 def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
-                       rse: float | None, *, name: str = "layers") -> Construction:
+                       rse: float | None, *, name: str = "layers",
+                       label: str = "") -> Construction:
     """A :class:`heatledger.Construction` from parsed layer rows.
 
     Parameters
@@ -397,6 +398,8 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
         Surface resistances; None for the ISO 6946 Table 7 values. [m2 K/W]
     name : str
         Argument name used in messages. [-]
+    label : str
+        Name of the construction. [-]
 
     Returns
     -------
@@ -404,7 +407,7 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
     """
     layers = [_layer(name, i, cells) for i, cells in rows]
     try:
-        return Construction(layers, heat_flow, rsi=rsi, rse=rse)
+        return Construction(layers, heat_flow, rsi=rsi, rse=rse, name=label)
     except HeatLedgerError as exc:
         msg = str(exc)
         for head in ("construction: ", "construction "):
