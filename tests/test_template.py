@@ -185,3 +185,9 @@ def test_material_lists_warn_but_allow_own_materials(tmp_path):
     n = len(tpl.default_library().names())
     assert styles[f"'Lists'!$A$2:$A${n + 1}"] == "warning"
     assert styles["'Lists'!$C$2:$C$5"] == "stop"
+
+
+def test_reader_refuses_to_run_without_defusedxml(filled, monkeypatch):
+    monkeypatch.setattr("openpyxl.xml.DEFUSEDXML", False)
+    with pytest.raises(HeatLedgerError, match="defusedxml"):
+        tpl.project_from_template(filled)

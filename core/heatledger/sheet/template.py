@@ -329,6 +329,11 @@ def project_from_template(path) -> Project:
 def _read(p: Path):
     import openpyxl
     from openpyxl.utils.exceptions import InvalidFileException
+    from openpyxl.xml import DEFUSEDXML
+
+    if not DEFUSEDXML:
+        raise HeatLedgerError("reading a workbook needs defusedxml (protection against "
+                              "malicious XML); install it with: pip install defusedxml")
 
     try:
         size = p.stat().st_size
