@@ -58,12 +58,13 @@ FV_COLUMNS = [
     "Node", "Layer", "w [m]", "k [W/(m K)]", "x [mm]", "G east [W/(m2 K)]", "a_W [W/(m2 K)]",
     "a_E [W/(m2 K)]", "a_P [W/(m2 K)]", "b [W/m2]", "P [-]", "Q [degC]", "T [degC]",
     "Engine a_W", "Engine a_E", "Engine a_P", "Engine b", "Engine T [degC]",
-    "Check coefficients", "Check T",
+    "Engine x [mm]", "Check x and coefficients", "Check T",
 ]
 #: Rows 1 to HEADER_ROWS hold the title, the design data and the sheet's check count.
 HEADER_ROWS = 10
 #: Width of every column of a construction sheet (A, B, ...), in characters.
-COLUMN_WIDTHS = [5, 30, 11, 22, 10, 11, 11, 11, 11, 11, 12, 11, 11, 11, 11, 11, 11, 12, 12, 10]
+COLUMN_WIDTHS = [5, 30, 11, 22, 10, 11, 11, 11, 11, 11, 12, 11, 11, 11, 11, 11, 11, 12, 11,
+                 13, 10]
 
 
 @dataclass
@@ -662,17 +663,20 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
             w.put(11, formula=f"=H{rr}/{den}", fmt="0.000000")
             w.put(12, formula=f"=(J{rr}+G{rr}*L{rr - 1})/{den}", fmt="0.000000")
         w.put(13, formula=f"=L{rr}" if last else f"=K{rr}*M{rr + 1}+L{rr}", fmt=FMT_T)
-        for col, arr in zip((14, 15, 16, 17, 18),
-                            (fv.a_west, fv.a_east, fv.a_centre, fv.b, fv.temperature),
+        for col, arr in zip((14, 15, 16, 17, 18, 19),
+                            (fv.a_west, fv.a_east, fv.a_centre, fv.b, fv.temperature,
+                             fv.x * 1000.0),
                             strict=True):
-            w.put(col, float(arr[i]), role="engine", fmt=FMT_T if col == 18 else FMT_COEF)
+            w.put(col, float(arr[i]), role="engine",
+                  fmt={18: FMT_T, 19: "0.00"}.get(col, FMT_COEF))
         t = w.tol
         conds = ",".join(f"ABS({a}{rr}-{e}{rr})<={t}*MAX(1,ABS({e}{rr}))"
-                         for a, e in (("G", "N"), ("H", "O"), ("I", "P"), ("J", "Q")))
+                         for a, e in (("G", "N"), ("H", "O"), ("I", "P"), ("J", "Q"),
+                                      ("E", "S")))
         w.checks += 1
-        w.put(19, formula=f'=IF(AND({conds}),"OK","MISMATCH: a coefficient differs")',
+        w.put(20, formula=f'=IF(AND({conds}),"OK","MISMATCH: x or a coefficient differs")',
               role="check")
-        w.check(20, f"M{rr}", f"R{rr}")
+        w.check(21, f"M{rr}", f"R{rr}")
         w.row += 1
     w.row += 1
     w.value_row("heat flux through the inside surface q = G_i (θi − T_1) [W/m2]",
@@ -716,7 +720,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     w.block = sheet.block("header")
     w.put(10, w.checks, role="engine", fmt="0", row=int(count_cell[1:]))
     # the count starts below the header so that it never includes itself
-    w.put(10, formula=f'=COUNTIF(A{HEADER_ROWS + 1}:T{last_row},"OK")', fmt="0",
+    w.put(10, formula=f'=COUNTIF(A{HEADER_ROWS + 1}:U{last_row},"OK")', fmt="0",
           row=int(ok_ref[1:]))
     w.put(10, formula=f'=IF({ok_ref}={count_cell},"ALL CHECKS OK","NOT ALL OK")',
           style="hl check", role="formula", row=int(state_cell[1:]))
