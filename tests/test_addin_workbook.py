@@ -1,0 +1,127 @@
+"""The ready demo workbook (workbooks/heatledger_functions_demo.xlsx).
+
+- it is exactly what ``python -m heatledger_xl.workbook`` generates (no drift);
+- its ``xlwings.conf`` sheet has the sheet name and key spelling classic xlwings reads
+  (the VBA of the xlwings add-in reads sheet ``xlwings.conf`` from A1 down, keys
+  upper-cased, and asks for ``UDF MODULES``);
+- every formula calls registered functions with a valid number of arguments, and,
+  evaluated here by calling the Python functions on the referenced cells, gives the value
+  written beside it (so the check cells will say OK once the functions are imported).
+"""
+
+from __future__ import annotations
+
+import io
+import re
+from pathlib import Path
+
+import openpyxl
+import pytest
+from openpyxl.worksheet.formula import ArrayFormula
+
+from heatledger_xl import udfs, workbook
+from heatledger_xl.registry import REGISTRY
+
+COMMITTED = Path(__file__).resolve().parents[1] / "workbooks" / workbook.FILE_NAME
+CALL = re.compile(r"^=(HL_[A-Z_]+)\((.*)\)$")
+rtol_written = 1e-15  # the file stores numbers to 16 significant digits
+
+
+def load():
+    return openpyxl.load_workbook(io.BytesIO(workbook.workbook_bytes()))
+
+
+def test_committed_workbook_has_not_drifted():
+    assert COMMITTED.exists(), "run `python -m heatledger_xl.workbook workbooks --force`"
+    assert COMMITTED.read_bytes() == workbook.workbook_bytes(), (
+        "workbooks/ is out of date: run `python -m heatledger_xl.workbook workbooks --force`")
+    assert workbook.workbook_bytes() == workbook.workbook_bytes()
+
+
+def test_xlwings_conf_sheet_names_the_function_module():
+    wb = load()
+    conf = wb["xlwings.conf"]
+    assert conf["A1"].value.upper() == "UDF MODULES"  # what the add-in's VBA asks for
+    assert conf["B1"].value == "heatledger_xl.udfs"
+    assert conf["A2"].value is None  # settings end at the first blank row
+
+
+def _split_args(text: str) -> list[str]:
+    out, depth, cur, quoted = [], 0, "", False
+    for ch in text:
+        if ch == '"':
+            quoted = not quoted
+        if ch == "," and depth == 0 and not quoted:
+            out.append(cur)
+            cur = ""
+            continue
+        depth += ch == "("
+        depth -= ch == ")"
+        cur += ch
+    out.append(cur)
+    return out
+
+
+def _argument(ws, text: str):
+    text = text.strip()
+    if text == "":
+        return None
+    if text.startswith('"'):
+        return text.strip('"')
+    if text.upper() in ("TRUE", "FALSE"):
+        return text.upper() == "TRUE"
+    if re.fullmatch(r"[-+0-9.E]+", text):
+        return float(text)
+    ref = text.replace("$", "")
+    if ":" in ref:
+        return [[c.value for c in row] for row in ws[ref]]
+    return ws[ref].value
+
+
+def evaluate(ws, formula: str):
+    m = CALL.match(formula)
+    assert m, formula
+    name, body = m.groups()
+    spec = REGISTRY[name]
+    args = [_argument(ws, a) for a in _split_args(body)] if body else []
+    assert sum(not a.optional for a in spec.args) <= len(args) <= len(spec.args), formula
+    return getattr(udfs, name)(*args)
+
+
+def test_every_function_cell_gives_the_value_written_beside_it():
+    ws = load()[workbook.SHEET]
+    checked = 0
+    for row in range(23, 23 + len(workbook._single_results())):
+        formula = ws[f"C{row}"].value
+        got = evaluate(ws, formula)
+        want = ws[f"D{row}"].value
+        assert not (isinstance(got, str) and got.startswith("HL_")), got
+        if isinstance(want, float):
+            assert got == pytest.approx(want, rel=rtol_written), formula
+        else:
+            assert got == want, formula
+        assert ws[f"E{row}"].value.startswith("=IF(")
+        checked += 1
+    assert checked >= 10
+
+
+def test_spilled_tables_are_array_formulas_of_the_right_size():
+    ws = load()[workbook.SHEET]
+    names = set()
+    for top, ref, formula in workbook._spills():
+        cell = ws[top].value
+        assert isinstance(cell, ArrayFormula) and cell.ref == ref and cell.text == formula
+        value = evaluate(ws, formula)
+        (r1, c1), (r2, c2) = [openpyxl.utils.cell.coordinate_to_tuple(p) for p in
+                              ref.split(":")]
+        assert (len(value), len(value[0])) == (r2 - r1 + 1, c2 - c1 + 1)
+        names.add(CALL.match(formula).group(1))
+    assert names == {"HL_TINTERFACES", "HL_TNODES", "HL_LAYERS", "HL_RLIMITS"}
+
+
+def test_macro_names_point_at_the_demo_inputs():
+    wb = load()
+    names = {n: wb.defined_names[n].attr_text for n in wb.defined_names}
+    assert names["hl_layers"] == f"'{workbook.SHEET}'!$B$6:$G$12"
+    assert names["hl_temp_inside"].endswith("$C$15")
+    assert names["hl_temp_outside"].endswith("$C$16")
