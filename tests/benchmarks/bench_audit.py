@@ -30,7 +30,8 @@ def generated_project(n: int):
     """An invented project of ``n`` constructions derived from the demo's."""
     raw = demo_project().raw
     base = raw["constructions"]
-    data = copy.deepcopy(raw)
+    data = {k: copy.deepcopy(v) for k, v in raw.items()
+            if k in ("project", "design", "materials")}  # constructions only, no rooms
     data["constructions"] = []
     for i in range(n):
         con = copy.deepcopy(base[i % len(base)])
