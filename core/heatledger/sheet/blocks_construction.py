@@ -152,7 +152,7 @@ class _Rows:
     def headers(self, names, first_col: int = 1) -> None:
         for i, name in enumerate(names):
             self.put(first_col + i, name, role="header")
-        self.sheet.row_heights[self.row] = 27.0
+        self.sheet.row_heights[self.row] = 32.0
         self.row += 1
 
 
