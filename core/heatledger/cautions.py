@@ -28,11 +28,16 @@ CAUTIONS: dict[str, str] = {
         "EN ISO 13732-1, hot surfaces and contact burns; standard number from memory) and "
         "guard or insulate where they are exceeded."
     ),
+    "plant_sizing": (
+        "The design heat load supports, and does not replace, the sizing of heating plant "
+        "and emitters under the local code by a competent person: check design temperatures, "
+        "air flows, adjustment factors and allowances against the rules that apply."
+    ),
 }
 
 #: Topics shown only where they apply (named explicitly), not in the default list:
-#: ``hot_surfaces`` when a project has fins.
-ON_REQUEST = ("hot_surfaces",)
+#: ``hot_surfaces`` when a project has fins, ``plant_sizing`` when it has rooms.
+ON_REQUEST = ("hot_surfaces", "plant_sizing")
 
 
 def caution_lines(*topics: str) -> list[str]:
