@@ -57,7 +57,8 @@ LAYER_COLUMNS = [
 FV_COLUMNS = [
     "Node", "Layer", "w [m]", "k [W/(m K)]", "x [mm]", "G east [W/(m2 K)]", "a_W [W/(m2 K)]",
     "a_E [W/(m2 K)]", "a_P [W/(m2 K)]", "b [W/m2]", "P [-]", "Q [degC]", "T [degC]",
-    "Engine a_W", "Engine a_E", "Engine a_P", "Engine b", "Engine T [degC]",
+    "Engine a_W [W/(m2 K)]", "Engine a_E [W/(m2 K)]", "Engine a_P [W/(m2 K)]",
+    "Engine b [W/m2]", "Engine T [degC]",
     "Engine x [mm]", "Check x and coefficients", "Check T",
 ]
 #: Rows 1 to HEADER_ROWS hold the title, the design data and the sheet's check count.
@@ -416,7 +417,8 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
             formula=f"={rsi}+{rse_used_ref}" + "".join(f"+{c}" for c in base_cells),
             engine=base_engine)
         w.headers(["No.", "Section: parts (one per bridged layer)", "", "", "", "", "f [-]",
-                   "R_T,q [m2 K/W]", "f/R_T,q [W/(m2 K)]", "", "Engine R_T,q", "Check"])
+                   "R_T,q [m2 K/W]", "f/R_T,q [W/(m2 K)]", "", "Engine R_T,q [m2 K/W]",
+                   "Check"])
         first_sec = w.row
         part_lists = [list(range(parts_at[i][0], parts_at[i][1] + 1)) for i in bridged_idx]
         combos = _product(part_lists)
@@ -570,7 +572,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     sheet.row_breaks.append(w.row)  # temperatures and their chart start a printed page
     w.start("interfaces", "Temperatures at the surfaces and layer interfaces (resistance "
                           "ladder, no corrections)")
-    w.headers(["", "Position", "", "", "x [mm]", "", "θ [degC]", "", "", "", "Engine θ",
+    w.headers(["", "Position", "", "", "x [mm]", "", "θ [degC]", "", "", "", "Engine θ [degC]",
                "Check", "", "Rule / note"])
     q_ref = w.value_row("heat flux q = (θi − θe)/R_T [W/m2]",
                         formula=f"=({ti}-{te})/{r_total}",
