@@ -50,6 +50,7 @@ from dataclasses import dataclass, field
 from ..errors import HeatLedgerError
 from ..ground import (
     DEFAULT_SOIL_CONDUCTIVITY,
+    RSI_WALL,
     SOIL_TYPES,
     EdgeInsulation,
     ground_conductivity,
@@ -144,6 +145,10 @@ class GroundFloorU:
         Name of the construction that gave ``R_w`` of a basement, "" if declared. [-]
     soil : str
         How the ground conductivity was found. [-]
+    inputs : dict
+        The inputs of the calculation by short name (``w`` [m], ``rf``, ``rw``, ``rg``
+        [m2 K/W], ``h`` [m], ``uw`` [W/(m2 K)], ``eps`` [m2/m], ``v`` [m/s], ``rsiw``
+        [m2 K/W]) for the calculation sheet. [-]
     """
 
     result: object
@@ -152,6 +157,7 @@ class GroundFloorU:
     construction: str = ""
     wall_construction: str = ""
     soil: str = ""
+    inputs: dict = field(default_factory=dict, compare=False)
 
     @property
     def u_value(self) -> float:
@@ -641,7 +647,8 @@ def _ground(method, row, where, label, area, ctx, problems):
             return None
         res = slab_on_ground(area, p, w, rf, soil_conductivity=lam, edge_insulation=edge,
                              exposed_outline=outline)
-        return GroundFloorU(res, method, float(area), cname, "", soil_text)
+        return GroundFloorU(res, method, float(area), cname, "", soil_text,
+                            {"w": w, "rf": rf})
     if method == "suspended_floor":
         rd, cname = _resistance(row, "construction", "deck_resistance", where, label, ctx,
                                 problems)
@@ -660,7 +667,10 @@ def _ground(method, row, where, label, area, ctx, problems):
             return None
         res = suspended_floor(area, p, w, rd, wind_shielding=str(shield),
                               soil_conductivity=lam, exposed_outline=outline, **kw)
-        return GroundFloorU(res, method, float(area), cname, "", soil_text)
+        return GroundFloorU(res, method, float(area), cname, "", soil_text,
+                            {"w": w, "rd": rd, "h": kw["underfloor_height"],
+                             "uw": kw["underfloor_wall_u"], "eps": kw["vent_area_per_perimeter"],
+                             "v": kw["wind_speed"], "rg": kw["ground_insulation_resistance"]})
     rf, cname = _resistance(row, "construction", "floor_resistance", where, label, ctx, problems)
     rw, wname = _resistance(row, "wall_construction", "wall_resistance", where, label, ctx,
                             problems)
@@ -669,7 +679,8 @@ def _ground(method, row, where, label, area, ctx, problems):
         return None
     res = heated_basement(area, p, w, rf, rw, z, soil_conductivity=lam,
                           exposed_outline=outline)
-    return GroundFloorU(res, method, float(area + z * p), cname, wname, soil_text)
+    return GroundFloorU(res, method, float(area + z * p), cname, wname, soil_text,
+                        {"w": w, "rf": rf, "rw": rw, "rsiw": RSI_WALL})
 
 
 def _edge(raw, where, label, problems):

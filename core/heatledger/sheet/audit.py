@@ -107,6 +107,15 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
 
         summary_cells = add_fin_sheets(plan, project, summary_cells, tolerance=tolerance,
                                        project_name=title)
+    building = getattr(project, "building", None)
+    if building is not None and getattr(building, "rooms", None):  # rooms: heat-loss sheets
+        from .blocks_heatloss import add_heatloss_sheets
+
+        hl = add_heatloss_sheets(plan, building, project_name=title, tolerance=tolerance,
+                                 construction_refs={r.name: r for r in refs})
+        plan.index["heat loss"] = hl
+        summary_cells = {"count": f"{summary_cells['count']}+{hl.check_count}",
+                         "ok": f"{summary_cells['ok']}+{hl.checks_ok}"}
     _cover(cover, project, summary_cells, tolerance)
     return plan
 
@@ -342,7 +351,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     b.put(f"B{r}", "Methods and standards applied", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
-    for text in METHODS + _fin_topics(project)[0]:
+    for text in METHODS + _fin_topics(project)[0] + _heatloss_topics(project)[0]:
         b.put(f"B{r}", "•")
         b.put(f"C{r}", text, style="hl paragraph")
         sheet.row_heights[r] = _height(text)
@@ -351,7 +360,8 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     b.put(f"B{r}", "Cautions", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
-    for text in _cautions.caution_lines() + _fin_topics(project)[1]:
+    for text in (_cautions.caution_lines() + _fin_topics(project)[1]
+                 + _heatloss_topics(project)[1]):
         b.put(f"B{r}", "!")
         b.put(f"C{r}", text, style="hl warning")
         sheet.row_heights[r] = _height(text, 70)
@@ -390,3 +400,13 @@ def _fin_topics(project) -> tuple[tuple, list]:
     from .blocks_fins import FIN_METHODS
 
     return FIN_METHODS, _cautions.caution_lines("hot_surfaces")
+
+
+def _heatloss_topics(project) -> tuple[tuple, list]:
+    """Methods and cautions the cover adds when the project has rooms."""
+    building = getattr(project, "building", None)
+    if building is None or not getattr(building, "rooms", None):
+        return (), []
+    from .blocks_heatloss import HEATLOSS_METHODS
+
+    return HEATLOSS_METHODS, _cautions.caution_lines("plant_sizing")
