@@ -125,7 +125,9 @@ def project_results(project: Project) -> dict:
         "source_sha256": project.sha256,
         "tool_version": __version__,
         "constructions": out,
-        "cautions": caution_lines(),
+        **_building_results(project),
+        "cautions": caution_lines() + (caution_lines("plant_sizing")
+                                       if getattr(project, "building", None) else []),
     }
 
 
@@ -160,9 +162,58 @@ def _print_table(results: dict, stream=None) -> None:
                 w(f"  sizing {sz['layer']}: {sz['message']}\n")
         for warning in c["warnings"]:
             w(f"  warning: {warning}\n")
+    if results.get("building"):
+        _print_building(dict(results["building"], rooms_table=results["rooms"]), w)
     w("\nCautions:\n")
     for line in results["cautions"]:
         w(f"  - {line}\n")
+
+
+def _building_results(project: Project) -> dict:
+    """Rooms and building heat loss as plain data (empty when the project has no rooms)."""
+    bi = getattr(project, "building", None)
+    if bi is None:
+        return {}
+    res = bi.heat_load()
+    per_room = bi.room_annual_energy()
+    rooms = [{"name": r.room, "temp_inside": r.internal_temperature,
+              "transmission_coefficient": r.transmission_coefficient,
+              "internal_exchange_coefficient": r.internal_exchange_coefficient,
+              "ventilation_coefficient": r.ventilation_coefficient,
+              "heat_loss_coefficient": r.heat_loss_coefficient,
+              "design_heat_load": r.design_heat_load, "reheat_allowance": r.reheat_allowance,
+              "annual_energy_kwh": per_room[r.room].energy if per_room else None,
+              "lines": [{"name": ln.name, "kind": ln.kind, "boundary": ln.boundary,
+                         "coefficient": ln.coefficient, "heat_flow": ln.heat_flow,
+                         "share": ln.share} for ln in r.lines]}
+             for r in res.rooms]
+    ann = bi.annual_energy()
+    return {"rooms": rooms, "building": {
+        "name": res.name, "temp_outside": res.external_temperature,
+        "transmission_coefficient": res.transmission_coefficient,
+        "ventilation_coefficient": res.ventilation_coefficient,
+        "heat_loss_coefficient": res.heat_loss_coefficient,
+        "design_heat_load": res.design_heat_load, "by_kind": dict(res.by_kind),
+        "degree_days": bi.degree_days, "degree_day_base": bi.base_temperature,
+        "annual_energy_kwh": None if ann is None else ann.energy}}
+
+
+def _print_building(b: dict, w) -> None:
+    rooms = b.get("rooms_table", [])
+    head = (f"{'room':<30} {'theta_i':>7} {'H_T W/K':>9} {'H_V W/K':>9} {'load W':>9} "
+            f"{'energy kWh/a':>12}")
+    w(f"\nHeat loss at theta_e {b['temp_outside']:g} degC (EN 12831-1 style)\n")
+    w(head + "\n" + "-" * len(head) + "\n")
+    for r in rooms:
+        e = "" if r["annual_energy_kwh"] is None else f"{r['annual_energy_kwh']:.0f}"
+        w(f"{r['name'][:30]:<30} {r['temp_inside']:>7.1f} {r['transmission_coefficient']:>9.2f} "
+          f"{r['ventilation_coefficient']:>9.2f} {r['design_heat_load']:>9.0f} {e:>12}\n")
+    e = "" if b["annual_energy_kwh"] is None else f"{b['annual_energy_kwh']:.0f}"
+    w(f"{('building ' + b['name'])[:30]:<30} {'':>7} {b['transmission_coefficient']:>9.2f} "
+      f"{b['ventilation_coefficient']:>9.2f} {b['design_heat_load']:>9.0f} {e:>12}\n")
+    if b["annual_energy_kwh"] is not None:
+        w(f"annual energy: Q = 24 H DD / 1000 with {b['degree_days']:g} K day on the base "
+          f"{b['degree_day_base']:g} degC\n")
 
 
 def _emit(results: dict, as_json: bool) -> None:
