@@ -191,3 +191,9 @@ def test_reader_refuses_to_run_without_defusedxml(filled, monkeypatch):
     monkeypatch.setattr("openpyxl.xml.DEFUSEDXML", False)
     with pytest.raises(HeatLedgerError, match="defusedxml"):
         tpl.project_from_template(filled)
+
+
+def test_too_many_rows_is_refused(filled, monkeypatch):
+    monkeypatch.setattr(tpl, "MAX_ROWS", 3)  # the demo has 19 layer rows
+    problems, _ = _problems(filled)
+    assert any(w.startswith("Layers!A") and "more than 3 rows" in m for w, m in problems.items())
