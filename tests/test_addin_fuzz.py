@@ -77,8 +77,26 @@ def clean_row(draw):
     return [draw(st.sampled_from(["air", "air:well", "air:slightly:900"])), d]
 
 
+@st.composite
+def clean_correction(draw):
+    kind = draw(st.sampled_from(["air_gaps", "fasteners", "inverted_roof"]))
+    layer = draw(st.integers(min_value=1, max_value=7))
+    if kind == "air_gaps":
+        return [kind, layer, draw(st.sampled_from([0, 1, 2]))]
+    if kind == "fasteners":
+        return [kind, layer, draw(st.one_of(st.floats(min_value=0.1, max_value=60),
+                                            st.just("stainless steel"))),
+                draw(st.floats(min_value=1, max_value=100)),
+                draw(st.floats(min_value=0, max_value=20)),
+                draw(st.one_of(st.none(), st.floats(min_value=1, max_value=400)))]
+    return [kind, layer, draw(st.floats(min_value=0, max_value=10)),
+            draw(st.floats(min_value=0, max_value=1)),
+            draw(st.one_of(st.none(), st.floats(min_value=0, max_value=0.1)))]
+
+
 opt = st.none
 PLAUSIBLE = {
+    "corrections": st.one_of(st.none(), st.lists(clean_correction(), max_size=3)),
     "layers": st.lists(clean_row(), min_size=1, max_size=7),
     "temp_inside": st.floats(min_value=-40, max_value=60),
     "temp_outside": st.floats(min_value=-40, max_value=60),
@@ -155,7 +173,8 @@ def test_every_optional_argument_given_an_error_value_or_text(name, bad):
     wall = [["gypsum plasterboard 900", 12.5], ["mineral wool 035", 100],
             ["block", 150, 1.35]]
     good = {"layers": wall, "temp_inside": 20.0, "temp_outside": -5.0, "layer_number": 2,
-            "target_u": 0.25, "side": "inside", "thickness_mm": 25.0, "material": "steel"}
+            "target_u": 0.25, "side": "inside", "thickness_mm": 25.0, "material": "steel",
+            "corrections": [["air_gaps", 2, 2]]}
     if name == "HL_RLIMITS":
         good["layers"] = wall + [["frame", 90, 0.035, None, 0.1, "softwood 500"]]
     base = [good.get(a.name) for a in spec.args]

@@ -88,6 +88,8 @@ def test_optional_arguments_come_last_and_share_one_order():
         assert flags == sorted(flags), name  # all required before all optional
         if "temp_inside" in names:
             assert names[:6] == temps, name
+        elif "corrections" in names:
+            assert names[:5] == ["layers", "corrections", "heat_flow", "rsi", "rse"], name
         elif names[:1] == ["layers"] and name != "HL_THICKNESS":
             assert names[:4] == common, name
         if "header" in names:
@@ -329,3 +331,57 @@ def test_identical_calls_reuse_the_cached_construction():
 def test_heat_flow_direction_changes_air_layer_and_surfaces():
     up = udfs.HL_RTOTAL(WALL, "UP ")
     assert math.isfinite(up) and up != udfs.HL_RTOTAL(WALL)
+
+
+# --------------------------------------------------------------------------- corrections
+CORR_WALL = [["gypsum plasterboard 900", 12.5], ["mineral wool 035", 100],
+             ["block", 150, 1.35], ["brick", 102, 0.77]]  # invented
+
+
+def test_corrections_against_the_annex_f_equations():
+    r_ins = 0.1 / LAMBDA_MW_035
+    r_t = RSI_H + 0.0125 / LAMBDA_GYPSUM_900 + r_ins + 0.15 / 1.35 + 0.102 / 0.77 + RSE
+    # source: EN ISO 6946:2017, F.2: Delta U_g = Delta U'' (R_1/R_T)^2, Delta U'' = 0.01 at
+    # level 1 [from memory]
+    du_gaps = 0.01 * (r_ins / r_t) ** 2
+    # source: EN ISO 6946:2017, F.3 (2017 form): Delta U_f = 0.8 lambda_f A_f n_f / d_0
+    # (R_1/R_T)^2 for fasteners through the layer [from memory]; stainless steel 17 W/(m K)
+    du_fix = 0.8 * 17.0 * 12.6e-6 * 4 / 0.1 * (r_ins / r_t) ** 2
+    table = [["kind", "layer", "level / conductivity", "cross section [mm2]", "count"],
+             ["air_gaps", 2, 1], ["fasteners", "mineral wool 035", "stainless steel", 12.6, 4]]
+    rows = udfs.HL_CORRECTIONS(CORR_WALL, table)
+    rtol = 1e-12  # same equations, independent arithmetic
+    assert rows[0][1:] == [2, pytest.approx(du_gaps, rel=rtol)]
+    assert rows[1][1:] == [2, pytest.approx(du_fix, rel=rtol)]
+    total = du_gaps + du_fix
+    assert total >= 0.03 / r_t  # above the 3 % rule, so applied
+    assert udfs.HL_UVALUE_CORRECTED(CORR_WALL, table) == pytest.approx(1 / r_t + total, rel=rtol)
+    # source: EN ISO 6946:2017, F.4: Delta U_r = p f x (R_1/R_T)^2, x = 0.04 [from memory]
+    roof = [["inverted_roof", 2, 2.0, 0.5]]
+    got = udfs.HL_CORRECTIONS(CORR_WALL, roof)[0][2]
+    assert got == pytest.approx(2.0 * 0.5 * 0.04 * (r_ins / r_t) ** 2, rel=rtol)
+
+
+def test_small_corrections_are_not_applied_and_blank_means_none():
+    only_gaps = [["air_gaps", 2, 1]]
+    u = udfs.HL_UVALUE(CORR_WALL)
+    assert udfs.HL_UVALUE_CORRECTED(CORR_WALL, only_gaps) == u  # below 3 % of U
+    assert "not applied" in udfs.HL_CORRECTIONS(CORR_WALL, only_gaps)[-2][0]
+    assert udfs.HL_UVALUE_CORRECTED(CORR_WALL, None) == u
+    assert udfs.HL_UVALUE_CORRECTED(CORR_WALL, [[None, None]]) == u
+
+
+@pytest.mark.parametrize(("table", "fragment"), [
+    ([["air_gaps", 2, 3]], "corrections row 1 level must be at most 2"),
+    ([["air_gaps", 9, 1]], "corrections row 1 layer must be at most 4"),
+    ([["air_gaps", "roof", 1]], "corrections row 1 layer must be a layer number 1 to 4"),
+    ([["air_gaps", 2, 1, 5]], "corrections row 1: column 4 must be blank for air_gaps"),
+    ([["glue", 2, 1]], "corrections row 1 kind must be one of 'air_gaps'"),
+    ([["fasteners", 2, "unobtainium", 12, 4]], "unknown material 'unobtainium'"),
+    ([["fasteners", 2, 17, 12, 4, 200]], "corrections: fastener penetration 0.2 m exceeds"),
+    ([["inverted_roof", 2, 2.0]], "corrections row 1 drainage_factor is blank"),
+])
+def test_bad_correction_tables_name_row_and_rule(table, fragment):
+    out = udfs.HL_UVALUE_CORRECTED(CORR_WALL, table)
+    assert isinstance(out, str) and out.startswith("HL_UVALUE_CORRECTED: ")
+    assert fragment in out, out

@@ -385,7 +385,7 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
 
 def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
                        rse: float | None, *, name: str = "layers",
-                       label: str = "") -> Construction:
+                       label: str = "", corrections: tuple = ()) -> Construction:
     """A :class:`heatledger.Construction` from parsed layer rows.
 
     Parameters
@@ -400,6 +400,9 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
         Argument name used in messages. [-]
     label : str
         Name of the construction. [-]
+    corrections : tuple
+        U-value corrections (EN ISO 6946 Annex F objects), see
+        :mod:`heatledger_xl.correction_ranges`. [-]
 
     Returns
     -------
@@ -407,7 +410,8 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
     """
     layers = [_layer(name, i, cells) for i, cells in rows]
     try:
-        return Construction(layers, heat_flow, rsi=rsi, rse=rse, name=label)
+        return Construction(layers, heat_flow, rsi=rsi, rse=rse, name=label,
+                            corrections=corrections)
     except HeatLedgerError as exc:
         msg = str(exc)
         for head in ("construction: ", "construction "):

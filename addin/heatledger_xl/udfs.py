@@ -30,6 +30,7 @@ from heatledger.constructions import required_thickness
 from heatledger.errors import HeatLedgerError
 from heatledger.surfaces import surface_resistance, surface_resistance_calc
 
+from .correction_ranges import build_corrections, correction_rows
 from .ranges import (
     LIBRARY,
     MIN_THICKNESS_MM,
@@ -50,6 +51,8 @@ __all__ = [
     "HL_RLIMITS",
     "HL_LAYERS",
     "HL_WARNINGS",
+    "HL_UVALUE_CORRECTED",
+    "HL_CORRECTIONS",
     "HL_RSURFACE",
     "HL_RSURFACE_CALC",
     "HL_RAIR",
@@ -158,6 +161,38 @@ def HL_WARNINGS(layers, heat_flow=None, rsi=None, rse=None):
     if c.corrections.items:
         notes.append(c.corrections.rule)
     return [[n] for n in notes] or [["none"]]
+
+
+# --------------------------------------------------------------------------- corrections
+_CORRECTIONS = ("Correction table (ISO 6946 Annex F): kind (air_gaps, fasteners, inverted_roof), "
+                "layer number, then the values of that kind; blank = none. [-, mm2, 1/m2, "
+                "mm/day]")
+_CORRECTED_ARGS = {"layers": _LAYERS, "corrections": _CORRECTIONS, "heat_flow": _HEAT_FLOW,
+                   "rsi": _RSI, "rse": _RSE}
+
+
+@udf(FAMILY, returns="corrected U-value [W/(m2 K)]", args=_CORRECTED_ARGS,
+     ranges=("layers", "corrections"))
+def HL_UVALUE_CORRECTED(layers, corrections, heat_flow=None, rsi=None, rse=None):
+    """U-value with the corrections of EN ISO 6946:2017 Annex F (air gaps, fasteners,
+    inverted roofs), applied when they total at least 3 % of U; unrounded. [W/(m2 K)]"""
+    return _corrected(layers, corrections, heat_flow, rsi, rse).u_value
+
+
+@udf(FAMILY, returns="spill: correction, layer, delta U [W/(m2 K)]",
+     args={**_CORRECTED_ARGS, "header": _HEADER}, ranges=("layers", "corrections"),
+     spills=True)
+def HL_CORRECTIONS(layers, corrections, heat_flow=None, rsi=None, rse=None, header=None):
+    """Each Annex F correction with its layer and Delta U, then the total, whether it was
+    applied (3 % rule) and the corrected U-value. [W/(m2 K)]"""
+    show_header = flag("header", header, False)
+    c = _corrected(layers, corrections, heat_flow, rsi, rse)
+    res = c.corrections
+    rows = [[label, idx + 1, delta] for label, idx, delta in res.items]
+    rows.append(["total Delta U", None, res.total])
+    rows.append([res.rule, None, res.total if res.applied else 0.0])
+    rows.append(["U corrected", None, c.u_value])
+    return _with_header(rows, ["correction", "layer", "Delta U [W/(m2 K)]"], show_header)
 
 
 # --------------------------------------------------------------------------- surfaces, air
@@ -330,20 +365,44 @@ def HL_VERSION():
 
 
 # --------------------------------------------------------------------------- helpers
-def _construction(layers, heat_flow, rsi, rse):
+def _inputs(layers, heat_flow, rsi, rse):
     rows = layer_rows("layers", layers)
     hf = heat_flow_value(heat_flow)
     r_i = number("rsi", rsi, None, low=0.0, high=10.0, low_inclusive=True, unit="m2 K/W")
     r_e = number("rse", rse, None, low=0.0, high=10.0, low_inclusive=True, unit="m2 K/W")
+    return rows, hf, r_i, r_e
+
+
+def _construction(layers, heat_flow, rsi, rse):
+    key = _inputs(layers, heat_flow, rsi, rse)
     try:
-        return _cached_construction(rows, hf, r_i, r_e)
+        return _cached_construction(*key)
     except TypeError:  # an unhashable cell value: build without the cache
-        return build_construction(rows, hf, r_i, r_e)
+        return build_construction(*key)
 
 
 @lru_cache(maxsize=CACHE_SIZE)
 def _cached_construction(rows, heat_flow, rsi, rse):
     return build_construction(rows, heat_flow, rsi, rse)
+
+
+def _corrected(layers, corrections, heat_flow, rsi, rse):
+    key = _inputs(layers, heat_flow, rsi, rse) + (correction_rows("corrections", corrections),)
+    try:
+        return _cached_corrected(*key)
+    except TypeError:  # an unhashable cell value
+        return _build_corrected(*key)
+
+
+@lru_cache(maxsize=CACHE_SIZE)
+def _cached_corrected(rows, heat_flow, rsi, rse, crows):
+    return _build_corrected(rows, heat_flow, rsi, rse, crows)
+
+
+def _build_corrected(rows, heat_flow, rsi, rse, crows):
+    base = build_construction(rows, heat_flow, rsi, rse)
+    items = build_corrections(crows, [lay.name for lay in base.layers])
+    return build_construction(rows, heat_flow, rsi, rse, corrections=items, name="corrections")
 
 
 def _temperatures(temp_inside, temp_outside):

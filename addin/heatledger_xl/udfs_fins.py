@@ -1,0 +1,579 @@
+"""Spreadsheet functions for fins and finned surfaces (heat sinks, finned tubes, pin fins).
+
+Declared like every heatledger function with :func:`heatledger_xl.registry.udf` (family
+``"fins"``, prefix ``HL_``); imported by :mod:`heatledger_xl.udfs`, so pointing xlwings at
+that module brings these in too. No function raises: a bad argument gives a one-line text
+that starts with the function name and names the argument and the rule.
+
+Three groups, lengths in millimetres as on a data sheet, everything else SI:
+
+- **Straight fins** (plates and pins of rectangular, triangular or parabolic profile):
+  ``HL_FIN_HEATRATE``, ``HL_FIN_EFFICIENCY``, ``HL_FIN_EFFECTIVENESS``,
+  ``HL_FIN_RESISTANCE``, ``HL_FIN_TIPTEMP``, ``HL_FIN_TEMPS`` (spill), ``HL_FIN_RESULTS``
+  (spill with warnings and the finite-volume cross-check). Arguments in one order:
+  ``length_mm, size_mm, conductivity, h, base_temperature, ambient`` then the optional
+  ``shape`` ("plate"/"pin"), ``tip`` ("convective", "adiabatic", "temperature",
+  "infinite", or "corrected" = convective tip by the corrected length), ``width_mm``
+  (plates; blank = 1000 mm, results per metre of base), ``tip_temperature``, ``profile``.
+- **Annular fins** on a tube: ``HL_ANNULAR_HEATRATE``, ``HL_ANNULAR_EFFICIENCY``,
+  ``HL_ANNULAR_EFFECTIVENESS``, ``HL_ANNULAR_TIPTEMP``, ``HL_ANNULAR_TEMPS`` (spill), with
+  ``tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h, base_temperature,
+  ambient`` and the optional ``tip`` ("adiabatic", "convective", "corrected").
+- **Fin sets** described by a two-column range of keys and values, the keys of a
+  ``[[fins]]`` table of the project file (``kind``, ``material`` or ``conductivity``,
+  ``length_mm``, ``thickness_mm``, ... and, flat, the array keys ``count``, ``base_area``,
+  ``contact_resistance``, ``target_heat_rate`` and the finite-volume keys ``cells``,
+  ``emissivity``, ``temp_surroundings``, ``h_coefficient``, ``h_exponent``):
+  ``HL_FINSET`` (spill of every result) and ``HL_FINSET_VALUE`` (one named quantity),
+  including the array's overall efficiency and resistance and the inverse answers (fin
+  length and fin count for a target heat rate).
+
+Results support, and do not replace, design by a competent person; fins can be hot to the
+touch: check surface temperatures against the touch limits that apply.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import math
+import warnings
+from numbers import Real
+
+import numpy as np
+
+from heatledger.errors import HeatLedgerError
+from heatledger.fins import AnnularFin, StraightFin
+from heatledger.fins.project_io import ARRAY_KEYS, FV_KEYS, fins_from_dict
+
+from .ranges import ERROR_VALUES, LIBRARY, flag, integer, number, text
+from .registry import udf
+
+__all__ = [
+    "HL_FIN_HEATRATE",
+    "HL_FIN_EFFICIENCY",
+    "HL_FIN_EFFECTIVENESS",
+    "HL_FIN_RESISTANCE",
+    "HL_FIN_TIPTEMP",
+    "HL_FIN_TEMPS",
+    "HL_FIN_RESULTS",
+    "HL_ANNULAR_HEATRATE",
+    "HL_ANNULAR_EFFICIENCY",
+    "HL_ANNULAR_EFFECTIVENESS",
+    "HL_ANNULAR_TIPTEMP",
+    "HL_ANNULAR_TEMPS",
+    "HL_FINSET",
+    "HL_FINSET_VALUE",
+]
+
+FAMILY = "fins"
+_ABS_ZERO = -273.15
+_MAX_TEMP = 2000.0
+#: Bounds of the dimensions accepted. [mm]
+MIN_MM, MAX_MM = 1e-3, 1e5
+#: Bounds of conductivity [W/(m K)] and convection coefficient [W/(m2 K)].
+MAX_CONDUCTIVITY, MAX_H = 1e4, 1e6
+#: Smallest thickness-to-length ratio of a profiled fin (slender-fin formulas). [-]
+MIN_PROFILE_RATIO = 1e-4
+#: Most points of a temperature table and most finite-volume cells a cell may ask for.
+MAX_POINTS, MAX_NODES = 1001, 2000
+#: Most filled rows of a fin-set range.
+MAX_SPEC_ROWS = 60
+
+_STRAIGHT_TIPS = ("convective", "adiabatic", "temperature", "infinite", "corrected")
+_ANNULAR_TIPS = ("adiabatic", "convective", "corrected")
+
+# ---- argument descriptions (unit in brackets at the end) ---------------------------------
+_D = {
+    "length_mm": "Fin length from the base to the tip, above 0. [mm]",
+    "size_mm": "Plate thickness, or pin diameter when shape is \"pin\" (at the base for "
+               "profiled fins). [mm]",
+    "conductivity": "Thermal conductivity of the fin material. [W/(m K)]",
+    "h": "Convection coefficient on the fin surface. [W/(m2 K)]",
+    "base_temperature": "Temperature of the fin base. [degC]",
+    "ambient": "Temperature of the surrounding fluid (air). [degC]",
+    "shape": "\"plate\" (default) or \"pin\". [-]",
+    "tip": ("Tip condition: \"convective\" (default), \"adiabatic\", \"temperature\", "
+            "\"infinite\" or \"corrected\" (convective tip by the corrected length). [-]"),
+    "width_mm": "Plate width along the base; blank = 1000, results per metre (plates only). "
+                "[mm]",
+    "tip_temperature": "Tip temperature, only with tip \"temperature\". [degC]",
+    "profile": "\"rectangular\" (default), \"triangular\" or \"parabolic\". [-]",
+    "points": "Number of evenly spaced points, base and tip included; default 11. [-]",
+    "nodes": "Blank for the closed form; a number of finite-volume cells (2 to 2000) for "
+             "the numerical solution. [-]",
+    "header": "TRUE adds a first row of column titles with units; default FALSE. [-]",
+    "tube_diameter_mm": "Outside diameter of the tube, the fin root. [mm]",
+    "fin_diameter_mm": "Outside diameter of the fin, above the tube diameter. [mm]",
+    "thickness_mm": "Fin thickness. [mm]",
+    "annular_tip": ("Rim condition: \"adiabatic\" (default), \"convective\" or "
+                    "\"corrected\" (adiabatic on r2 + t/2). [-]"),
+    "spec": ("Two-column range of keys and values as in a [[fins]] project table: kind, "
+             "material or conductivity, h, base_temperature, ambient, length_mm, "
+             "thickness_mm, ...; array and FV keys flat. [mm, SI]"),
+    "quantity": "Name of the result, as in the first column of HL_FINSET; default "
+                "heat_rate. [-]",
+}
+_STRAIGHT = {k: _D[k] for k in ("length_mm", "size_mm", "conductivity", "h",
+                                "base_temperature", "ambient", "shape", "tip", "width_mm",
+                                "tip_temperature", "profile")}
+_ANNULAR = {k: _D[k] for k in ("tube_diameter_mm", "fin_diameter_mm", "thickness_mm",
+                               "conductivity", "h", "base_temperature", "ambient")}
+_ANNULAR["tip"] = _D["annular_tip"]
+
+
+# --------------------------------------------------------------------------- straight fins
+@udf(FAMILY, returns="heat rate [W]", args=_STRAIGHT)
+def HL_FIN_HEATRATE(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape=None,
+                    tip=None, width_mm=None, tip_temperature=None, profile=None):
+    """Heat rate a straight fin sheds from its base (Incropera & DeWitt Table 3.4 for
+    uniform fins, Table 3.5 for profiled fins); positive when the base is warmer. [W]"""
+    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+                            shape, tip, width_mm, tip_temperature, profile).heat_rate
+
+
+@udf(FAMILY, returns="fin efficiency [-]", args=_STRAIGHT)
+def HL_FIN_EFFICIENCY(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+                      shape=None, tip=None, width_mm=None, tip_temperature=None, profile=None):
+    """Fin efficiency eta_f = q_f/(h A_f theta_b) of a straight fin (Incropera & DeWitt
+    eq. 3.86, Tables 3.4 and 3.5). [-]"""
+    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+                            shape, tip, width_mm, tip_temperature, profile).efficiency
+
+
+@udf(FAMILY, returns="fin effectiveness [-]", args=_STRAIGHT)
+def HL_FIN_EFFECTIVENESS(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+                         shape=None, tip=None, width_mm=None, tip_temperature=None,
+                         profile=None):
+    """Fin effectiveness q_f/(h A_c theta_b); below 1 the fin reduces the heat rate of the
+    base it covers (see HL_FIN_RESULTS for the warning). [-]"""
+    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+                            shape, tip, width_mm, tip_temperature, profile).effectiveness
+
+
+@udf(FAMILY, returns="fin thermal resistance [K/W]", args=_STRAIGHT)
+def HL_FIN_RESISTANCE(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+                      shape=None, tip=None, width_mm=None, tip_temperature=None, profile=None):
+    """Fin thermal resistance R_t,f = theta_b/q_f of a straight fin (Incropera & DeWitt
+    eq. 3.83). [K/W]"""
+    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+                            shape, tip, width_mm, tip_temperature, profile).resistance
+
+
+@udf(FAMILY, returns="tip temperature [degC]", args=_STRAIGHT)
+def HL_FIN_TIPTEMP(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape=None,
+                   tip=None, width_mm=None, tip_temperature=None, profile=None):
+    """Temperature at the tip of a straight fin from the closed-form temperature
+    distribution (Incropera & DeWitt Table 3.4). [degC]"""
+    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+                            shape, tip, width_mm, tip_temperature, profile).tip_temperature
+
+
+@udf(FAMILY, returns="spill: x [mm], temperature [degC]",
+     args={**_STRAIGHT, "points": _D["points"], "nodes": _D["nodes"], "header": _D["header"]},
+     spills=True)
+def HL_FIN_TEMPS(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape=None,
+                 tip=None, width_mm=None, tip_temperature=None, profile=None, points=None,
+                 nodes=None, header=None):
+    """Temperature along a straight fin as rows of distance from the base and temperature:
+    the closed form, or finite volumes (cell centres and both faces) when nodes is given.
+    [mm, degC]"""
+    opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
+    n_pts, n_fv, head = _table_options(points, nodes, header)
+    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, base_temperature,
+                                    ambient, opts)
+    temps = _guard(lambda: fin.temperatures(t_b, t_inf, nodes=n_fv, points=n_pts))
+    rows = [[float(x) * 1000.0, float(t)] for x, t in zip(temps.x, temps.temperature,
+                                                            strict=True)]
+    return _with_header(rows, ["x [mm]", "temperature [degC]"], head)
+
+
+@udf(FAMILY, returns="spill: quantity, value, unit",
+     args={**_STRAIGHT, "nodes": _D["nodes"], "header": _D["header"]}, spills=True)
+def HL_FIN_RESULTS(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape=None,
+                   tip=None, width_mm=None, tip_temperature=None, profile=None, nodes=None,
+                   header=None):
+    """Every result of a straight fin: heat rate, efficiency, effectiveness, resistance,
+    tip temperature, m, areas, the finite-volume heat rate with energy residual and mesh
+    estimate, and the warnings. [W, -, K/W, degC]"""
+    opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
+    _, n_fv, head = _table_options(None, nodes, header)
+    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, base_temperature,
+                                    ambient, opts)
+    return _with_header(_result_rows(fin, t_b, t_inf, n_fv or 200), _TITLES, head)
+
+
+# --------------------------------------------------------------------------- annular fins
+@udf(FAMILY, returns="heat rate [W]", args=_ANNULAR)
+def HL_ANNULAR_HEATRATE(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                        base_temperature, ambient, tip=None):
+    """Heat rate of one annular fin of rectangular profile on a tube (Bessel-function
+    solution, Incropera & DeWitt section 3.6.3). [W]"""
+    return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                           base_temperature, ambient, tip).heat_rate
+
+
+@udf(FAMILY, returns="fin efficiency [-]", args=_ANNULAR)
+def HL_ANNULAR_EFFICIENCY(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                          base_temperature, ambient, tip=None):
+    """Efficiency of an annular fin of rectangular profile (adiabatic rim: Kern eq. 16.58;
+    convective rim: exact Bessel solution). [-]"""
+    return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                           base_temperature, ambient, tip).efficiency
+
+
+@udf(FAMILY, returns="fin effectiveness [-]", args=_ANNULAR)
+def HL_ANNULAR_EFFECTIVENESS(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                             base_temperature, ambient, tip=None):
+    """Effectiveness of an annular fin, q_f/(h 2 pi r1 t theta_b); below 1 the fin does not
+    help. [-]"""
+    return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                           base_temperature, ambient, tip).effectiveness
+
+
+@udf(FAMILY, returns="rim temperature [degC]", args=_ANNULAR)
+def HL_ANNULAR_TIPTEMP(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                       base_temperature, ambient, tip=None):
+    """Temperature at the outer radius (rim) of an annular fin from the Bessel-function
+    temperature distribution. [degC]"""
+    return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                           base_temperature, ambient, tip).tip_temperature
+
+
+@udf(FAMILY, returns="spill: radius [mm], temperature [degC]",
+     args={**_ANNULAR, "points": _D["points"], "nodes": _D["nodes"], "header": _D["header"]},
+     spills=True)
+def HL_ANNULAR_TEMPS(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+                     base_temperature, ambient, tip=None, points=None, nodes=None, header=None):
+    """Temperature across an annular fin as rows of radius and temperature: the Bessel
+    solution, or finite volumes when nodes is given. [mm, degC]"""
+    mode = _annular_tip(tip)
+    n_pts, n_fv, head = _table_options(points, nodes, header)
+    fin, t_b, t_inf = _annular_fin(tube_diameter_mm, fin_diameter_mm, thickness_mm,
+                                   conductivity, h, base_temperature, ambient, mode)
+    temps = _guard(lambda: fin.temperatures(t_b, t_inf, nodes=n_fv, points=n_pts))
+    rows = [[float(x) * 1000.0, float(t)] for x, t in zip(temps.x, temps.temperature,
+                                                            strict=True)]
+    return _with_header(rows, ["radius [mm]", "temperature [degC]"], head)
+
+
+# --------------------------------------------------------------------------- fin sets
+@udf(FAMILY, returns="spill: quantity, value, unit",
+     args={"spec": _D["spec"], "header": _D["header"]}, ranges=("spec",), spills=True)
+def HL_FINSET(spec, header=None):
+    """Every result of a fin set given as key/value rows: the fin, its finite-volume check,
+    the array (overall efficiency, resistance, heat rate) and the fin length and count for
+    a target heat rate, with warnings. [W, -, K/W, degC, mm]"""
+    head = flag("header", header, False)
+    return _with_header(_finset_rows(_entry(spec)), _TITLES, head)
+
+
+@udf(FAMILY, returns="the named result (unit of the quantity)",
+     args={"spec": _D["spec"], "quantity": _D["quantity"]}, ranges=("spec",))
+def HL_FINSET_VALUE(spec, quantity=None):
+    """One result of a fin set given as key/value rows, named as in HL_FINSET's first column
+    (heat_rate, efficiency, array_heat_rate, overall_efficiency, length_for_target_mm,
+    count_for_target, ...). [unit of quantity]"""
+    what = text("quantity", quantity, "heat_rate").lower()
+    rows = _finset_rows(_entry(spec))
+    values = {r[0]: r[1] for r in rows if r[0] not in ("warning", "method")}
+    if what not in values:
+        raise HeatLedgerError(f"quantity must be one of {', '.join(values)}; got {what!r}")
+    value = values[what]
+    if isinstance(value, str):
+        raise HeatLedgerError(f"quantity {what}: {value}")
+    return value
+
+
+# --------------------------------------------------------------------------- helpers
+_TITLES = ["quantity", "value", "unit"]
+
+
+def _straight_options(shape, tip, width_mm, tip_temperature, profile) -> dict:
+    """Optional arguments first, so a bad one is named even when required ones are blank."""
+    kind = text("shape", shape, "plate").lower()
+    if kind not in ("plate", "pin"):
+        raise HeatLedgerError(f"shape must be one of 'plate', 'pin'; got {kind!r}")
+    mode = text("tip", tip, "convective").lower()
+    if mode not in _STRAIGHT_TIPS:
+        raise HeatLedgerError(f"tip must be one of {', '.join(map(repr, _STRAIGHT_TIPS))}; "
+                              f"got {mode!r}")
+    width = number("width_mm", width_mm, None, low=MIN_MM, high=MAX_MM, low_inclusive=True,
+                   unit="mm")
+    t_l = number("tip_temperature", tip_temperature, None, low=_ABS_ZERO, high=_MAX_TEMP,
+                 low_inclusive=True, unit="degC")
+    prof = text("profile", profile, "rectangular").lower()
+    if prof not in ("rectangular", "triangular", "parabolic"):
+        raise HeatLedgerError(f"profile must be one of 'rectangular', 'triangular', "
+                              f"'parabolic'; got {prof!r}")
+    if width is not None and kind == "pin":
+        raise HeatLedgerError("width_mm applies to plate fins only; leave it blank for a pin")
+    if (mode == "temperature") != (t_l is not None):
+        raise HeatLedgerError("tip_temperature is needed with tip \"temperature\" and only "
+                              f"then; got tip {mode!r} and tip_temperature "
+                              f"{'blank' if t_l is None else f'{t_l:g}'}")
+    if prof != "rectangular" and mode not in ("convective", "adiabatic"):
+        raise HeatLedgerError(f"a {prof} profile ends in an edge or point: tip must be "
+                              f"\"convective\" or \"adiabatic\"; got {mode!r}")
+    return {"shape": kind, "tip": mode, "width": width, "tip_temperature": t_l,
+            "profile": prof}
+
+
+def _common(conductivity, h, base_temperature, ambient):
+    k = number("conductivity", conductivity, low=0.0, high=MAX_CONDUCTIVITY, unit="W/(m K)")
+    hh = number("h", h, low=0.0, high=MAX_H, unit="W/(m2 K)")
+    t_b = number("base_temperature", base_temperature, low=_ABS_ZERO, high=_MAX_TEMP,
+                 low_inclusive=True, unit="degC")
+    t_inf = number("ambient", ambient, low=_ABS_ZERO, high=_MAX_TEMP, low_inclusive=True,
+                   unit="degC")
+    return k, hh, t_b, t_inf
+
+
+def _straight_fin(length_mm, size_mm, conductivity, h, base_temperature, ambient, opts):
+    length = number("length_mm", length_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True,
+                    unit="mm") / 1000.0
+    size = number("size_mm", size_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True,
+                  unit="mm") / 1000.0
+    k, hh, t_b, t_inf = _common(conductivity, h, base_temperature, ambient)
+    if opts["profile"] != "rectangular" and size / length < MIN_PROFILE_RATIO:
+        raise HeatLedgerError(f"size_mm/length_mm must be at least {MIN_PROFILE_RATIO:g} for "
+                              "a profiled fin")
+    tip = opts["tip"]
+    kwargs = {"tip": "convective" if tip == "corrected" else tip,
+              "corrected_length": tip == "corrected", "profile": opts["profile"],
+              "tip_temperature": opts["tip_temperature"]}
+    if opts["shape"] == "plate":
+        w = 1.0 if opts["width"] is None else opts["width"] / 1000.0
+        fin = _guard(lambda: StraightFin(length, k, hh, thickness=size, width=w, **kwargs))
+    else:
+        fin = _guard(lambda: StraightFin(length, k, hh, diameter=size, **kwargs))
+    return fin, t_b, t_inf
+
+
+def _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape,
+                     tip, width_mm, tip_temperature, profile):
+    opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
+    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, base_temperature,
+                                    ambient, opts)
+    return _evaluate(fin, t_b, t_inf)
+
+
+def _annular_tip(tip) -> str:
+    mode = text("tip", tip, "adiabatic").lower()
+    if mode not in _ANNULAR_TIPS:
+        raise HeatLedgerError(f"tip must be one of {', '.join(map(repr, _ANNULAR_TIPS))}; "
+                              f"got {mode!r}")
+    return mode
+
+
+def _annular_fin(d1_mm, d2_mm, t_mm, conductivity, h, base_temperature, ambient, mode):
+    d1 = number("tube_diameter_mm", d1_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True,
+                unit="mm")
+    d2 = number("fin_diameter_mm", d2_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True,
+                unit="mm")
+    t = number("thickness_mm", t_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True, unit="mm")
+    if not d2 > d1 * (1.0 + 1e-9):
+        raise HeatLedgerError(f"fin_diameter_mm must exceed tube_diameter_mm ({d1:g} mm); "
+                              f"got {d2:g} mm")
+    k, hh, t_b, t_inf = _common(conductivity, h, base_temperature, ambient)
+    fin = _guard(lambda: AnnularFin(d1 / 2000.0, d2 / 2000.0, t / 1000.0, k, hh,
+                                    tip="adiabatic" if mode == "adiabatic" else "convective",
+                                    corrected_length=mode == "corrected"))
+    return fin, t_b, t_inf
+
+
+def _annular_result(d1_mm, d2_mm, t_mm, conductivity, h, base_temperature, ambient, tip):
+    mode = _annular_tip(tip)
+    fin, t_b, t_inf = _annular_fin(d1_mm, d2_mm, t_mm, conductivity, h, base_temperature,
+                                   ambient, mode)
+    return _evaluate(fin, t_b, t_inf)
+
+
+def _evaluate(fin, t_b, t_inf):
+    res = _guard(lambda: fin.evaluate(t_b, t_inf))
+    for name in ("heat_rate", "efficiency", "effectiveness", "resistance", "tip_temperature"):
+        if not math.isfinite(getattr(res, name)):
+            raise HeatLedgerError(f"{name} is undefined when base_temperature equals ambient "
+                                  f"({t_b:g} degC) for this tip condition")
+    return res
+
+
+def _table_options(points, nodes, header):
+    n_pts = integer("points", points, 11, low=2, high=MAX_POINTS)
+    n_fv = integer("nodes", nodes, None, low=2, high=MAX_NODES)
+    return n_pts, n_fv, flag("header", header, False)
+
+
+def _guard(call):
+    """Run an engine call; numerical trouble becomes a HeatLedgerError naming the inputs."""
+    try:
+        with warnings.catch_warnings(), np.errstate(over="raise", divide="raise",
+                                                    invalid="raise", under="ignore"):
+            warnings.simplefilter("error")
+            return call()
+    except HeatLedgerError:
+        raise
+    except (ArithmeticError, ValueError, Warning) as exc:
+        raise HeatLedgerError(
+            "the dimensions, conductivity and h lie outside the range the formulas handle "
+            f"({type(exc).__name__}); check the inputs") from None
+
+
+def _result_rows(fin, t_b, t_inf, cells):
+    res = _evaluate(fin, t_b, t_inf)
+    fv = _guard(lambda: fin.finite_volume(t_b, t_inf, nodes=cells))
+    rows = [["heat_rate", res.heat_rate, "W"], ["efficiency", res.efficiency, "-"],
+            ["effectiveness", res.effectiveness, "-"], ["resistance", res.resistance, "K/W"],
+            ["tip_temperature", res.tip_temperature, "degC"], ["m", res.m, "1/m"],
+            ["fin_area", res.fin_area, "m2"],
+            ["cross_section_area", res.cross_section_area, "m2"],
+            ["fv_heat_rate", fv.heat_rate, "W"],
+            ["fv_relative_difference", _ratio(fv.heat_rate, res.heat_rate), "-"],
+            ["fv_energy_residual", fv.energy_residual, "-"],
+            ["fv_mesh_estimate", fv.mesh_estimate.error_estimate, "W"],
+            ["fv_cells", float(fv.settings["cells"]), "-"], ["method", res.method, ""]]
+    rows += [["warning", t, ""] for t in dict.fromkeys(res.warnings + fv.warnings)]
+    return [_clean(r) for r in rows]
+
+
+def _ratio(a, b):
+    return (a - b) / b if b else 0.0
+
+
+def _clean(row):
+    out = []
+    for v in row:
+        if isinstance(v, float) and not math.isfinite(v):
+            v = "undefined"
+        out.append(v)
+    return out
+
+
+def _with_header(rows, titles, header):
+    return [list(titles)] + rows if header else rows
+
+
+# ---- fin sets ------------------------------------------------------------------------------
+_INT_KEYS = ("count", "cells")
+
+
+def _entry(spec):
+    row, where = _spec_row(spec)
+    problems: list = []
+    entries = _guard(lambda: fins_from_dict([row], LIBRARY, problems))
+    if problems:
+        # a problem with a key the user typed first (a missing key second)
+        problems.sort(key=lambda p: p[0].split(".")[-1] not in where)
+        path, msg = problems[0]
+        key = path.split(".")[-1] if "." in path else ""
+        at = f" (row {where[key]})" if key in where else ""
+        more = f"; {len(problems) - 1} more problem(s)" if len(problems) > 1 else ""
+        raise HeatLedgerError(f"spec {key or 'table'}{at}: {msg}{more}")
+    return entries[0]
+
+
+def _spec_row(spec):
+    if not isinstance(spec, (list, tuple)):
+        raise HeatLedgerError("spec must be a range of two columns: key and value")
+    rows = [r if isinstance(r, (list, tuple)) else [r] for r in spec]
+    row: dict = {"name": "fin"}
+    where: dict = {}
+    filled = 0
+    for i, cells in enumerate(rows, 1):
+        cells = list(cells) + [None, None]
+        key, value = cells[0], cells[1]
+        if _blank(key) and _blank(value):
+            continue
+        if i == 1 and isinstance(key, str) and key.strip().lower() == "key":
+            continue  # header row
+        filled += 1
+        if filled > MAX_SPEC_ROWS:
+            raise HeatLedgerError(f"spec has more than {MAX_SPEC_ROWS} filled rows")
+        if not isinstance(key, str) or _blank(key) or key.strip().upper() in ERROR_VALUES:
+            raise HeatLedgerError(f"spec row {i}: the first column must be a key (text)")
+        name = key.strip().lower()
+        target = row
+        if name in ARRAY_KEYS:
+            target = row.setdefault("array", {})
+        elif name in FV_KEYS:
+            target = row.setdefault("fv", {})
+        if name in target or (name == "name" and "name" in where):
+            raise HeatLedgerError(f"spec row {i}: key {name!r} is given twice")
+        target[name] = _spec_value(name, value, i)
+        where[name] = i
+    if filled == 0:
+        raise HeatLedgerError("spec is empty: give key/value rows (kind, conductivity, h, "
+                              "base_temperature, ambient and the dimensions)")
+    return row, where
+
+
+def _spec_value(name, value, i):
+    if isinstance(value, (list, tuple)):
+        raise HeatLedgerError(f"spec row {i}: the value of {name} must be one cell")
+    if _blank(value):
+        return None
+    if isinstance(value, bool):
+        return value
+    if isinstance(value, (_dt.date, _dt.datetime, _dt.time)):
+        raise HeatLedgerError(f"spec row {i}: the value of {name} must be a number or text; "
+                              "got a date")
+    if isinstance(value, str):
+        stripped = value.strip()
+        if stripped.upper() in ERROR_VALUES:
+            raise HeatLedgerError(f"spec row {i}: the value of {name} holds the error "
+                                  f"{stripped.upper()}")
+        if stripped.upper() in ("TRUE", "FALSE"):
+            return stripped.upper() == "TRUE"
+        try:
+            value = float(stripped)
+        except ValueError:
+            return stripped
+    if not isinstance(value, Real):
+        raise HeatLedgerError(f"spec row {i}: the value of {name} must be a number or text")
+    try:
+        out = float(value)
+    except (OverflowError, ValueError):
+        raise HeatLedgerError(f"spec row {i}: the value of {name} must be a finite "
+                              "number") from None
+    if not math.isfinite(out):
+        raise HeatLedgerError(f"spec row {i}: the value of {name} must be a finite number")
+    if name in _INT_KEYS and out.is_integer() and abs(out) < 1e12:
+        return int(out)
+    return out
+
+
+def _blank(value) -> bool:
+    return value is None or (isinstance(value, str) and not value.strip())
+
+
+def _finset_rows(entry):
+    rows = _result_rows(entry.fin, entry.base_temperature, entry.ambient, entry.fv.cells)
+    warns = [r for r in rows if r[0] == "warning"]
+    rows = [r for r in rows if r[0] != "warning"]
+    if entry.fv.nonlinear:
+        fv = _guard(entry.finite_volume)
+        rows += [["fv_nonlinear_heat_rate", fv.heat_rate, "W"],
+                 ["fv_nonlinear_tip_temperature", fv.tip_temperature, "degC"],
+                 ["fv_nonlinear_iterations", float(fv.iterations), "-"]]
+        warns += [["warning", t, ""] for t in fv.warnings]
+    if entry.array is not None:
+        arr = _guard(entry.evaluate_array)
+        rows += [["array_heat_rate", arr.heat_rate, "W"],
+                 ["overall_efficiency", arr.overall_efficiency, "-"],
+                 ["array_resistance", arr.resistance, "K/W"],
+                 ["total_area", arr.total_area, "m2"],
+                 ["fin_heat_rate_in_array", arr.fin_heat_rate, "W"]]
+        warns += [["warning", t, ""] for t in arr.warnings]
+        sizing = _guard(entry.sizing)
+        for key, unit, scale in (("length", "mm", 1000.0), ("count", "-", 1.0)):
+            if key not in sizing:
+                continue
+            answer = sizing[key]
+            label = "length_for_target_mm" if key == "length" else "count_for_target"
+            rows.append([label, answer if isinstance(answer, str) else answer.value * scale,
+                         unit])
+    seen = set()
+    for w in warns:
+        if w[1] not in seen:
+            seen.add(w[1])
+            rows.append(w)
+    return [_clean(r) for r in rows]
