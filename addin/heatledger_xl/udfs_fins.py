@@ -274,10 +274,15 @@ def HL_FINSET_VALUE(spec, quantity=None):
     (heat_rate, efficiency, array_heat_rate, overall_efficiency, length_for_target_mm,
     count_for_target, ...). [unit of quantity]"""
     what = text("quantity", quantity, "heat_rate").lower()
+    if what not in FINSET_QUANTITIES:
+        raise HeatLedgerError(f"quantity must be one of {', '.join(FINSET_QUANTITIES)}; got "
+                              f"{what!r}")
     rows = _finset_rows(_entry(spec))
     values = {r[0]: r[1] for r in rows if r[0] not in ("warning", "method")}
     if what not in values:
-        raise HeatLedgerError(f"quantity must be one of {', '.join(values)}; got {what!r}")
+        need = ("an array (count and base_area)" if what not in _FV_NONLINEAR else
+                "emissivity or h_coefficient/h_exponent")
+        raise HeatLedgerError(f"quantity {what} needs {need} in spec")
     value = values[what]
     if isinstance(value, str):
         raise HeatLedgerError(f"quantity {what}: {value}")
@@ -286,6 +291,15 @@ def HL_FINSET_VALUE(spec, quantity=None):
 
 # --------------------------------------------------------------------------- helpers
 _TITLES = ["quantity", "value", "unit"]
+_FV_NONLINEAR = ("fv_nonlinear_heat_rate", "fv_nonlinear_tip_temperature",
+                 "fv_nonlinear_iterations")
+#: Names of the numeric results of a fin set (HL_FINSET_VALUE's quantity).
+FINSET_QUANTITIES = (
+    "heat_rate", "efficiency", "effectiveness", "resistance", "tip_temperature", "m",
+    "fin_area", "cross_section_area", "fv_heat_rate", "fv_relative_difference",
+    "fv_energy_residual", "fv_mesh_estimate", "fv_cells") + _FV_NONLINEAR + (
+    "array_heat_rate", "overall_efficiency", "array_resistance", "total_area",
+    "fin_heat_rate_in_array", "length_for_target_mm", "count_for_target")
 
 
 def _straight_options(shape, tip, width_mm, tip_temperature, profile) -> dict:
