@@ -385,3 +385,16 @@ def test_bad_correction_tables_name_row_and_rule(table, fragment):
     out = udfs.HL_UVALUE_CORRECTED(CORR_WALL, table)
     assert isinstance(out, str) and out.startswith("HL_UVALUE_CORRECTED: ")
     assert fragment in out, out
+
+
+def test_finite_volume_checks_agree_with_the_exact_heat_flux():
+    # Without sources the 1-D steady profile is piecewise linear and q = (ti - te)/R_T
+    # (Incropera & DeWitt, eq. 3.12 with the resistance network of section 3.1.2).
+    rows = dict(udfs.HL_FVCHECK(WALL, 20.0, -5.0, None, None, None, 3))
+    q = (20.0 - -5.0) / hand_resistance_wall(udfs.HL_RAIR(25))
+    rtol_q = 1e-9  # exact scheme for this case: round-off only
+    assert rows["heat flux, this mesh [W/m2]"] == pytest.approx(q, rel=rtol_q)
+    assert rows["heat flux, every cell halved [W/m2]"] == pytest.approx(q, rel=rtol_q)
+    assert abs(rows["energy-balance residual [-]"]) < 1e-10
+    assert rows["estimated error of the heat flux [W/m2]"] < 1e-9
+    assert udfs.HL_FVCHECK(WALL, 20, -5, None, None, None, 3, True)[0] == ["quantity", "value"]

@@ -58,6 +58,7 @@ __all__ = [
     "HL_RAIR",
     "HL_TINTERFACES",
     "HL_TNODES",
+    "HL_FVCHECK",
     "HL_HEATFLUX",
     "HL_THICKNESS",
     "HL_MATERIAL",
@@ -286,6 +287,31 @@ def HL_TNODES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=N
             for i, (layer, x, t) in enumerate(zip(res.layer_of_node, res.x, res.temperature,
                                                   strict=True))]
     return _with_header(rows, ["node", "layer", "x [mm]", "temperature [degC]"], show_header)
+
+
+@udf(FAMILY, returns="spill: quantity, value",
+     args={**_TEMP_ARGS,
+           "nodes_per_layer": "Finite-volume cells in each layer, 1 to 200; default 4. [-]",
+           "header": _HEADER},
+     ranges=("layers",), spills=True)
+def HL_FVCHECK(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=None,
+               nodes_per_layer=None, header=None):
+    """Checks of the finite-volume solution behind HL_TNODES: energy-balance residual, heat
+    flux on this and a doubled mesh, Richardson estimate and its error. [-, W/m2, K]"""
+    show_header = flag("header", header, False)
+    c = _construction(layers, heat_flow, rsi, rse)
+    t_i, t_e = _temperatures(temp_inside, temp_outside)
+    n = integer("nodes_per_layer", nodes_per_layer, 4, low=1, high=MAX_NODES_PER_LAYER)
+    res = c.temperatures(t_i, t_e, nodes_per_layer=n)
+    est = res.mesh_estimate
+    rows = [["energy-balance residual [-]", float(res.energy_residual)],
+            ["heat flux, this mesh [W/m2]", float(est.coarse)],
+            ["heat flux, every cell halved [W/m2]", float(est.fine)],
+            ["heat flux, Richardson extrapolation [W/m2]", float(est.extrapolated)],
+            ["estimated error of the heat flux [W/m2]", float(est.error_estimate)],
+            ["largest interface temperature change, halved cells [K]",
+             float(res.mesh_temperature_change)]]
+    return _with_header(rows, ["quantity", "value"], show_header)
 
 
 @udf(FAMILY, returns="heat flux [W/m2]", args=_TEMP_ARGS, ranges=("layers",))
