@@ -25,6 +25,7 @@ from ..project import (
 )
 from ..surfaces import HEAT_FLOWS
 from .plan import DataValidation, PrintSetup, WorkbookPlan, col_letter, sheet_ref
+from .template_rooms import ROOM_COLUMNS, ROOM_NOTES, ROOM_SHEETS, read_rooms, room_template_rows
 
 __all__ = [
     "template_plan",
@@ -99,8 +100,9 @@ COLUMNS = {
         ("drainage_factor", "f [-]", "number"), ("factor_x", "x [W day/(m2 K mm)]", "number"),
     ),
 }
+COLUMNS.update(ROOM_COLUMNS)  # Building, Rooms, Elements, Bridges (heat loss)
 TEMPLATE_SHEETS = ("Instructions", "Project", "Materials", "Constructions", "Layers",
-                   "Corrections", "Lists")
+                   "Corrections") + ROOM_SHEETS + ("Lists",)
 VENTILATION = ("unventilated", "slightly", "well")
 _SHORT = ("kind", "heat_flow", "ventilation", "edition", "application")
 _WIDTHS = {"text": 26, "number": 14, "int": 12, "ref": 22}
@@ -165,6 +167,8 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
         "Corrections": "Optional corrections to U (ISO 6946 Annex F): air_gaps, fasteners, "
                        "inverted_roof. Name the layer as on the Layers sheet.",
     }
+    rows.update(room_template_rows(data))
+    notes.update(ROOM_NOTES)
     n_lib = len(lib_names)
     lists = {"materials": sheet_ref("Lists", f"A2:A{n_lib + 1}"),
              "heat_flow": sheet_ref("Lists", f"B2:B{len(HEAT_FLOWS) + 1}"),
@@ -420,6 +424,7 @@ def _parse(wb, source: str, raw: bytes):
             lst = target["row"].setdefault(child, [])
             lst.append(row)
             _note(cells, f"{target['key']}.{child}[{len(lst)}]", where, COLUMNS[sheet])
+    read_rooms(tables, data, problems, cells)
     if problems:
         raise ProjectError(problems, source=source)
     for c in constructions:
