@@ -86,6 +86,8 @@ def test_optional_arguments_come_last_and_share_one_order():
         names = [a.name for a in spec.args]
         flags = [a.optional for a in spec.args]
         assert flags == sorted(flags), name  # all required before all optional
+        if spec.family != "constructions":
+            continue
         if "temp_inside" in names:
             assert names[:6] == temps, name
         elif "corrections" in names:
@@ -94,7 +96,8 @@ def test_optional_arguments_come_last_and_share_one_order():
             assert names[:4] == common, name
         if "header" in names:
             assert names[-1] == "header"
-    assert set(udfs.__all__) == set(REGISTRY)
+    assert set(udfs.__all__) == set(REGISTRY)  # every family is a member of udfs
+    assert all(getattr(udfs, name) is spec.function for name, spec in REGISTRY.items())
 
 
 # --------------------------------------------------------------------------- values

@@ -452,3 +452,13 @@ def _finite_or_text(value):
     if isinstance(value, float) and value == float("inf"):
         return "inf"
     return value
+
+
+# --------------------------------------------------------------------------- other families
+# Every family's functions must be members of this module: classic xlwings imports the
+# functions it finds in the module named under "UDF Modules", xlwings Lite/Server those of
+# the module passed to them.
+from .udfs_fins import *  # noqa: E402, F403
+from .udfs_fins import __all__ as _fins_all  # noqa: E402
+
+__all__ = __all__ + list(_fins_all)
