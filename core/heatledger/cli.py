@@ -126,8 +126,10 @@ def project_results(project: Project) -> dict:
         "tool_version": __version__,
         "constructions": out,
         **_building_results(project),
+        **_fin_results(project),
         "cautions": caution_lines() + (caution_lines("plant_sizing")
-                                       if getattr(project, "building", None) else []),
+                                       if getattr(project, "building", None) else [])
+        + (caution_lines("hot_surfaces") if getattr(project, "fins", None) else []),
     }
 
 
@@ -164,6 +166,8 @@ def _print_table(results: dict, stream=None) -> None:
             w(f"  warning: {warning}\n")
     if results.get("building"):
         _print_building(dict(results["building"], rooms_table=results["rooms"]), w)
+    if results.get("fins"):
+        _print_fins(results["fins"], w)
     w("\nCautions:\n")
     for line in results["cautions"]:
         w(f"  - {line}\n")
@@ -214,6 +218,47 @@ def _print_building(b: dict, w) -> None:
     if b["annual_energy_kwh"] is not None:
         w(f"annual energy: Q = 24 H DD / 1000 with {b['degree_days']:g} K day on the base "
           f"{b['degree_day_base']:g} degC\n")
+
+
+def _fin_results(project: Project) -> dict:
+    """Fins as plain data (empty when the project has no fins)."""
+    if not getattr(project, "fins", None):
+        return {}
+    from .fins.project_io import fin_results
+
+    return {"fins": fin_results(project.fins)}
+
+
+def _print_fins(fins: list, w) -> None:
+    head = (f"{'fin (one fin of the entry)':<40} {'q W':>9} {'eta_f':>6} {'eps_f':>7} "
+            f"{'T tip C':>8} {'array q W':>10} {'eta_o':>6}")
+    w("\nFins (closed form; finite volumes as a check)\n" + head + "\n" + "-" * len(head)
+      + "\n")
+    for f in fins:
+        arr = f["array"]
+        aq, ae = ("", "") if arr is None else (f"{arr['heat_rate']:.2f}",
+                                               f"{arr['overall_efficiency']:.3f}")
+        w(f"{f['name'][:40]:<40} {f['heat_rate']:>9.3f} {f['efficiency']:>6.3f} "
+          f"{f['effectiveness']:>7.2f} {f['tip_temperature']:>8.2f} {aq:>10} {ae:>6}\n")
+    for f in fins:
+        fv = f["fv"]
+        w(f"\n{f['name']}: {f['method']}; finite volumes {fv['heat_rate']:.4f} W "
+          f"({fv['cells']} cells{', h(T)/radiation' if fv['nonlinear'] else ''}), energy "
+          f"balance residual {fv['energy_residual']:.1e}, mesh estimate "
+          f"{fv['mesh_estimate_heat_rate']:.1e} W\n")
+        if f["array"] is not None:
+            a = f["array"]
+            w(f"  array of {a['count']} fins: {a['heat_rate']:.2f} W, resistance "
+              f"{a['resistance']:.4f} K/W\n")
+        for key, sz in f["sizing"].items():
+            what = "fin length" if key == "length" else "fin count"
+            if sz["value"] is None:
+                w(f"  {what} for {f['array']['target_heat_rate']:g} W: {sz['message']}\n")
+            else:
+                unit = " mm" if sz["unit"] == "mm" else ""
+                w(f"  {what} for {f['array']['target_heat_rate']:g} W: {sz['value']:.4g}{unit}\n")
+        for warning in f["warnings"]:
+            w(f"  warning: {warning}\n")
 
 
 def _emit(results: dict, as_json: bool) -> None:

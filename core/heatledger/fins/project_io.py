@@ -60,7 +60,7 @@ from .arrays import FinArray
 from .fv import PowerLawCoefficient
 from .straight import STRAIGHT_PROFILES, STRAIGHT_TIPS, StraightFin
 
-__all__ = ["FinEntry", "FinFVSettings", "fins_from_dict", "FIN_KINDS", "FIN_KEYS",
+__all__ = ["FinEntry", "FinFVSettings", "fins_from_dict", "fin_results", "FIN_KINDS", "FIN_KEYS",
            "ARRAY_KEYS", "FV_KEYS", "DEFAULT_FV_CELLS", "MAX_FV_CELLS"]
 
 FIN_KINDS = ("straight", "annular")
@@ -217,6 +217,58 @@ def fins_from_dict(rows, library, problems) -> list:
             continue
         seen.add(entry.name.lower())
         out.append(entry)
+    return out
+
+
+def fin_results(entries) -> list:
+    """Results of fin entries as plain data (the CLI's ``--json`` schema for fins).
+
+    Parameters
+    ----------
+    entries : list of FinEntry
+        The project's fins. [-]
+
+    Returns
+    -------
+    list of dict
+        Per entry: ``heat_rate`` [W], ``efficiency`` and ``effectiveness`` [-],
+        ``resistance`` [K/W], ``tip_temperature`` [degC] of one fin; ``fv`` (finite-volume
+        heat rate [W], energy residual [-], mesh estimate [W], cells); ``array`` (count, heat
+        rate [W], overall efficiency [-], resistance [K/W]) or None; ``sizing`` (fin length
+        [mm] and count for the target, or the reason there is none); ``warnings``.
+    """
+    out = []
+    for e in entries:
+        res = e.evaluate()
+        fv = e.finite_volume()
+        arr = e.evaluate_array()
+        warns = list(dict.fromkeys(res.warnings + (arr.warnings if arr is not None else ())
+                                   + tuple(f"finite volumes: {t}" for t in fv.warnings)))
+        sizing = {}
+        for key, answer in e.sizing().items():
+            if isinstance(answer, str):
+                sizing[key] = {"value": None, "message": answer}
+            else:
+                value = answer.value * 1000.0 if key == "length" else answer.value
+                sizing[key] = {"value": value, "message": "",
+                               "unit": "mm" if key == "length" else "-"}
+        out.append({
+            "name": e.name, "kind": e.kind, "method": res.method,
+            "base_temperature": e.base_temperature, "ambient": e.ambient,
+            "heat_rate": res.heat_rate, "efficiency": res.efficiency,
+            "effectiveness": res.effectiveness, "resistance": res.resistance,
+            "tip_temperature": res.tip_temperature,
+            "fv": {"heat_rate": fv.heat_rate, "tip_temperature": fv.tip_temperature,
+                   "energy_residual": fv.energy_residual,
+                   "mesh_estimate_heat_rate": fv.mesh_estimate.error_estimate,
+                   "cells": fv.settings["cells"], "iterations": fv.iterations,
+                   "nonlinear": e.fv.nonlinear},
+            "array": None if arr is None else {
+                "count": arr.count, "heat_rate": arr.heat_rate,
+                "overall_efficiency": arr.overall_efficiency, "resistance": arr.resistance,
+                "target_heat_rate": e.target_heat_rate},
+            "sizing": sizing, "warnings": warns, "notes": list(res.notes),
+        })
     return out
 
 
