@@ -307,6 +307,8 @@ def _entry(row, where, library, problems):
     else:
         dims = _annular_inputs(row, where, problems)
     array_in = _sub(row, "array", ARRAY_KEYS, where, problems)
+    array_values = None if array_in is None else _array_inputs(array_in, f"{where}.array",
+                                                                  problems)
     fv = _fv(row, where, problems)
     if len(problems) > start:
         return None
@@ -321,8 +323,8 @@ def _entry(row, where, library, problems):
         problems.append((_key_of(str(exc), where), str(exc)))
         return None
     array, target = None, None
-    if array_in is not None:
-        array, target = _array(array_in, fin, f"{where}.array", problems)
+    if array_values is not None:
+        array, target = _array(array_values, fin, f"{where}.array", problems)
         if array is None:
             return None
     if fv.h_law is not None and getattr(fin, "tip", None) == "infinite":
@@ -378,7 +380,8 @@ def _annular_inputs(row, where, problems) -> dict:
             "thickness": None if t is None else t / 1000.0, "tip": tip}
 
 
-def _array(data, fin, where, problems):
+def _array_inputs(data, where, problems):
+    """The array's own values, checked before the fin is built (so every problem shows)."""
     start = len(problems)
     count = data.get("count")
     if isinstance(count, bool) or not isinstance(count, int) or count < 0:
@@ -389,8 +392,11 @@ def _array(data, fin, where, problems):
     if target is not None and target == 0.0:
         problems.append((f"{where}.target_heat_rate", "must not be zero (leave it out for no "
                          "sizing)"))
-    if len(problems) > start:
-        return None, None
+    return None if len(problems) > start else (count, area, rc, target)
+
+
+def _array(values, fin, where, problems):
+    count, area, rc, target = values
     try:
         return FinArray(fin, count, area, rc), target
     except HeatLedgerError as exc:
