@@ -49,6 +49,13 @@ DEMO_LAYERS = [
     ["clay brick outer leaf", 102.5, None, None, None, None],
 ]
 TABLE = "$B$6:$G$12"  # the layer table with its header row
+#: Invented Annex F corrections of the demo wall (layer 4 = the mineral wool).
+DEMO_CORRECTIONS = [
+    ["kind", "layer", "level / conductivity", "cross section [mm2]", "count [1/m2]"],
+    ["air_gaps", 4, 1, None, None],
+    ["fasteners", 4, "stainless steel", 12.6, 4],
+]
+CORR = "$I$6:$M$8"
 T_IN, T_OUT, HEAT_FLOW, TARGET_U, SIZE_LAYER = 20.0, -5.0, "horizontal", 0.18, 4
 _CAUTION = ("Results support, and do not replace, design by a competent person under the "
             "local building regulations; check material values against the declared values "
@@ -154,6 +161,9 @@ def _single_results():
          '=HL_MATERIAL("mineral wool 035")', udfs.HL_MATERIAL("mineral wool 035"), "0.000"),
         ("Source of that value", '=HL_MATERIAL("mineral wool 035","source")',
          udfs.HL_MATERIAL("mineral wool 035", "source"), "General"),
+        ("U-value with the Annex F corrections (table I6:M8) [W/(m2 K)]",
+         f"=HL_UVALUE_CORRECTED({t},{CORR},{hf})",
+         udfs.HL_UVALUE_CORRECTED(layers, DEMO_CORRECTIONS, HEAT_FLOW), "0.0000"),
     ]
 
 
@@ -169,6 +179,11 @@ def _spill_specs():
          udfs.HL_LAYERS(DEMO_LAYERS, HEAT_FLOW, None, None, True)),
         ("Bridged layer: upper and lower limits", "S", f"=HL_RLIMITS({t},{hf},,,TRUE)",
          udfs.HL_RLIMITS(DEMO_LAYERS, HEAT_FLOW, None, None, True)),
+        ("Annex F corrections", "V", f"=HL_CORRECTIONS({t},{CORR},{hf},,,TRUE)",
+         udfs.HL_CORRECTIONS(DEMO_LAYERS, DEMO_CORRECTIONS, HEAT_FLOW, None, None, True)),
+        ("Finite-volume checks, 2 cells per layer", "Z",
+         f"=HL_FVCHECK({t},{ti},{te},{hf},,,2,TRUE)",
+         udfs.HL_FVCHECK(DEMO_LAYERS, T_IN, T_OUT, HEAT_FLOW, None, None, 2, True)),
     ]
 
 
@@ -205,6 +220,13 @@ def _plan() -> WorkbookPlan:
             elif value is not None:
                 t.put(a1, value, role="input",
                       number_format="0.0" if j == 1 else ("0.000" if j != 0 else None))
+    b.put("I5", "Corrections, EN ISO 6946 Annex F (range I6:M8, header row included)",
+          style="hl subtitle")
+    cb = sh.block("corrections")
+    for i, row in enumerate(DEMO_CORRECTIONS):
+        for j, value in enumerate(row):
+            if value is not None:
+                cb.put(f"{'IJKLM'[j]}{6 + i}", value, role="header" if i == 0 else "input")
     d = sh.block("design")
     d.put("B14", "Construction name")
     d.put("C14", DEMO_NAME, role="input")
