@@ -462,3 +462,7 @@ from .udfs_fins import *  # noqa: E402, F403
 from .udfs_fins import __all__ as _fins_all  # noqa: E402
 
 __all__ = __all__ + list(_fins_all)
+from .udfs_heatloss import *  # noqa: E402, F403
+from .udfs_heatloss import __all__ as _heatloss_all  # noqa: E402
+
+__all__ = __all__ + list(_heatloss_all)
