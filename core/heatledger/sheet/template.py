@@ -25,6 +25,7 @@ from ..project import (
 )
 from ..surfaces import HEAT_FLOWS
 from .plan import DataValidation, PrintSetup, WorkbookPlan, col_letter, sheet_ref
+from .template_fins import FIN_COLUMNS, FIN_NOTES, FIN_SHEETS, fin_template_rows, read_fins
 from .template_rooms import ROOM_COLUMNS, ROOM_NOTES, ROOM_SHEETS, read_rooms, room_template_rows
 
 __all__ = [
@@ -101,8 +102,9 @@ COLUMNS = {
     ),
 }
 COLUMNS.update(ROOM_COLUMNS)  # Building, Rooms, Elements, Bridges (heat loss)
+COLUMNS.update(FIN_COLUMNS)  # Fins
 TEMPLATE_SHEETS = ("Instructions", "Project", "Materials", "Constructions", "Layers",
-                   "Corrections") + ROOM_SHEETS + ("Lists",)
+                   "Corrections") + ROOM_SHEETS + FIN_SHEETS + ("Lists",)
 VENTILATION = ("unventilated", "slightly", "well")
 _SHORT = ("kind", "heat_flow", "ventilation", "edition", "application")
 _WIDTHS = {"text": 26, "number": 14, "int": 12, "ref": 22}
@@ -169,6 +171,8 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
     }
     rows.update(room_template_rows(data))
     notes.update(ROOM_NOTES)
+    rows.update(fin_template_rows(data))
+    notes.update(FIN_NOTES)
     n_lib = len(lib_names)
     lists = {"materials": sheet_ref("Lists", f"A2:A{n_lib + 1}"),
              "heat_flow": sheet_ref("Lists", f"B2:B{len(HEAT_FLOWS) + 1}"),
@@ -425,6 +429,7 @@ def _parse(wb, source: str, raw: bytes):
             lst.append(row)
             _note(cells, f"{target['key']}.{child}[{len(lst)}]", where, COLUMNS[sheet])
     read_rooms(tables, data, problems, cells)
+    read_fins(tables, data, problems, cells)
     if problems:
         raise ProjectError(problems, source=source)
     for c in constructions:
