@@ -267,7 +267,7 @@ def test_declared_resistance_and_air_keywords():
                                    "got -4"),
     ([["a", "ten", 1]], "layers row 1 thickness_mm must be a number in mm; got 'ten'"),
     ([["a", 10, "#N/A"]], "layers row 1 conductivity holds the error #N/A"),
-    ([["a", 10, True]], "layers row 1 conductivity must be a number"),
+    ([["a", 10, True]], "layers row 1 conductivity must be a number or a text; got TRUE"),
     ([["a", 10, 1, 0.5]], "layers row 1: give conductivity or a declared resistance"),
     ([["a", 10, 1, None, 0.2]], "bridging_conductivity is blank"),
     ([["a", 10, 1, None, 1.2, 0.1]], "bridging_fraction must be at most 1"),
@@ -329,6 +329,16 @@ def test_identical_calls_reuse_the_cached_construction():
         assert udfs.HL_UVALUE([list(r) for r in WALL]) == first
     assert udfs._cached_construction.cache_info().hits == info.hits + 5
     assert udfs.HL_RTOTAL(WALL, "up") != udfs.HL_RTOTAL(WALL, "horizontal")
+
+
+def test_true_and_one_do_not_share_a_cache_entry():
+    # TRUE == 1 in Python: a cached valid table must not answer for one holding TRUE
+    assert isinstance(udfs.HL_UVALUE([["a", 100, 1]]), float)
+    assert udfs.HL_UVALUE([["a", 100, True]]).startswith("HL_UVALUE: layers row 1 "
+                                                         "conductivity")
+    assert isinstance(udfs.HL_UVALUE_CORRECTED(CORR_WALL, [["air_gaps", 2, 1]]), float)
+    out = udfs.HL_UVALUE_CORRECTED(CORR_WALL, [["air_gaps", 2, True]])
+    assert out.startswith("HL_UVALUE_CORRECTED: corrections row 1 column 3")
 
 
 def test_heat_flow_direction_changes_air_layer_and_surfaces():

@@ -31,7 +31,7 @@ from heatledger.constructions import (
 )
 from heatledger.errors import HeatLedgerError
 
-from .ranges import ERROR_VALUES, LIBRARY, _is_blank, _unwrap_single, number, text
+from .ranges import ERROR_VALUES, LIBRARY, _is_blank, _no_booleans, _unwrap_single, number, text
 
 __all__ = ["CORRECTION_KINDS", "MAX_CORRECTIONS", "correction_rows", "build_corrections"]
 
@@ -77,6 +77,8 @@ def correction_rows(name: str, cells: object) -> tuple:
         padded = tuple(row[:_WIDTH]) + (None,) * (_WIDTH - min(len(row), _WIDTH))
         if i == 1 and _is_header(padded):
             continue
+        _no_booleans(f"{name} row {i}", padded, ("kind", "layer", "column 3", "column 4",
+                                                 "column 5", "column 6"))
         if len(out) >= MAX_CORRECTIONS:
             raise HeatLedgerError(f"{name} holds more than {MAX_CORRECTIONS} corrections; end "
                                   "the table with a blank row")

@@ -370,6 +370,7 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
         padded = tuple(row) + (None,) * (len(LAYER_COLUMNS) - len(row))
         if i == 1 and _is_header(padded):
             continue
+        _no_booleans(f"{name} row {i}", padded, LAYER_COLUMNS)
         if len(out) >= MAX_LAYERS:
             raise HeatLedgerError(f"{name} holds more than {MAX_LAYERS} layers; end the "
                                   "table with a blank row")
@@ -422,6 +423,15 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
 
 
 # --------------------------------------------------------------------------- internals
+def _no_booleans(where: str, cells: tuple, columns: tuple) -> None:
+    """TRUE/FALSE is never a valid table cell. Rejected here, before the row keys a cache,
+    because TRUE == 1 and FALSE == 0 in Python and would share a cache entry."""
+    for column, cell in zip(columns, cells, strict=False):
+        if type(cell) is bool:
+            raise HeatLedgerError(f"{where} {column} must be a number or a text; got "
+                                  f"{_describe(cell)}")
+
+
 def _is_header(cells: tuple) -> bool:
     filled = [c for c in cells if not _is_blank(c)]
     if not filled or not all(isinstance(c, str) for c in filled):
