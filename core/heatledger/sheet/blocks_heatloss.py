@@ -250,6 +250,8 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
     w.row = 9
     w.put(2, _cautions.CAUTIONS.get("plant_sizing", _cautions.CAUTIONS["general"]),
           style="hl warning")
+    sheet.merges.append("B9:S9")
+    sheet.row_heights[9] = 27.0
     w.row = HEADER_ROWS
 
     u_refs: dict = {}
@@ -303,7 +305,7 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
             w.put(6, "m" if linear else "-")
             w.put(7, float(item.psi if linear else item.chi), role="input", fmt=FMT_U)
             h_formula = f"=E{r}*G{r}*J{r}"
-        _factor_cells(w, r, item.boundary, line, room_sheet)
+        _factor_cells(w, r, item.boundary, room_sheet, bref)
         h = w.put(11, formula=h_formula, fmt=FMT_H)
         w.check(13, h, w.put(12, float(line.coefficient), role="engine", fmt=FMT_H))
         w.put(14, formula=f"=K{r}*{_DT}", fmt=FMT_W)
@@ -391,18 +393,16 @@ def _u_cell(item, u_refs, crefs, constructions, line) -> dict:
     return {"value": float(line.transmittance), "role": "input"}
 
 
-def _factor_cells(w, r, b, line, room_sheet) -> None:
+def _factor_cells(w, r, b, room_sheet, bref) -> None:
     if isinstance(b, Outside):
         w.put(10, 1.0, role="input", fmt="0.000")
         return
     if isinstance(b, Unheated) and b.adjustment_factor is not None:
         w.put(10, float(b.adjustment_factor), role="input", fmt="0.000")
         return
-    if isinstance(b, Ground):
-        w.put(9, float(b.annual_mean_external_temperature), role="input", fmt=FMT_T)
-        fg1 = w.put(20, float(b.f_g1), role="input", fmt="0.00")
-        gw = w.put(21, float(b.groundwater_factor), role="input", fmt="0.00")
-        w.put(10, formula=f"={fg1}*{gw}*({_TI}-I{r})/{_DT}", fmt="0.0000")
+    if isinstance(b, Ground):  # theta_m,e, f_g1 and G_w stand on the building sheet
+        w.put(9, formula=f"={bref['tme']}", fmt=FMT_T)
+        w.put(10, formula=f"={bref['fg1']}*{bref['gw']}*({_TI}-I{r})/{_DT}", fmt="0.0000")
         return
     if isinstance(b, AdjacentRoom) and b.room is not None:
         w.put(9, formula=f"={sheet_ref(room_sheet[b.room], _TI)}", fmt=FMT_T)
@@ -700,6 +700,8 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
                        note="design heat load of the building")
     w.put(2, _cautions.CAUTIONS.get("plant_sizing", _cautions.CAUTIONS["general"]),
           style="hl warning")
+    sheet.merges.append(f"B{w.row}:S{w.row}")
+    sheet.row_heights[w.row] = 27.0
     w.row += 1
 
     # ---- by element type -----------------------------------------------------------------
