@@ -249,7 +249,8 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
         (ChartSeries("closed form", sheet_ref(sheet_name, f"E{profile[0]}:E{profile[1]}"),
                      sheet_ref(sheet_name, f"C{profile[0]}:C{profile[1]}"), line=True,
                      marker="diamond", color="C0504D"),
-         ChartSeries("finite volumes (cell centres)",
+         ChartSeries("finite volumes (cell centres)" + (", h(T) and radiation"
+                                                         if entry.fv.nonlinear else ""),
                      sheet_ref(sheet_name, f"N{fv_rows[0]}:N{fv_rows[1]}"),
                      sheet_ref(sheet_name, f"B{fv_rows[0]}:B{fv_rows[1]}"), line=False,
                      marker="circle", color="2E5A6B")),
@@ -300,7 +301,7 @@ def _profile_table(w, r, fin, entry):
 def _array(w, r, entry):
     arr = entry.array
     res = entry.evaluate_array()
-    w.start("array", f"Array of fins on a base (Incropera & DeWitt, section 3.6.5): {res.method}")
+    w.start("array", f"Array of fins on a base ({res.method})")
     n = w.line("N, number of fins [-]", value=float(arr.count), fmt="0")
     base = w.line("base area including the fin roots [m2]", value=float(arr.base_area), fmt=F_E)
     rc = w.line("R''_t,c, contact resistance at each root [m2 K/W]",
