@@ -235,3 +235,25 @@ def test_fins_sheets_only_with_fins_and_hot_surface_caution(project):
 
 def test_fin_sheets_are_deterministic(project):
     assert audit.audit_bytes(project) == audit.audit_bytes(copy.deepcopy(project))
+
+
+@pytest.mark.calc
+def test_formulas_are_live_a_changed_input_recomputes(project, tmp_path, recalc):
+    """Change h of one fin in the sheet: the spreadsheet's q_f follows the engine's q_f for
+    the new h (formulas, not pasted values), while the checks against the old engine
+    constants now fail."""
+    plan = audit.audit_plan(project)
+    entry = next(e for e in project.fins if e.name == "plate, adiabatic tip")
+    refs = plan.index[("fins", entry.name)]
+    sheet = plan.sheet(refs.sheet)
+    h_cell = next(c for c in sheet.cells() if c.role == "input" and c.value == entry.fin.h
+                  and any(o.ref == f"B{split_ref(c.ref)[0]}" and str(o.value).startswith("h,")
+                          for o in sheet.cells()))
+    h_cell.value = 40.0
+    wb = openpyxl.load_workbook(recalc(write_workbook(plan, tmp_path / "live.xlsx")),
+                                data_only=True)
+    changed = type(entry.fin)(entry.fin.length, entry.fin.conductivity, 40.0,
+                              thickness=entry.fin.thickness, tip=entry.fin.tip)
+    assert _value(wb, refs.heat_rate) == pytest.approx(changed.heat_rate(80.0, 20.0), rel=REL)
+    row, _ = split_ref(refs.heat_rate.split("!")[1].replace("$", ""))
+    assert str(wb[refs.sheet][f"L{row}"].value).startswith("MISMATCH")
