@@ -19,7 +19,9 @@ def test_template_then_audit_from_the_filled_template(tmp_path, capsys):
     assert "written to" in capsys.readouterr().out
     wb = openpyxl.load_workbook(out)
     assert wb.sheetnames[:3] == ["Cover", "Materials", "Summary"]
-    assert len(wb.sheetnames) == 3 + len(demo_project().constructions)
+    names = [e.name for e in demo_project().constructions]
+    for i, name in enumerate(names, 1):  # one sheet per construction, numbered in order
+        assert any(s.startswith(f"{i:02d} {name[:10]}") for s in wb.sheetnames), name
 
 
 def test_blank_template_has_no_rows(tmp_path):

@@ -271,8 +271,8 @@ def _instructions(plan: WorkbookPlan, with_examples: bool) -> None:
         "Sand cells are inputs. Blank rows are skipped. Do not rename the sheets or move the "
         "header rows: the reader checks them and names every problem by sheet and cell.",
         "Units: thickness mm; λ W/(m K); R m2 K/W; U W/(m2 K); temperatures degC; area m2.",
-        "This template covers constructions (U-values and temperatures). Rooms and the "
-        "building heat loss are described in a TOML project file (see the README).",
+        "The further sheets (building and rooms for the heat loss, fins) follow the same "
+        "rules: one row per item, units in the column headers, blank rows skipped.",
     ]
     if with_examples:
         lines.append("The rows already filled in are the invented heatledger demo project; "
