@@ -212,6 +212,10 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
     for row, label in ((4, "Check cells on this sheet"), (5, "Check cells that say OK"),
                        (6, "State of this sheet")):
         w.put(6, label, row=row)
+    if entry.notes:
+        w.row = 9
+        w.put(2, "Notes")
+        w.put(3, entry.notes, style="hl text")
     w.row = HEADER_ROWS
 
     w.start("inputs", "Inputs")
@@ -395,7 +399,10 @@ def _fv(w, r, fin, entry):
     elif tip == "convective":
         a_tip = (f"(2*PI()*{r['r2']}*{r['t']})" if annular else r["Ac"])
         gl = w.line("tip conductance G_N = 1/(dx/(2λA_N) + 1/(h A_tip)) [W/K]",
-                    formula=f"=1/({half}+1/({h}*{a_tip}))", fmt=F_E)
+                    formula=f"=1/({half}+1/({h}*{a_tip}))", fmt=F_E,
+                    note="with the constant h; the last iteration's tip coefficient "
+                         "(h(T), radiation) is inside the engine's a_P and b" if nonlinear
+                    else "")
         t_r = tinf
     elif tip == "temperature":
         gl = w.line("tip conductance G_N = 2 λ A_N/dx [W/K]", formula=f"=2*{k}*C{node_n}/{dx}",
