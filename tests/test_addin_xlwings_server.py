@@ -147,3 +147,48 @@ def test_error_cells_and_bad_arguments_come_back_as_text(xl):
     assert out[0][0].startswith("HL_TINTERFACES: temp_inside must be a number")
     # the error text is a plain string for the spreadsheet, never an error value
     assert isinstance(out[0][0], str) and not out[0][0].startswith("#")
+
+
+def test_calculation_sheet_renders_through_the_real_xlwings_object_model(xl):
+    """The renderer driving xlwings' own remote Book (the object model of xlwings Server and
+    xlwings Lite), which records every change as an action for the spreadsheet."""
+    from heatledger.sheet.plan import split_ref
+
+    macros = importlib.import_module("heatledger_xl.macros")
+    render = importlib.import_module("heatledger_xl.render_xlwings")
+    data = {"client": "Office.js", "version": xl.xlwings.__version__,
+            "book": {"name": "demo.xlsx", "active_sheet_index": 0, "selection": "A1"},
+            "names": [], "sheets": [{"name": "Sheet1", "values": [[""]], "pictures": [],
+                                     "tables": []}]}
+    book = xl.xlwings.Book(json=data)
+    plan = macros.construction_plan(WALL, 20.0, -5.0, name="EW1 demo wall")
+    report = render.render_plan(plan, book)
+    actions = book.json()["actions"]
+    values, formulas = {}, {}
+    for a in actions:
+        if a["func"] not in ("setValues", "setFormula"):
+            continue
+        assert a["sheet_position"] == 1  # the new sheet, after Sheet1: nothing else touched
+        for i, row in enumerate(a["values"]):
+            for j, v in enumerate(row):
+                key = (a["start_row"] + i + 1, a["start_column"] + j + 1)
+                if a["func"] == "setFormula":
+                    formulas[key] = v
+                elif v not in (None, ""):
+                    values[key] = v
+    assert any(a["func"] == "addSheet" and a["args"][1] == "EW1 demo wall" for a in actions)
+    n_formulas = 0
+    for cell in plan.sheets[0].cells():
+        key = split_ref(cell.ref)
+        if cell.formula is not None:
+            assert formulas[key] == cell.formula
+            n_formulas += 1
+        elif isinstance(cell.value, str) and cell.value:
+            assert values[key] == "'" + cell.value  # written as text
+        elif cell.value not in (None, ""):
+            assert values[key] == cell.value
+    assert n_formulas == report.formulas > 200
+    funcs = {a["func"] for a in actions}
+    assert {"addChart", "setChartTitle", "rangeMerge", "freezePaneAtRange", "setNumberFormat",
+            "setFontProperty", "setRangeColor", "setColumnWidth"} <= funcs
+    assert any("series names" in s for s in report.skipped)  # stated, not silently dropped

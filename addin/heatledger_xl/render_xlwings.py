@@ -96,9 +96,7 @@ def render_plan(plan: WorkbookPlan, book, *, replace: bool = False) -> RenderRep
         taken.add(report.sheets[s.name].lower())
     rename = {old: new for old, new in report.sheets.items() if old != new}
     app = getattr(book, "app", None)
-    updating = getattr(app, "screen_updating", None)
-    if app is not None and updating is not None:
-        app.screen_updating = False
+    updating = _screen_updating(app)
     try:
         for s in plan.sheets:
             target = report.sheets[s.name]
@@ -111,9 +109,27 @@ def render_plan(plan: WorkbookPlan, book, *, replace: bool = False) -> RenderRep
             _render_sheet(s, sheet, book, rename, report)
         _defined_names(plan, book, rename, report)
     finally:
-        if app is not None and updating is not None:
+        if updating is not None:
             app.screen_updating = updating
     return report
+
+
+def _screen_updating(app):
+    """Switch screen updating off while writing; return the setting to restore, or None.
+
+    The in-browser and server runtimes cannot report the setting (they only pause updating
+    until their next sync), so there is nothing to restore there."""
+    if app is None:
+        return None
+    try:
+        previous = app.screen_updating
+    except Exception:  # noqa: BLE001 - a runtime that cannot read it
+        previous = None
+    try:
+        app.screen_updating = False
+    except Exception:  # noqa: BLE001 - a runtime that cannot set it either
+        return None
+    return previous
 
 
 # --------------------------------------------------------------------------- one sheet
@@ -238,13 +254,27 @@ def _chart(sheet, book, spec: Chart, rename: dict, report: RenderReport) -> None
     chart.title = spec.title
     if first.categories:
         chart.set_x_axis_values(_range(book, first.categories, rename))
-    _series_look(chart.series[0], first)
+    styled = _try_series_look(chart, 0, first)
+    if not styled:
+        report.skipped.append(f"{sheet.name}: chart {spec.title!r} series names, markers and "
+                              "colours (this runtime cannot inspect chart series "
+                              "synchronously)")
     for s in spec.series[1:]:
         if not _add_series_native(chart, book, s, rename):
             report.skipped.append(f"{sheet.name}: chart {spec.title!r} series {s.title!r} "
                                   "(this platform's chart object cannot add a series)")
             continue
-        _series_look(chart.series[len(chart.series) - 1], s)
+        if styled:
+            _try_series_look(chart, -1, s)
+
+
+def _try_series_look(chart, index: int, spec) -> bool:
+    try:
+        series = chart.series
+        _series_look(series[len(series) - 1 if index < 0 else index], spec)
+    except (NotImplementedError, AttributeError, IndexError):
+        return False
+    return True
 
 
 def _series_look(series, spec) -> None:
