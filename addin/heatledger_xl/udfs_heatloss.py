@@ -15,7 +15,7 @@ still blank.
 - ``HL_SOIL_CONDUCTIVITY``: EN ISO 13370 Table 7 by soil type.
 - ``HL_VENTILATION_H``: ventilation heat-loss coefficient from an air flow in m3/h.
 - ``HL_ROOM_HT`` and ``HL_ROOM_LOAD``: transmission coefficient and design heat load of a
-  room from an element range (conventions below).
+  room from an element range (conventions below); ``HL_ROOM_SHARES`` spills the breakdown.
 - ``HL_ANNUAL_ENERGY``: degree-day annual heating energy, with the base temperature stated.
 
 Element-range conventions (one row per element or thermal bridge, a blank row ends it):
@@ -43,6 +43,8 @@ under the local code.
 
 from __future__ import annotations
 
+import math
+
 from heatledger.errors import HeatLedgerError
 from heatledger.ground import (
     SOIL_TYPES,
@@ -68,7 +70,7 @@ from heatledger.heatloss import (
 )
 from heatledger.windows import window_u
 
-from .ranges import ERROR_VALUES, number, text
+from .ranges import ERROR_VALUES, flag, number, text
 from .registry import udf
 
 __all__ = [
@@ -80,6 +82,7 @@ __all__ = [
     "HL_VENTILATION_H",
     "HL_ROOM_HT",
     "HL_ROOM_LOAD",
+    "HL_ROOM_SHARES",
     "HL_ANNUAL_ENERGY",
 ]
 
@@ -147,6 +150,7 @@ _D = {
     "heat_loss_coefficient": "Heat-loss coefficient H = H_T + H_V. [W/K]",
     "degree_days": "Heating degree-days on the stated base. [K day]",
     "base_temperature": "Base temperature of the degree-days (stated for the record). [degC]",
+    "header": "TRUE adds a first row of column titles with units; default FALSE. [-]",
 }
 
 
@@ -196,8 +200,13 @@ def HL_SLAB_U(area, exposed_perimeter, wall_thickness_mm, floor_resistance,
     edge = _edge(edge_orientation, edge_extent, edge_resistance, edge_thickness_mm)
     a, p, w = _floor(area, exposed_perimeter, wall_thickness_mm)
     rf = _resistance("floor_resistance", floor_resistance)
-    return float(slab_on_ground_u(a, p, w, rf, soil_conductivity=lam, edge_insulation=edge,
-                                  exposed_outline=outline))
+    try:
+        return float(slab_on_ground_u(a, p, w, rf, soil_conductivity=lam,
+                                      edge_insulation=edge, exposed_outline=outline))
+    except HeatLedgerError as exc:
+        if str(exc).startswith("edge insulation"):
+            raise HeatLedgerError(f"edge_resistance and edge_thickness_mm: {exc}") from None
+        raise
 
 
 @udf(FAMILY, returns="U [W/(m2 K)]",
@@ -289,6 +298,26 @@ def HL_ROOM_LOAD(elements, temp_room, temp_external, ventilation_coefficient=Non
                     unit="W")
     room = _room(elements, temp_room, temp_external, h_v, phi_hu)
     return room.design_heat_load(room.design_external_temperature)
+
+
+@udf(FAMILY, returns="spill: line, kind, H [W/K], heat flow [W], share [-]",
+     args={**_ROOM_ARGS, **_args("ventilation_coefficient", "reheat", "header")},
+     ranges=("elements",), spills=True)
+def HL_ROOM_SHARES(elements, temp_room, temp_external, ventilation_coefficient=None,
+                   reheat=None, header=None):
+    """Breakdown of a room's design heat load: one row per element row, then ventilation and
+    heating-up, with H, heat flow and share of Phi_HL (EN 12831-1 style). [W/K, W, -]"""
+    show_header = flag("header", header, False)
+    h_v = number("ventilation_coefficient", ventilation_coefficient, 0.0, low=0.0,
+                 high=MAX_QUANTITY, low_inclusive=True, unit="W/K")
+    phi_hu = number("reheat", reheat, 0.0, low=0.0, high=MAX_QUANTITY, low_inclusive=True,
+                    unit="W")
+    room = _room(elements, temp_room, temp_external, h_v, phi_hu)
+    res = room.heat_load(room.design_external_temperature)
+    rows = [[ln.name, ln.kind, ln.coefficient, ln.heat_flow,
+             ln.share if math.isfinite(ln.share) else None] for ln in res.lines]
+    titles = ["line", "kind", "H [W/K]", "heat flow [W]", "share [-]"]
+    return [titles] + rows if show_header else rows
 
 
 @udf(FAMILY, returns="annual heating energy [kWh]",
