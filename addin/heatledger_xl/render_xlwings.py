@@ -195,11 +195,14 @@ def _runs(columns):
 
 
 def _styles(sheet, cells: dict, positions: dict) -> None:
+    """Apply styles as few rectangles as possible: runs of equal style along a row, then
+    equal runs stacked in consecutive rows (one call sequence per rectangle)."""
     by_row: dict[int, dict[int, tuple]] = {}
     for ref, cell in cells.items():
         r, c = positions[ref]
         fmt = cell.number_format or STYLES[cell.style].number_format
         by_row.setdefault(r, {})[c] = (cell.style, fmt)
+    runs: dict[tuple, list[int]] = {}
     for r, row in sorted(by_row.items()):
         cols = sorted(row)
         start = prev = cols[0]
@@ -207,11 +210,21 @@ def _styles(sheet, cells: dict, positions: dict) -> None:
             if c is not None and c == prev + 1 and row[c] == row[start]:
                 prev = c
                 continue
-            style, fmt = row[start]
-            _apply_style(sheet.range(f"{col_letter(start)}{r}:{col_letter(prev)}{r}"),
-                         style, fmt)
+            runs.setdefault((start, prev, row[start]), []).append(r)
             if c is not None:
                 start = prev = c
+    rectangles = []
+    for (c0, c1, key), rows in runs.items():
+        top = last = rows[0]
+        for r in rows[1:] + [None]:
+            if r is not None and r == last + 1:
+                last = r
+                continue
+            rectangles.append((top, c0, last, c1, key))
+            if r is not None:
+                top = last = r
+    for top, c0, bottom, c1, (style, fmt) in sorted(rectangles):
+        _apply_style(sheet.range(f"{col_letter(c0)}{top}:{col_letter(c1)}{bottom}"), style, fmt)
 
 
 def _apply_style(rng, style_name: str, number_format: str) -> None:
