@@ -304,7 +304,8 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     info = project.info
     b = sheet.block("cover")
     b.put("B1", "heatledger calculation record", style="hl title")
-    b.put("B2", "Thermal resistance, U-values and temperatures through constructions",
+    b.put("B2", "Thermal resistance, U-values and temperatures through constructions; heat "
+                "loss and fins where the project has them",
           role="note")
     r = 4
     b.put(f"B{r}", "Project information", style="hl subtitle")
@@ -364,7 +365,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
                  + _heatloss_topics(project)[1]):
         b.put(f"B{r}", "!")
         b.put(f"C{r}", text, style="hl warning")
-        sheet.row_heights[r] = _height(text, 70)
+        sheet.row_heights[r] = _height(text, 78)
         r += 1
     r += 1
     b.put(f"B{r}", "How to read this workbook", style="hl subtitle")
@@ -381,7 +382,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
         r += 1
 
 
-def _height(text: str, per_line: int = 80) -> float:
+def _height(text: str, per_line: int = 88) -> float:
     """Row height in points for ``text`` wrapped in the cover's wide column."""
     lines = max(1, -(-len(text) // per_line))
     return 13.5 * lines + 2.0
