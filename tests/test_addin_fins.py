@@ -317,3 +317,43 @@ def test_a_bad_optional_argument_is_named_even_with_blank_required_ones(name, ba
         out = spec.function(*args)
         assert isinstance(out, str) and out.startswith(f"{name}: ") and a.name in out, (
             a.name, bad, out)
+
+
+_SPEC_NUMBERS = st.one_of(st.floats(min_value=1e-6, max_value=1e6),
+                          st.floats(allow_nan=False, allow_infinity=False),
+                          st.integers(min_value=-5, max_value=10**7))
+_SPEC_KEYS = ["h", "base_temperature", "ambient", "length_mm", "thickness_mm", "width_mm",
+              "count", "base_area", "contact_resistance", "target_heat_rate", "cells",
+              "emissivity", "temp_surroundings", "h_coefficient", "h_exponent",
+              "tube_diameter_mm", "fin_diameter_mm", "diameter_mm", "conductivity",
+              "tip_temperature"]
+_SPEC_TEXTS = {"tip": ["convective", "adiabatic", "temperature", "infinite"],
+               "profile": ["rectangular", "triangular", "parabolic"],
+               "corrected_length": [True, False]}
+
+
+@st.composite
+def near_valid_specs(draw):
+    """A valid heat-sink or finned-tube spec with a few values replaced (reaches the array,
+    the sizing and the non-linear finite volumes)."""
+    if draw(st.booleans()):
+        base = {r[0]: r[1] for r in SINK[1:]}
+    else:
+        base = {"kind": "annular", "conductivity": 200.0, "h": 58.0, "base_temperature": 80.0,
+                "ambient": 20.0, "tube_diameter_mm": 25.4, "fin_diameter_mm": 57.15,
+                "thickness_mm": 0.38, "count": 100, "base_area": 0.08}
+    for key in draw(st.lists(st.sampled_from(_SPEC_KEYS), max_size=4)):
+        base[key] = draw(_SPEC_NUMBERS)
+    for key in draw(st.lists(st.sampled_from(list(_SPEC_TEXTS)), max_size=2)):
+        base[key] = draw(st.sampled_from(_SPEC_TEXTS[key]))
+    return [[k, v] for k, v in base.items()]
+
+
+@settings(max_examples=200, deadline=DEADLINE_MS,
+          suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+@given(spec=near_valid_specs(), quantity=st.sampled_from(
+    [None, "array_heat_rate", "count_for_target", "length_for_target_mm",
+     "fv_nonlinear_heat_rate"]))
+def test_near_valid_fin_sets_never_raise(spec, quantity):
+    check_result("HL_FINSET", uf.HL_FINSET(spec, True))
+    check_result("HL_FINSET_VALUE", uf.HL_FINSET_VALUE(spec, quantity))

@@ -560,6 +560,14 @@ def _blank(value) -> bool:
 
 
 def _finset_rows(entry):
+    try:
+        return _finset_rows_of(entry)
+    except HeatLedgerError as exc:  # name the argument the values came from
+        text_ = str(exc)
+        raise HeatLedgerError(text_ if text_.startswith("spec") else f"spec: {text_}") from None
+
+
+def _finset_rows_of(entry):
     rows = _result_rows(entry.fin, entry.base_temperature, entry.ambient, entry.fv.cells)
     warns = [r for r in rows if r[0] == "warning"]
     rows = [r for r in rows if r[0] != "warning"]
