@@ -192,3 +192,32 @@ def test_calculation_sheet_renders_through_the_real_xlwings_object_model(xl):
     assert {"addChart", "setChartTitle", "rangeMerge", "freezePaneAtRange", "setNumberFormat",
             "setFontProperty", "setRangeColor", "setColumnWidth"} <= funcs
     assert any("series names" in s for s in report.skipped)  # stated, not silently dropped
+
+
+def test_calculation_sheet_script_runs_through_custom_scripts_call(xl):
+    """The button script as xlwings Server / Lite runs it: the runtime injects the book, the
+    script reads the selected layer table and the named design temperatures."""
+    macros = importlib.import_module("heatledger_xl.macros")
+    values = [row + [None, None, None] for row in WALL]
+    for i, (label, value) in enumerate([("inside", 20.0), ("outside", -5.0),
+                                        ("name", "EW1 demo wall")]):
+        values[i][4], values[i][5] = label, value
+    values = [["" if v is None else v for v in row] for row in values]
+    names = [{"name": n, "sheet_index": 0, "address": a, "book_scope": True,
+              "scope_sheet_name": None, "scope_sheet_index": None, "refers_to": f"=Inputs!{a}"}
+             for n, a in (("hl_temp_inside", "$F$1"), ("hl_temp_outside", "$F$2"),
+                          ("hl_construction", "$F$3"))]
+    data = {"client": "Office.js", "version": xl.xlwings.__version__,
+            "book": {"name": "demo.xlsx", "active_sheet_index": 0, "selection": "A1:C6"},
+            "names": names, "sheets": [{"name": "Inputs", "values": values, "pictures": [],
+                                        "tables": []}]}
+    book = xl.xlwings.Book(json=data)
+    asyncio.run(xl.server.custom_scripts_call(macros, "HL_CALC_SHEET",
+                                              typehint_to_value={xl.xlwings.Book: book}))
+    actions = book.json()["actions"]
+    added = [a["args"] for a in actions if a["func"] == "addSheet"]
+    assert added == [[1, "EW1 demo wall"]]
+    formulas = [a for a in actions if a["func"] == "setFormula"]
+    assert len(formulas) > 50
+    meta = xl.server.custom_scripts_meta(macros)
+    assert [m["function_name"] for m in meta] == ["HL_CALC_SHEET"]
