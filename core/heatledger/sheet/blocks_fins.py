@@ -382,6 +382,11 @@ def _fv(w, r, fin, entry):
     w.stated("emissivity for radiation to the surroundings [-]", st["emissivity"], "0.000")
     w.stated("linearisation; iterations; tolerance [K]",
              f"{st['linearisation']}; {fv.iterations}; {st['tolerance_K']:g}")
+    if nonlinear:
+        w.put(2, "Non-linear loss (h(T) or radiation): a_P and b are the engine's last "
+                 "linearisation (Patankar 1980, 7.2), stated as values; G, a_W, a_E, the "
+                 "sweep and the loss at the final temperatures are formulas.", role="note")
+        w.row += 1
     k, h, tinf = r["k"], r["h"], r["tinf"]
     sig = None
     if nonlinear:
