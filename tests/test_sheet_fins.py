@@ -103,7 +103,7 @@ def _fin_sheets(plan):
 
 
 @pytest.mark.calc
-def test_every_fin_check_ok_and_values_equal_engine(project, tmp_path, recalc):
+def test_every_fin_check_ok_and_values_equal_engine(project, tmp_path, recalc, stale_value):
     plan = audit.audit_plan(project)
     wb = openpyxl.load_workbook(recalc(write_workbook(plan, tmp_path / "fins.xlsx")),
                                 data_only=True)
@@ -115,6 +115,12 @@ def test_every_fin_check_ok_and_values_equal_engine(project, tmp_path, recalc):
     cover = {r[0]: r[1] for r in wb["Cover"].iter_rows(min_col=2, max_col=3, values_only=True)}
     assert cover["State"] == "ALL CHECKS OK"
     assert cover["Check cells in the workbook"] == len(list(plan.cells_with_role("check")))
+    # no formula anywhere on the fin sheets gives an error or kept its planted stale value
+    broken = [(s.name, c.ref, wb[s.name][c.ref].value) for s in _fin_sheets(plan)
+              for c in s.cells() if c.formula
+              and (wb[s.name][c.ref].value == stale_value
+                   or str(wb[s.name][c.ref].value).startswith(("#", "Err:")))]
+    assert not broken, broken[:10]
 
     for entry in project.fins:
         refs = plan.index[("fins", entry.name)]
