@@ -133,20 +133,33 @@ def test_room_load_and_transmission_by_hand():
            + 18 * 0.1 + 4 * 0.25)
     assert udfs.HL_ROOM_HT(table, ti, te) == pytest.approx(h_t, rel=rtol_same)
     h_v = udfs.HL_VENTILATION_H(90.0)
-    load = udfs.HL_ROOM_LOAD(table, ti, te, h_v, 150.0)
+    load = udfs.HL_ROOM_LOAD(table, ti, te, None, None, h_v, 150.0)
     assert load == pytest.approx((h_t + h_v) * (ti - te) + 150.0, rel=rtol_same)
 
 
 def test_shares_spill_adds_up_to_the_load():
     table = [["wall", 20.0, 0.2], ["window", 4.0, 1.3], ["linear", 10.0, 0.05]]
-    out = udfs.HL_ROOM_SHARES(table, 20.0, -5.0, 30.0, 200.0, True)
+    out = udfs.HL_ROOM_SHARES(table, 20.0, -5.0, None, None, 30.0, 200.0, True)
     assert out[0][0] == "line" and [r[1] for r in out[1:]] == [
         "wall", "window", "linear bridge", "ventilation", "reheat"]
-    load = udfs.HL_ROOM_LOAD(table, 20.0, -5.0, 30.0, 200.0)
+    load = udfs.HL_ROOM_LOAD(table, 20.0, -5.0, None, None, 30.0, 200.0)
     assert sum(r[3] for r in out[1:]) == pytest.approx(load, rel=rtol_same)
     assert sum(r[4] for r in out[1:]) == pytest.approx(1.0, rel=rtol_same)
     # source: EN 12831-1 clause 6 [from memory]: the wall's share is A U dT / Phi_HL
     assert out[1][4] == pytest.approx(20 * 0.2 * 25 / load, rel=rtol_same)
+
+
+def test_ground_rows_use_the_ground_factors():
+    u_floor = udfs.HL_SLAB_U(100, 40, 300, 2.0, 1.5)
+    table = [["floor", 100.0, u_floor, "ground"]]
+    # source: EN 12831-1:2017 clause 6, H_T,ig = f_g1 f_g2 A U_equiv G_w with f_g1 = 1.45,
+    # f_g2 = (theta_int - theta_m,e)/(theta_int - theta_e), G_w 1.15 shallow [from memory;
+    # REFERENCES.md section 5]
+    f = 1.45 * (20.0 - 9.0) / (20.0 - (-12.0)) * 1.15
+    assert udfs.HL_ROOM_HT(table, 20.0, -12.0, 9.0, "shallow") == pytest.approx(
+        100 * u_floor * f, rel=rtol_same)
+    out = udfs.HL_ROOM_HT(table, 20.0, -12.0)
+    assert isinstance(out, str) and "annual_mean_external_temperature" in out
 
 
 def test_a_room_facing_only_its_own_temperature_loses_nothing():
@@ -227,13 +240,16 @@ PLAUSIBLE = {
     "heat_recovery": st.one_of(st.none(), st.floats(0, 1)),
     "elements": st.lists(st.tuples(
         st.sampled_from(["wall", "roof", "floor", "window", "door", "linear", "point"]),
-        st.floats(0.01, 100), st.floats(0, 5), st.one_of(st.none(), st.floats(-10, 30)),
+        st.floats(0.01, 100), st.floats(0, 5),
+        st.one_of(st.none(), st.floats(-10, 30), st.just("ground")),
         st.none(), st.one_of(st.none(), st.floats(0, 0.2))).map(list), max_size=8),
     "temp_room": st.floats(5, 30), "temp_external": st.floats(-30, 4),
     "ventilation_coefficient": st.one_of(st.none(), st.floats(0, 500)),
     "reheat": st.one_of(st.none(), st.floats(0, 2000)),
     "heat_loss_coefficient": st.floats(0, 5000), "degree_days": st.floats(0, 6000),
     "base_temperature": st.floats(8, 20),
+    "annual_mean_external_temperature": st.one_of(st.none(), st.floats(-5, 20)),
+    "groundwater": st.sampled_from([None, "deep", "shallow"]),
     "header": st.one_of(st.none(), st.booleans()),
 }
 

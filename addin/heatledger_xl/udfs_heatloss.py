@@ -28,9 +28,12 @@ col  heading (suggested)        rule
                                 (psi times length) or ``point`` (chi times count).
 2    quantity                   Area [m2], length [m] or count [-].
 3    transmittance              U [W/(m2 K)], psi [W/(m K)] or chi [W/K].
-4    temperature other side     [degC]; blank = outside air at ``temp_external``.
+4    temperature other side     [degC]; blank = outside air at ``temp_external``; the text
+                                ``ground`` = the ground (EN 12831-1 factor f_g1 f_g2 G_w
+                                from ``annual_mean_external_temperature`` and
+                                ``groundwater``; U_equiv from ``HL_SLAB_U`` ...).
 5    adjustment factor b        [-], 0 to 1, instead of column 4 (unheated space of unknown
-                                temperature, or the ground factor f_g1 f_g2 G_w).
+                                temperature).
 6    Delta U_TB                 [W/(m2 K)], blanket thermal-bridge allowance (areas only).
 ==== ========================== =========================================================
 
@@ -58,8 +61,11 @@ from heatledger.heatloss import (
     AIR_DENSITY,
     AIR_SPECIFIC_HEAT,
     ELEMENT_KINDS,
+    GROUNDWATER_FACTOR_DEEP,
+    GROUNDWATER_FACTOR_SHALLOW,
     AdjacentRoom,
     Element,
+    Ground,
     LinearBridge,
     Outside,
     PointBridge,
@@ -140,8 +146,12 @@ _D = {
     "heat_recovery": "Heat-recovery temperature efficiency on this flow, 0 to 1; blank = 0. "
                      "[-]",
     "elements": ("Element range: kind (wall...door, linear, point), quantity, U/psi/chi, "
-                 "temperature on the other side (blank = outside), factor b, Delta U_TB. "
-                 "[m2 or m, W/(m2 K), degC, -]"),
+                 "temperature on the other side (blank = outside, \"ground\"), factor b, "
+                 "Delta U_TB. [m2 or m, W/(m2 K), degC, -]"),
+    "annual_mean_external_temperature": ("Annual mean external temperature theta_m,e for "
+                                         "rows marked \"ground\". [degC]"),
+    "groundwater": ("\"deep\" (water table more than 1 m below the floor, G_w 1.00, default) "
+                    "or \"shallow\" (G_w 1.15). [-]"),
     "temp_room": "Design internal temperature of the room. [degC]",
     "temp_external": "Design external temperature, below temp_room. [degC]",
     "ventilation_coefficient": "Ventilation heat-loss coefficient H_V (HL_VENTILATION_H); "
@@ -274,37 +284,41 @@ def HL_VENTILATION_H(air_flow_m3_per_h, heat_recovery=None):
 
 
 # --------------------------------------------------------------------------- rooms
-_ROOM_ARGS = _args("elements", "temp_room", "temp_external")
+_ROOM_ARGS = _args("elements", "temp_room", "temp_external",
+                   "annual_mean_external_temperature", "groundwater")
 
 
 @udf(FAMILY, returns="H_T [W/K]", args=_ROOM_ARGS, ranges=("elements",))
-def HL_ROOM_HT(elements, temp_room, temp_external):
+def HL_ROOM_HT(elements, temp_room, temp_external, annual_mean_external_temperature=None,
+               groundwater=None):
     """Transmission heat-loss coefficient H_T = sum A (U + dU_TB) f + sum psi l f + sum chi f
     of a room's element range (EN 12831-1 style). [W/K]"""
-    room = _room(elements, temp_room, temp_external, 0.0, 0.0)
+    ground = _ground(annual_mean_external_temperature, groundwater)
+    room = _room(elements, temp_room, temp_external, 0.0, 0.0, ground)
     return room.heat_load(room.design_external_temperature).transmission_coefficient
 
 
 @udf(FAMILY, returns="design heat load [W]",
      args={**_ROOM_ARGS, **_args("ventilation_coefficient", "reheat")},
      ranges=("elements",))
-def HL_ROOM_LOAD(elements, temp_room, temp_external, ventilation_coefficient=None,
-                 reheat=None):
+def HL_ROOM_LOAD(elements, temp_room, temp_external, annual_mean_external_temperature=None,
+                 groundwater=None, ventilation_coefficient=None, reheat=None):
     """Design heat load of a room Phi_HL = (H_T + H_V)(temp_room - temp_external) + Phi_hu
     from its element range (EN 12831-1 style). [W]"""
     h_v = number("ventilation_coefficient", ventilation_coefficient, 0.0, low=0.0,
                  high=MAX_QUANTITY, low_inclusive=True, unit="W/K")
     phi_hu = number("reheat", reheat, 0.0, low=0.0, high=MAX_QUANTITY, low_inclusive=True,
                     unit="W")
-    room = _room(elements, temp_room, temp_external, h_v, phi_hu)
+    ground = _ground(annual_mean_external_temperature, groundwater)
+    room = _room(elements, temp_room, temp_external, h_v, phi_hu, ground)
     return room.design_heat_load(room.design_external_temperature)
 
 
 @udf(FAMILY, returns="spill: line, kind, H [W/K], heat flow [W], share [-]",
      args={**_ROOM_ARGS, **_args("ventilation_coefficient", "reheat", "header")},
      ranges=("elements",), spills=True)
-def HL_ROOM_SHARES(elements, temp_room, temp_external, ventilation_coefficient=None,
-                   reheat=None, header=None):
+def HL_ROOM_SHARES(elements, temp_room, temp_external, annual_mean_external_temperature=None,
+                   groundwater=None, ventilation_coefficient=None, reheat=None, header=None):
     """Breakdown of a room's design heat load: one row per element row, then ventilation and
     heating-up, with H, heat flow and share of Phi_HL (EN 12831-1 style). [W/K, W, -]"""
     show_header = flag("header", header, False)
@@ -312,7 +326,8 @@ def HL_ROOM_SHARES(elements, temp_room, temp_external, ventilation_coefficient=N
                  high=MAX_QUANTITY, low_inclusive=True, unit="W/K")
     phi_hu = number("reheat", reheat, 0.0, low=0.0, high=MAX_QUANTITY, low_inclusive=True,
                     unit="W")
-    room = _room(elements, temp_room, temp_external, h_v, phi_hu)
+    ground = _ground(annual_mean_external_temperature, groundwater)
+    room = _room(elements, temp_room, temp_external, h_v, phi_hu, ground)
     res = room.heat_load(room.design_external_temperature)
     rows = [[ln.name, ln.kind, ln.coefficient, ln.heat_flow,
              ln.share if math.isfinite(ln.share) else None] for ln in res.lines]
@@ -395,13 +410,21 @@ def _edge(orientation, extent, resistance, thickness_mm):
     return EdgeInsulation(o, d, rn, dn / 1000.0)
 
 
-def _room(cells, temp_room, temp_external, h_v, phi_hu):
+def _ground(annual_mean_external_temperature, groundwater):
+    """(theta_m,e or None, G_w) for rows marked "ground"."""
+    gw = _choice("groundwater", groundwater, ("deep", "shallow"), "deep")
+    tme = number("annual_mean_external_temperature", annual_mean_external_temperature, None,
+                 low=-100.0, high=100.0, unit="degC")
+    return tme, GROUNDWATER_FACTOR_SHALLOW if gw == "shallow" else GROUNDWATER_FACTOR_DEEP
+
+
+def _room(cells, temp_room, temp_external, h_v, phi_hu, ground):
     ti = number("temp_room", temp_room, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
     te = number("temp_external", temp_external, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
     if not te < ti:
         raise HeatLedgerError(f"temp_external {te:g} degC must be below temp_room {ti:g} degC "
                               "for a design heat load")
-    elements, bridges = _element_rows(cells)
+    elements, bridges = _element_rows(cells, ground)
     vent = Ventilation("flow", ventilation=h_v / _VOLUMETRIC)
     try:
         return Room("room", ti, 1.0, elements, vent, thermal_bridges=bridges,
@@ -412,7 +435,7 @@ def _room(cells, temp_room, temp_external, h_v, phi_hu):
                               ) from None
 
 
-def _element_rows(cells):
+def _element_rows(cells, ground):
     if cells is None or not isinstance(cells, (list, tuple)):
         raise HeatLedgerError("elements must be a range of 2 to 6 columns: kind, quantity, "
                               "transmittance, temperature, factor, Delta U_TB")
@@ -439,15 +462,20 @@ def _element_rows(cells):
                    unit="m2, m or count")
         t = number(f"{where} transmittance", row[2], low=-_MAX_U, high=_MAX_U,
                    unit="W/(m2 K), W/(m K) or W/K")
-        temp = number(f"{where} temperature", row[3], None, low=_ABS_ZERO, high=_MAX_TEMP,
-                      unit="degC")
+        on_ground = isinstance(row[3], str) and row[3].strip().lower() == "ground"
+        temp = None if on_ground else number(f"{where} temperature", row[3], None,
+                                             low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
         b = number(f"{where} factor", row[4], None, low=0.0, high=1.0, low_inclusive=True)
         dutb = number(f"{where} Delta U_TB", row[5], 0.0, low=0.0, high=_MAX_U,
                       low_inclusive=True, unit="W/(m2 K)")
-        if temp is not None and b is not None:
-            raise HeatLedgerError(f"{where}: give a temperature (column 4) or a factor "
-                                  "(column 5), not both")
-        boundary = (Outside() if temp is None and b is None else
+        if (temp is not None or on_ground) and b is not None:
+            raise HeatLedgerError(f"{where}: give a temperature or \"ground\" (column 4) or "
+                                  "a factor (column 5), not both")
+        if on_ground and ground[0] is None:
+            raise HeatLedgerError(f"{where} is marked ground: give "
+                                  "annual_mean_external_temperature (theta_m,e)")
+        boundary = (Ground(ground[0], groundwater_factor=ground[1]) if on_ground else
+                    Outside() if temp is None and b is None else
                     Unheated(adjustment_factor=b) if b is not None else
                     AdjacentRoom(temperature=temp))
         label = f"row {n}"
