@@ -12,12 +12,13 @@ from __future__ import annotations
 import copy
 import math
 import re
+from pathlib import Path
 
 import openpyxl
 import pytest
 
 from heatledger.cli import demo_bytes, demo_project
-from heatledger.project import project_from_dict, tomllib
+from heatledger.project import load_project, project_from_dict, tomllib
 from heatledger.sheet import audit
 from heatledger.sheet.blocks_heatloss import BUILDING_SHEET, add_heatloss_sheets
 from heatledger.sheet.plan import WorkbookPlan
@@ -239,3 +240,22 @@ def test_sheets_are_deterministic_and_room_names_stay_text(demo):
     assert texts and all(c.formula is None for c in plan.sheet(BUILDING_SHEET).cells()
                          if c.value == "=1+1 workshop")
     assert refs.sheets[0].startswith("Room 1")
+
+
+README_EXAMPLE = Path(__file__).with_name("data") / "heatloss_readme_example.toml"
+
+
+@pytest.mark.calc
+def test_readme_example_audit_all_checks_ok(tmp_path, recalc):
+    """The README's complete [[rooms]] example (every method and boundary) through the audit,
+    where basement-wall and floor resistances refer to the construction sheets."""
+    project = load_project(README_EXAMPLE)
+    plan = audit.audit_plan(project)
+    path = write_workbook(plan, tmp_path / "readme.xlsx")
+    wb = openpyxl.load_workbook(recalc(path), data_only=True)
+    refs = plan.index["heat loss"]
+    _assert_checks_and_engine(project, plan, refs, wb)
+    methods = {type(el.u).__name__ for r in project.building.rooms for el in r.elements}
+    assert {"str", "WindowResult", "DeclaredWindow", "GroundFloorU"} <= methods
+    formulas = [c.formula for s in refs.sheets for c in plan.sheet(s).cells() if c.formula]
+    assert any("-0.13-0.04" in f for f in formulas)  # R_w = R_T - Rsi - Rse of W1, live
