@@ -456,3 +456,41 @@ def test_report_lists_what_xlwings_cannot_write():
     report = render_xlwings.render_plan(plan_of_wall(), RecordingBook())
     assert any("print setup" in s for s in report.skipped)
     assert col_letter(1) == "A"  # plan helpers shared by both renderers
+
+
+@pytest.mark.parametrize("which", ["audit", "template"])
+def test_whole_workbooks_render_the_same_through_both_renderers(which):
+    """The demo project's audit (cover, materials, every construction, fins and rooms,
+    summary; cross-sheet formulas and defined names) and the fill-in template (drop-down
+    lists) through both renderers."""
+    from heatledger.cli import demo_project
+    from heatledger.sheet.audit import audit_plan
+    from heatledger.sheet.template import template_plan
+
+    plan = audit_plan(demo_project()) if which == "audit" else template_plan()
+    wb = openpyxl_cells(plan)
+    book = RecordingBook()
+    report = render_xlwings.render_plan(plan, book)
+    assert list(report.sheets) == [s.name for s in plan.sheets] == wb.sheetnames
+    rtol_file = 1e-15  # openpyxl writes numbers with 16 significant digits
+    for ps in plan.sheets:
+        ws, rec = wb[ps.name], book.sheets[ps.name]
+        formulas = {(c.row, c.column): c.value for row in ws.iter_rows() for c in row
+                    if c.data_type == "f"}
+        values = {(c.row, c.column): c.value for row in ws.iter_rows() for c in row
+                  if c.value is not None and c.data_type != "f"}
+        assert rec.formulas == formulas, ps.name
+        assert rec.values.keys() == values.keys(), ps.name
+        for rc, v in values.items():
+            got = rec.values[rc]
+            if isinstance(v, (int, float)) and not isinstance(v, bool):
+                assert got == pytest.approx(v, rel=rtol_file), (ps.name, rc)
+            elif hasattr(v, "date") and not isinstance(got, type(v)):
+                assert got == v.date(), (ps.name, rc)  # a date cell reads back as datetime
+            else:
+                assert got == v, (ps.name, rc)
+        assert sorted(rec.merges) == sorted(str(r) for r in ws.merged_cells.ranges)
+        assert len(rec.charts) == len(ps.charts)
+        assert len(rec.validations) == len(ps.validations)
+    names = {n.name: n.refers_to for n in book.names}
+    assert names == {k: "=" + v for k, v in plan.defined_names.items()}

@@ -16,10 +16,13 @@ vertical_alignment/borders/merge/column_width/row_height``, ``Sheet.freeze_panes
   thin box or bottom rule;
 - merges, column widths, row heights, frozen panes, charts (type, title, first series with
   its x values; further series through the native chart object where the platform offers
-  one), drop-down lists, defined names that do not exist yet in the book.
+  one), drop-down lists, defined names that do not exist yet in the book. Charts and
+  drop-down lists are added once every sheet exists, since they may refer to later sheets.
 
 Not written (xlwings has no portable call for them): print setup (orientation, fit to
-page, header and footer), page breaks and tab colours. :class:`RenderReport` lists them.
+page, header and footer), page breaks, tab colours and the prompt/error texts of drop-down
+lists; in xlwings Lite/Server also the names, markers and colours of chart series and
+series beyond the first. :class:`RenderReport` lists every one of them.
 
 Nothing is written outside the book given; an existing sheet is never overwritten unless
 ``replace=True`` (otherwise the new sheet gets a free name such as ``"EW1 (2)"`` and the
@@ -97,6 +100,7 @@ def render_plan(plan: WorkbookPlan, book, *, replace: bool = False) -> RenderRep
     rename = {old: new for old, new in report.sheets.items() if old != new}
     app = getattr(book, "app", None)
     updating = _screen_updating(app)
+    written = []
     try:
         for s in plan.sheets:
             target = report.sheets[s.name]
@@ -107,6 +111,13 @@ def render_plan(plan: WorkbookPlan, book, *, replace: bool = False) -> RenderRep
                 last = book.sheets[len(book.sheets) - 1] if len(book.sheets) else None
                 sheet = book.sheets.add(target, after=last)
             _render_sheet(s, sheet, book, rename, report)
+            written.append((s, sheet))
+        # charts and drop-down lists may refer to sheets written later: add them last
+        for s, sheet in written:
+            for chart in s.charts:
+                _chart(sheet, book, chart, rename, report)
+            for dv in s.validations:
+                _validation(sheet, book, dv, rename, report)
         _defined_names(plan, book, rename, report)
     finally:
         if updating is not None:
@@ -163,10 +174,6 @@ def _render_sheet(plan_sheet: Sheet, sheet, book, rename: dict, report: RenderRe
         sheet.range(f"{row}:{row}").row_height = height
     if plan_sheet.freeze:
         sheet.freeze_panes.freeze_at(plan_sheet.freeze)
-    for chart in plan_sheet.charts:
-        _chart(sheet, book, chart, rename, report)
-    for dv in plan_sheet.validations:
-        _validation(sheet, book, dv, rename, report)
     name = plan_sheet.name
     report.skipped.append(f"{name}: print setup (orientation, fit to page, header/footer) "
                           "has no portable xlwings call; set it in Page Layout")
@@ -323,6 +330,10 @@ def _validation(sheet, book, dv, rename, report) -> None:
         target.set_list(source)
     except Exception as exc:  # noqa: BLE001 - report, do not stop the sheet
         report.skipped.append(f"{sheet.name}: drop-down list on {dv.cells} ({exc})")
+        return
+    if dv.prompt or dv.error:
+        report.skipped.append(f"{sheet.name}: prompt and error texts of the drop-down list on "
+                              f"{dv.cells} (xlwings sets the list only)")
 
 
 def _defined_names(plan: WorkbookPlan, book, rename: dict, report: RenderReport) -> None:
