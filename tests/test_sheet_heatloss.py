@@ -66,7 +66,7 @@ def variety_data() -> dict:
             {"name": "Wall to garage", "method": "construction",
              "construction": "EW2 masonry cavity wall", "area": 10.0, "boundary": "unheated",
              "adjustment_factor": 0.5, "thermal_bridge_allowance": 0.05},
-            {"name": "Wall to neighbour", "method": "declared", "u_value": 0.8,
+            {"name": "OK", "method": "declared", "u_value": 0.8,  # a name that reads OK
              "u_source": "invented", "area": 9.0, "boundary": "adjacent",
              "temp_adjacent": 15.0},
             {"name": "Wall to office", "method": "declared", "u_value": 0.6,

@@ -155,14 +155,17 @@ class _W:
         self.sheet.row_heights[self.row] = 27.0
         self.row += 1
 
-    def counters(self, last_row: int, last_col: str) -> tuple[str, str]:
-        """Fill the check counters of the header (F4:J6); return (count, ok) refs."""
+    def counters(self, last_row: int, columns: str) -> tuple[str, str]:
+        """Fill the check counters of the header (F4:J6); return (count, ok) refs.
+
+        Only the check columns are counted, so a name that reads "OK" is not a check.
+        """
         self.block = self.sheet.block("header")
         self.put(6, "Check cells on this sheet", row=4)
         count = self.put(10, self.checks, role="engine", fmt="0", row=4)
         self.put(6, "Check cells that say OK", row=5)
-        ok = self.put(10, formula=f'=COUNTIF(A{HEADER_ROWS + 1}:{last_col}{last_row},"OK")',
-                      fmt="0", row=5)
+        terms = "+".join(f'COUNTIF({c}{HEADER_ROWS + 1}:{c}{last_row},"OK")' for c in columns)
+        ok = self.put(10, formula=f"={terms}", fmt="0", row=5)
         self.put(6, "State of this sheet", row=6)
         self.put(10, formula=f'=IF({ok}={count},"ALL CHECKS OK","NOT ALL OK")',
                  style="hl check", role="formula", row=6)
@@ -374,7 +377,7 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
         w.put(2, text, role="note")
         w.row += 1
     last = w.row
-    count, ok = w.counters(last, "S")
+    count, ok = w.counters(last, "MQ")
     s = sname
     return {"sheet": s, "transmission": sheet_ref(s, h_t), "internal": sheet_ref(s, h_int),
             "ventilation": sheet_ref(s, h_vr), "load": sheet_ref(s, load),
@@ -775,7 +778,7 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
     w.put(2, "of which say OK")
     all_ok = w.put(7, formula="=" + "+".join([o for _c, o, _n in counters] + [own_ok]),
                    fmt="0")
-    count, ok = w.counters(last_row, "S")
+    count, ok = w.counters(last_row, "KM")
     assert (count, ok) == (own_count, own_ok)
 
     sheet.charts.append(Chart(
