@@ -573,7 +573,7 @@ class Construction:
     --------
     >>> wall = Construction([Layer(0.1, 1.0), Layer(0.1, 0.04)])
     >>> round(wall.u_value, 4)
-    0.3676
+    0.361
     """
 
     def __init__(self, layers, heat_flow: str = "horizontal", *, rsi=None, rse=None,
@@ -887,6 +887,12 @@ class Construction:
             return CorrectionResult(tuple(items), total, False,
                                     "total below 3 % of U: not applied (ISO 6946 Annex F)")
         return CorrectionResult(tuple(items), total, True, "applied: U_c = U + sum(Delta U)")
+
+    @property
+    def rse_given(self) -> bool:
+        """True where the external surface resistance was given by the user rather than
+        taken from EN ISO 6946 Table 7."""
+        return self._rse_given
 
     @property
     def corrections(self) -> CorrectionResult:

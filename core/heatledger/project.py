@@ -112,7 +112,8 @@ class Project:
         return hashlib.sha256(self.source_bytes).hexdigest()
 
     def materials_used(self) -> list:
-        """Materials referred to by the project's layers, in order of first use."""
+        """Materials referred to by the project's layers, corrections and fins, in order of
+        first use."""
         seen: dict[str, Material] = {}
         for entry in self.constructions:
             for row in entry.layer_inputs:
@@ -121,6 +122,10 @@ class Project:
                     if isinstance(name, str) and name in self.materials:
                         mat = self.materials.get(name)
                         seen.setdefault(mat.name, mat)
+        for fin in self.fins:
+            mat = getattr(fin, "material", None)
+            if mat is not None:
+                seen.setdefault(mat.name, mat)
         return list(seen.values())
 
 

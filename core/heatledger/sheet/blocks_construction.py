@@ -375,7 +375,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                           formula=f"=(1500-{av})/1000", engine=v.weight_unventilated, fmt="0.0000")
         w_v = w.value_row("weight of the well ventilated case (Av − 500)/1000 [-]",
                           formula=f"=({av}-500)/1000", engine=v.weight_ventilated, fmt="0.0000")
-        rse_v_formula = rse if getattr(con, "_rse_given", False) else f"{rsi_still!r}"
+        rse_v_formula = rse if con.rse_given else f"{rsi_still!r}"
         r_tu = w.value_row(
             "R_T,u: layer unventilated, outer layers capped at 0.15 [m2 K/W]",
             formula=f"={rsi}+{r_in}+{r_air}+MIN({r_out},{SLIGHTLY_VENTILATED_OUTER_CAP!r})"
@@ -397,7 +397,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     elif vent is not None and vent.ventilation == "well":
         rse_used_ref = w.value_row(
             "Rse used: still air behind a well ventilated layer [m2 K/W]",
-            value=float(con.rse_used) if getattr(con, "_rse_given", False) else rsi_still,
+            value=float(con.rse_used) if con.rse_given else rsi_still,
             engine=con.rse_used,
             note=f"6.9.4: Rse = Rsi of the same direction ({con.heat_flow})")
     else:
