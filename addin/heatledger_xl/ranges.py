@@ -136,6 +136,13 @@ def _is_blank(value: object) -> bool:
     return False
 
 
+def _row_is_blank(row) -> bool:
+    for c in row:
+        if c is not None and (type(c) is not str or c.strip()):
+            return False
+    return True
+
+
 def _unwrap_single(name: str, value: object) -> object:
     """A 1x1 range (``[[x]]`` or ``[x]``) is its cell; a larger range is rejected."""
     while isinstance(value, (list, tuple)):
@@ -264,6 +271,10 @@ def text(name: str, value: object, default: object = REQUIRED) -> str:
     default : object
         Returned for a blank cell; :data:`REQUIRED` makes a blank an error. [-]
     """
+    if type(value) is str:  # the common case (fast path)
+        stripped = value.strip()
+        if stripped and stripped[0] != "#":
+            return stripped
     value = _unwrap_single(name, value)
     if _is_blank(value):
         if isinstance(default, Required):
@@ -356,7 +367,7 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
     for i, row in enumerate(cells, start=1):
         if not isinstance(row, (list, tuple)):
             row = (row,)
-        if all(_is_blank(c) for c in row):
+        if _row_is_blank(row):
             break
         width = max(width, len(row))
         if len(row) > len(LAYER_COLUMNS):
@@ -426,6 +437,8 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
 def _no_booleans(where: str, cells: tuple, columns: tuple) -> None:
     """TRUE/FALSE is never a valid table cell. Rejected here, before the row keys a cache,
     because TRUE == 1 and FALSE == 0 in Python and would share a cache entry."""
+    if bool not in map(type, cells):
+        return
     for column, cell in zip(columns, cells, strict=False):
         if type(cell) is bool:
             raise HeatLedgerError(f"{where} {column} must be a number or a text; got "

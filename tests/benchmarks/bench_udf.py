@@ -7,8 +7,9 @@ as the 2-D list xlwings hands the function). Target: under 100 microseconds.
 
 1. repeated identical calls (a workbook recalculating unchanged cells: the cache answers);
 2. distinct tables every call (cache missed: parse, build the Construction, U-value);
-3. where the time of a cache miss goes: parsing the range vs building the engine's
-   Construction.
+3. where the time of a cache miss goes: reading the range into layer objects (the
+   add-in), building the engine's Construction from them, and within that the ISO 6946
+   Annex D air-layer resistance (numpy on a scalar).
 """
 
 from __future__ import annotations
@@ -16,8 +17,10 @@ from __future__ import annotations
 import statistics
 import time
 
+from heatledger.airlayers import air_layer_resistance
+from heatledger.constructions import Construction
 from heatledger_xl import udfs
-from heatledger_xl.ranges import build_construction, layer_rows
+from heatledger_xl.ranges import _layer, layer_rows
 
 TARGET_US = 100.0
 BATCH = 200
@@ -54,15 +57,19 @@ def main() -> None:
     hit = per_call_us(udfs.HL_UVALUE, lambda i: (table,))
     miss = per_call_us(udfs.HL_UVALUE, lambda i: (wall(i * 1e-3),))
     rows = layer_rows("layers", wall())
-    parse = per_call_us(layer_rows, lambda i: ("layers", wall(i * 1e-3)))
-    build = per_call_us(build_construction, lambda i: (rows, "horizontal", None, None))
+    layers = [_layer("layers", i, cells) for i, cells in rows]
+    parse = per_call_us(lambda t: [_layer("layers", i, c) for i, c in layer_rows("layers", t)],
+                        lambda i: (wall(i * 1e-3),))
+    build = per_call_us(Construction, lambda i: (layers, "horizontal"))
+    air = per_call_us(air_layer_resistance, lambda i: (0.025, "horizontal"))
     print(f"HL_UVALUE, 6-layer table (U = {value:.4f} W/(m2 K)), median Python time per call:")
     print(f"  identical calls (cache hit):   {hit:7.1f} us   target < {TARGET_US:.0f} us: "
           f"{'met' if hit < TARGET_US else 'NOT met'}")
     print(f"  distinct tables (cache miss):  {miss:7.1f} us   target < {TARGET_US:.0f} us: "
           f"{'met' if miss < TARGET_US else 'NOT met'}")
-    print(f"    of which parsing the range:  {parse:7.1f} us")
-    print(f"    of which engine Construction:{build:7.1f} us (layers, bridging limits, U)")
+    print(f"    range -> layer objects (add-in):      {parse:7.1f} us")
+    print(f"    engine Construction from the layers:  {build:7.1f} us")
+    print(f"      of which one air_layer_resistance:  {air:7.1f} us (numpy on a scalar)")
 
 
 if __name__ == "__main__":
