@@ -12,12 +12,13 @@ from __future__ import annotations
 import argparse
 import json
 import math
+import os
 import sys
 from importlib import resources
 
 from . import __version__
 from .cautions import caution_lines
-from .errors import HeatLedgerError, ProjectError
+from .errors import HeatLedgerError
 from .materials import default_library
 from .project import Project, load_project, project_from_dict
 
@@ -35,9 +36,11 @@ def main(argv=None) -> int:
         return 2
     try:
         return int(args.handler(args) or 0)
-    except ProjectError as exc:
-        print(f"heatledger: {exc}", file=sys.stderr)
-        return 1
+    except BrokenPipeError:
+        # the reader (e.g. `heatledger demo | head`) closed the pipe: stop quietly
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+        return 0
     except HeatLedgerError as exc:
         print(f"heatledger: {exc}", file=sys.stderr)
         return 1
