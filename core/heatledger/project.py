@@ -10,11 +10,11 @@ consultant counts rows).
 from __future__ import annotations
 
 import hashlib
-import math
 import sys
 from dataclasses import dataclass, field
 from pathlib import Path
 
+from ._projectio import number, table, table_list, unknown
 from ._validate import finite
 from .constructions import (
     AirGapCorrection,
@@ -190,26 +190,26 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
     if not isinstance(data, dict):
         raise ProjectError([("file", "the project must be a table of sections")],
                            source=source_name)
-    _unknown(data, TOP_KEYS, "", problems)
-    info_in = _table(data, "project", problems)
-    _unknown(info_in, PROJECT_KEYS, "project", problems)
+    unknown(data, TOP_KEYS, "", problems)
+    info_in = table(data, "project", problems)
+    unknown(info_in, PROJECT_KEYS, "project", problems)
     info = {k: "" if info_in.get(k) is None else str(info_in.get(k)) for k in PROJECT_KEYS}
-    design = _table(data, "design", problems)
-    _unknown(design, DESIGN_KEYS, "design", problems)
-    t_i = _number(design, "temp_inside", "design", problems, default=20.0)
-    t_e = _number(design, "temp_outside", "design", problems, default=-5.0)
+    design = table(data, "design", problems)
+    unknown(design, DESIGN_KEYS, "design", problems)
+    t_i = number(design, "temp_inside", "design", problems, default=20.0)
+    t_e = number(design, "temp_outside", "design", problems, default=-5.0)
     if t_i is not None and t_e is not None and not t_i > t_e:
         problems.append(("design.temp_outside", f"must be below temp_inside ({t_i:g} degC) for "
                          f"a heating case; got {t_e:g} degC"))
 
     library = default_library()
     user_materials = []
-    for i, row in enumerate(_list(data, "materials", problems), 1):
+    for i, row in enumerate(table_list(data, "materials", problems), 1):
         where = f"materials[{i}]"
         if not isinstance(row, dict):
             problems.append((where, "must be a table with name and conductivity"))
             continue
-        _unknown(row, MATERIAL_KEYS, where, problems)
+        unknown(row, MATERIAL_KEYS, where, problems)
         try:
             mat = Material(
                 name=str(row.get("name", "")).strip(),
@@ -228,7 +228,7 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
 
     entries = []
     names_seen: set[str] = set()
-    for i, row in enumerate(_list(data, "constructions", problems), 1):
+    for i, row in enumerate(table_list(data, "constructions", problems), 1):
         where = f"constructions[{i}]"
         entry = _construction(row, where, library, problems)
         if entry is None:
@@ -308,15 +308,15 @@ def _construction(row, where, library, problems) -> ConstructionEntry | None:
         problems.append((where, "must be a table with name, heat_flow and layers"))
         return None
     start = len(problems)
-    _unknown(row, CONSTRUCTION_KEYS, where, problems)
+    unknown(row, CONSTRUCTION_KEYS, where, problems)
     name = str(row.get("name", "")).strip()
     if not name:
         problems.append((f"{where}.name", "every construction needs a name"))
     heat_flow = row.get("heat_flow", "horizontal")
-    area = _number(row, "area", where, problems, positive=True)
-    target = _number(row, "target_u", where, problems, positive=True)
-    rsi = _number(row, "rsi", where, problems, non_negative=True)
-    rse = _number(row, "rse", where, problems, non_negative=True)
+    area = number(row, "area", where, problems, positive=True)
+    target = number(row, "target_u", where, problems, positive=True)
+    rsi = number(row, "rsi", where, problems, non_negative=True)
+    rse = number(row, "rse", where, problems, non_negative=True)
     nodes = row.get("nodes_per_layer")
     if nodes is not None and (isinstance(nodes, bool) or not isinstance(nodes, int)
                               or nodes < 1):
@@ -373,8 +373,8 @@ def _layer(row, where, library, problems):
                          f"got {row.get('kind')!r}"))
         return None
     start = len(problems)
-    _unknown(row, LAYER_KEYS[kind], where, problems)
-    d_mm = _number(row, "thickness_mm", where, problems, positive=True, required=True)
+    unknown(row, LAYER_KEYS[kind], where, problems)
+    d_mm = number(row, "thickness_mm", where, problems, positive=True, required=True)
     name = str(row.get("name", "") or "")
     if len(problems) > start:
         return None
@@ -386,13 +386,13 @@ def _layer(row, where, library, problems):
             return None
         return Layer(d, lam, name=name or (mat.name if mat else ""), material=mat)
     if kind == "declared":
-        r = _number(row, "resistance", where, problems, positive=True, required=True)
+        r = number(row, "resistance", where, problems, positive=True, required=True)
         return None if r is None else Layer(d, resistance=r, name=name)
     if kind == "air":
         vent = row.get("vent_area_mm2")
         return AirLayer(d, ventilation=str(row.get("ventilation", "unventilated")),
-                        emissivity_1=_number(row, "emissivity_1", where, problems, default=0.9),
-                        emissivity_2=_number(row, "emissivity_2", where, problems, default=0.9),
+                        emissivity_1=number(row, "emissivity_1", where, problems, default=0.9),
+                        emissivity_2=number(row, "emissivity_2", where, problems, default=0.9),
                         vent_area=None if vent is None else finite(f"{where}.vent_area_mm2",
                                                                    vent),
                         name=name)
@@ -400,7 +400,7 @@ def _layer(row, where, library, problems):
                                          problems)
     bmat, blam = _material_or_conductivity(row, "bridging_material", "bridging_conductivity",
                                            where, library, problems)
-    frac = _number(row, "bridging_fraction", where, problems, required=True)
+    frac = number(row, "bridging_fraction", where, problems, required=True)
     if lam is None or blam is None or frac is None:
         return None
     if not 0.0 < frac < 1.0:
@@ -420,7 +420,7 @@ def _correction(row, where, layers_in, library, problems):
         problems.append((f"{where}.kind", f"must be one of "
                          f"{', '.join(map(repr, CORRECTION_KINDS))}; got {row.get('kind')!r}"))
         return None
-    _unknown(row, CORRECTION_KEYS[kind], where, problems)
+    unknown(row, CORRECTION_KEYS[kind], where, problems)
     idx = _layer_index(row.get("layer"), layers_in, f"{where}.layer", problems)
     if idx is None:
         return None
@@ -433,19 +433,19 @@ def _correction(row, where, layers_in, library, problems):
     if kind == "fasteners":
         _, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
                                            problems)
-        area = _number(row, "cross_section_mm2", where, problems, positive=True, required=True)
-        n = _number(row, "count_per_m2", where, problems, non_negative=True, required=True)
-        pen = _number(row, "penetration_mm", where, problems, positive=True)
+        area = number(row, "cross_section_mm2", where, problems, positive=True, required=True)
+        n = number(row, "count_per_m2", where, problems, non_negative=True, required=True)
+        pen = number(row, "penetration_mm", where, problems, positive=True)
         if lam is None or area is None or n is None:
             return None
         return FastenerCorrection(idx, lam, area * 1e-6, n,
                                   penetration=None if pen is None else pen / 1000.0,
                                   edition=str(row.get("edition", "2017")),
                                   application=str(row.get("application", "wall")))
-    p = _number(row, "precipitation_mm_per_day", where, problems, non_negative=True,
+    p = number(row, "precipitation_mm_per_day", where, problems, non_negative=True,
                 required=True)
-    f = _number(row, "drainage_factor", where, problems, non_negative=True, required=True)
-    x = _number(row, "factor_x", where, problems, non_negative=True, default=0.04)
+    f = number(row, "drainage_factor", where, problems, non_negative=True, required=True)
+    x = number(row, "factor_x", where, problems, non_negative=True, default=0.04)
     if p is None or f is None:
         return None
     return InvertedRoofCorrection(idx, p, f, x)
@@ -477,37 +477,13 @@ def _material_or_conductivity(row, mat_key, lam_key, where, library, problems):
             problems.append((f"{where}.{mat_key}", str(exc)))
             return None, None
     if lam is not None:
-        value = _number(row, lam_key, where, problems, positive=True)
+        value = number(row, lam_key, where, problems, positive=True)
         return mat, value
     if mat is None:
         problems.append((f"{where}.{mat_key}", f"give {mat_key} (a library name) or {lam_key} "
                          "(W/(m K))"))
         return None, None
     return mat, mat.conductivity
-
-
-def _number(row, key, where, problems, *, default=None, positive=False, non_negative=False,
-            required=False):
-    value = row.get(key) if isinstance(row, dict) else None
-    path = f"{where}.{key}" if where else key
-    if value is None or value == "":
-        if required:
-            problems.append((path, "is required"))
-        return default
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        problems.append((path, f"must be a number; got {value!r}"))
-        return None
-    value = float(value)
-    if not math.isfinite(value):
-        problems.append((path, f"must be a finite number; got {value!r}"))
-        return None
-    if positive and value <= 0.0:
-        problems.append((path, f"must be greater than zero; got {value:g}"))
-        return None
-    if non_negative and value < 0.0:
-        problems.append((path, f"must not be negative; got {value:g}"))
-        return None
-    return value
 
 
 def _req(row, key, where):
@@ -517,31 +493,6 @@ def _req(row, key, where):
     if isinstance(value, bool) or not isinstance(value, (int, float)):
         raise HeatLedgerError(f"must be a number; got {value!r}", where=f"{where}.{key}")
     return value
-
-
-def _table(data, key, problems) -> dict:
-    value = data.get(key, {})
-    if not isinstance(value, dict):
-        problems.append((key, "must be a table ([" + key + "])"))
-        return {}
-    return value
-
-
-def _list(data, key, problems) -> list:
-    value = data.get(key, [])
-    if not isinstance(value, list):
-        problems.append((key, f"must be a list of tables ([[{key}]])"))
-        return []
-    return value
-
-
-def _unknown(row, allowed, where, problems) -> None:
-    if not isinstance(row, dict):
-        return
-    for key in row:
-        if key not in allowed:
-            path = f"{where}.{key}" if where else key
-            problems.append((path, f"unknown key; allowed here: {', '.join(allowed)}"))
 
 
 def _msg(exc: HeatLedgerError) -> str:

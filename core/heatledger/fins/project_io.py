@@ -51,9 +51,9 @@ Schema (one ``[[fins]]`` table per fin or finned surface)::
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 
+from .._projectio import number, unknown
 from ..errors import HeatLedgerError
 from .annular import ANNULAR_TIPS, AnnularFin
 from .arrays import FinArray
@@ -77,7 +77,6 @@ FV_KEYS = ("cells", "emissivity", "temp_surroundings", "h_coefficient", "h_expon
 DEFAULT_FV_CELLS = 40
 #: Most control volumes a project may ask for (each is a row of the calculation sheet). [-]
 MAX_FV_CELLS = 500
-_ABS_ZERO = -273.15
 
 
 @dataclass(frozen=True)
@@ -287,14 +286,14 @@ def _entry(row, where, library, problems):
     if kind not in FIN_KINDS:
         problems.append((f"{where}.kind", f"must be one of {', '.join(map(repr, FIN_KINDS))}; "
                          f"got {kind!r}"))
-        _unknown(row, sorted(set(FIN_KEYS["straight"]) | set(FIN_KEYS["annular"])), where,
+        unknown(row, sorted(set(FIN_KEYS["straight"]) | set(FIN_KEYS["annular"])), where,
                  problems)
         return None
-    _unknown(row, FIN_KEYS[kind], where, problems)
+    unknown(row, FIN_KEYS[kind], where, problems)
     material, k = _conductivity(row, where, library, problems)
-    h = _num(row, "h", where, problems, required=True, positive=True)
-    t_b = _num(row, "base_temperature", where, problems, required=True, low=_ABS_ZERO)
-    t_inf = _num(row, "ambient", where, problems, required=True, low=_ABS_ZERO)
+    h = number(row, "h", where, problems, required=True, positive=True)
+    t_b = number(row, "base_temperature", where, problems, required=True, above_absolute_zero=True)
+    t_inf = number(row, "ambient", where, problems, required=True, above_absolute_zero=True)
     corrected = row.get("corrected_length", False)
     if not isinstance(corrected, bool):
         problems.append((f"{where}.corrected_length", f"must be true or false; got "
@@ -337,10 +336,10 @@ def _entry(row, where, library, problems):
 
 
 def _straight_inputs(row, where, problems) -> dict:
-    length = _num(row, "length_mm", where, problems, required=True, positive=True)
-    t = _num(row, "thickness_mm", where, problems, positive=True)
-    d = _num(row, "diameter_mm", where, problems, positive=True)
-    w = _num(row, "width_mm", where, problems, positive=True)
+    length = number(row, "length_mm", where, problems, required=True, positive=True)
+    t = number(row, "thickness_mm", where, problems, positive=True)
+    d = number(row, "diameter_mm", where, problems, positive=True)
+    w = number(row, "width_mm", where, problems, positive=True)
     if (row.get("thickness_mm") is None) == (row.get("diameter_mm") is None):
         got = "both" if row.get("thickness_mm") is not None else "neither"
         problems.append((f"{where}.thickness_mm", "give exactly one of thickness_mm (a plate "
@@ -350,7 +349,7 @@ def _straight_inputs(row, where, problems) -> dict:
                          "diameter_mm)"))
     tip = _choice(row, "tip", STRAIGHT_TIPS, "convective", where, problems)
     profile = _choice(row, "profile", STRAIGHT_PROFILES, "rectangular", where, problems)
-    t_l = _num(row, "tip_temperature", where, problems, low=_ABS_ZERO)
+    t_l = number(row, "tip_temperature", where, problems, above_absolute_zero=True)
     if tip == "temperature" and row.get("tip_temperature") is None:
         problems.append((f"{where}.tip_temperature", "tip = 'temperature' needs "
                          "tip_temperature (degC)"))
@@ -368,9 +367,9 @@ def _straight_inputs(row, where, problems) -> dict:
 
 
 def _annular_inputs(row, where, problems) -> dict:
-    d1 = _num(row, "tube_diameter_mm", where, problems, required=True, positive=True)
-    d2 = _num(row, "fin_diameter_mm", where, problems, required=True, positive=True)
-    t = _num(row, "thickness_mm", where, problems, required=True, positive=True)
+    d1 = number(row, "tube_diameter_mm", where, problems, required=True, positive=True)
+    d2 = number(row, "fin_diameter_mm", where, problems, required=True, positive=True)
+    t = number(row, "thickness_mm", where, problems, required=True, positive=True)
     if d1 is not None and d2 is not None and not d1 < d2:
         problems.append((f"{where}.fin_diameter_mm", f"must exceed tube_diameter_mm "
                          f"({d1:g} mm); got {d2:g} mm"))
@@ -386,9 +385,9 @@ def _array_inputs(data, where, problems):
     count = data.get("count")
     if isinstance(count, bool) or not isinstance(count, int) or count < 0:
         problems.append((f"{where}.count", f"must be a whole number >= 0; got {count!r}"))
-    area = _num(data, "base_area", where, problems, required=True, positive=True)
-    rc = _num(data, "contact_resistance", where, problems, non_negative=True, default=0.0)
-    target = _num(data, "target_heat_rate", where, problems)
+    area = number(data, "base_area", where, problems, required=True, positive=True)
+    rc = number(data, "contact_resistance", where, problems, non_negative=True, default=0.0)
+    target = number(data, "target_heat_rate", where, problems)
     if target is not None and target == 0.0:
         problems.append((f"{where}.target_heat_rate", "must not be zero (leave it out for no "
                          "sizing)"))
@@ -414,13 +413,13 @@ def _fv(row, where, problems) -> FinFVSettings:
         problems.append((f"{sub}.cells", f"must be a whole number from 2 to {MAX_FV_CELLS}; "
                          f"got {cells!r}"))
         cells = DEFAULT_FV_CELLS
-    eps = _num(data, "emissivity", sub, problems, non_negative=True, default=0.0)
+    eps = number(data, "emissivity", sub, problems, non_negative=True, default=0.0)
     if eps is not None and eps > 1.0:
         problems.append((f"{sub}.emissivity", f"must be between 0 and 1; got {eps:g}"))
         eps = 0.0
-    t_sur = _num(data, "temp_surroundings", sub, problems, low=_ABS_ZERO)
-    c = _num(data, "h_coefficient", sub, problems, positive=True)
-    n = _num(data, "h_exponent", sub, problems, non_negative=True)
+    t_sur = number(data, "temp_surroundings", sub, problems, above_absolute_zero=True)
+    c = number(data, "h_coefficient", sub, problems, positive=True)
+    n = number(data, "h_exponent", sub, problems, non_negative=True)
     law = None
     if (data.get("h_coefficient") is None) != (data.get("h_exponent") is None):
         problems.append((f"{sub}.h_exponent", "give h_coefficient and h_exponent together "
@@ -452,7 +451,7 @@ def _conductivity(row, where, library, problems):
         problems.append((f"{where}.material", "give material (a library name) or "
                          "conductivity (W/(m K))"))
         return None, None
-    return None, _num(row, "conductivity", where, problems, positive=True)
+    return None, number(row, "conductivity", where, problems, positive=True)
 
 
 def _sub(row, key, allowed, where, problems):
@@ -462,7 +461,7 @@ def _sub(row, key, allowed, where, problems):
     if not isinstance(data, dict):
         problems.append((f"{where}.{key}", f"must be a table ([fins.{key}])"))
         return None
-    _unknown(data, allowed, f"{where}.{key}", problems)
+    unknown(data, allowed, f"{where}.{key}", problems)
     return data
 
 
@@ -473,40 +472,6 @@ def _choice(row, key, choices, default, where, problems):
                          f"got {value!r}"))
         return default
     return value
-
-
-def _num(row, key, where, problems, *, required=False, positive=False, non_negative=False,
-         low=None, default=None):
-    value = row.get(key)
-    path = f"{where}.{key}"
-    if value is None or value == "":
-        if required:
-            problems.append((path, "is required"))
-        return default
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        problems.append((path, f"must be a number; got {value!r}"))
-        return None
-    value = float(value)
-    if not math.isfinite(value):
-        problems.append((path, f"must be a finite number; got {value!r}"))
-        return None
-    if positive and value <= 0.0:
-        problems.append((path, f"must be greater than zero; got {value:g}"))
-        return None
-    if non_negative and value < 0.0:
-        problems.append((path, f"must not be negative; got {value:g}"))
-        return None
-    if low is not None and value < low:
-        problems.append((path, f"must be at least {low:g} (absolute zero); got {value:g}"))
-        return None
-    return value
-
-
-def _unknown(row, allowed, where, problems) -> None:
-    for key in row:
-        if key not in allowed:
-            problems.append((f"{where}.{key}", f"unknown key; allowed here: "
-                             f"{', '.join(allowed)}"))
 
 
 _ENGINE_KEYS = (("tip_temperature", "tip_temperature"), ("corrected_length", "corrected_length"),

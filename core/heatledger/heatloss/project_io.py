@@ -44,9 +44,9 @@ clauses 8.2 to 8.4 [M].
 from __future__ import annotations
 
 import difflib
-import math
 from dataclasses import dataclass, field
 
+from .._projectio import number, table, table_list, unknown
 from ..errors import HeatLedgerError
 from ..ground import (
     DEFAULT_SOIL_CONDUCTIVITY,
@@ -268,15 +268,9 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
     """
     del library
     start = len(problems)
-    raw_b = data.get("building", {})
-    if not isinstance(raw_b, dict):
-        problems.append(("building", "must be a table ([building])"))
-        raw_b = {}
-    _unknown(raw_b, BUILDING_KEYS, "building", problems)
-    raw_rooms = data.get("rooms", [])
-    if not isinstance(raw_rooms, list):
-        problems.append(("rooms", "must be a list of tables ([[rooms]])"))
-        raw_rooms = []
+    raw_b = table(data, "building", problems)
+    unknown(raw_b, BUILDING_KEYS, "building", problems)
+    raw_rooms = table_list(data, "rooms", problems)
     if not raw_rooms:
         problems.append(("rooms", "the [building] section needs at least one [[rooms]] table"))
         return None
@@ -330,21 +324,21 @@ class _Context:
 
 def _building_settings(raw, problems) -> dict:
     w = "building"
-    dd = _number(raw, "degree_days", w, problems, non_negative=True)
-    base = _number(raw, "degree_day_base", w, problems)
+    dd = number(raw, "degree_days", w, problems, non_negative=True)
+    base = number(raw, "degree_day_base", w, problems)
     if dd is not None and base is None:
         problems.append(("building.degree_day_base", "state the base temperature of the "
                          "degree-days (degC) with degree_days; the energy depends on it"))
     if base is not None and dd is None:
         problems.append(("building.degree_days", "is required with degree_day_base"))
-    theta_me = _number(raw, "annual_mean_external_temperature", w, problems)
+    theta_me = number(raw, "annual_mean_external_temperature", w, problems)
     gw = str(raw.get("groundwater", "deep")).strip().lower()
     if gw not in GROUNDWATER:
         problems.append(("building.groundwater", f"must be one of 'deep' (water table more "
                          f"than 1 m below the floor, G_w 1.00) or 'shallow' (1 m or less, G_w "
                          f"1.15); got {raw.get('groundwater')!r}"))
         gw = "deep"
-    fg1 = _number(raw, "f_g1", w, problems, positive=True, default=GROUND_FACTOR_FG1)
+    fg1 = number(raw, "f_g1", w, problems, positive=True, default=GROUND_FACTOR_FG1)
     soil = _soil(raw, w, problems, None)
     return {"degree_days": dd, "degree_day_base": base, "theta_me": theta_me,
             "groundwater": gw, "g_w": GROUNDWATER[gw],
@@ -370,7 +364,7 @@ def _soil(raw, where, problems, default):
         return lam, f"soil {str(raw['soil']).strip().lower()!r}: lambda {lam:g} W/(m K) " \
                     "(EN ISO 13370 Table 7)"
     if has_lam:
-        lam = _number(raw, "soil_conductivity", where, problems, positive=True)
+        lam = number(raw, "soil_conductivity", where, problems, positive=True)
         return default if lam is None else (lam, f"soil conductivity {lam:g} W/(m K) (input)")
     return default
 
@@ -380,19 +374,19 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
         problems.append((where, "must be a table with name, volume, ventilation and elements"))
         return None
     start = len(problems)
-    _unknown(row, ROOM_KEYS, where, problems)
+    unknown(row, ROOM_KEYS, where, problems)
     name = str(row.get("name", "")).strip()
     if not name:
         problems.append((f"{where}.name", "every room needs a name"))
         name = where
     label = f"room {name!r}"
-    ti = _number(row, "temp_inside", where, problems, default=temp_inside)
+    ti = number(row, "temp_inside", where, problems, default=temp_inside)
     if ti is not None and ctx.temp_outside is not None and not ti > ctx.temp_outside:
         problems.append((f"{where}.temp_inside", f"{label}: must be above the design external "
                          f"temperature {ctx.temp_outside:g} degC; got {ti:g} degC"))
-    volume = _number(row, "volume", where, problems, positive=True, required=True)
-    floor_area = _number(row, "floor_area", where, problems, non_negative=True, default=0.0)
-    reheat = _number(row, "reheat_factor", where, problems, non_negative=True, default=0.0)
+    volume = number(row, "volume", where, problems, positive=True, required=True)
+    floor_area = number(row, "floor_area", where, problems, non_negative=True, default=0.0)
+    reheat = number(row, "reheat_factor", where, problems, non_negative=True, default=0.0)
     vent = _ventilation(row.get("ventilation"), f"{where}.ventilation", label, problems)
     elements = []
     raw_el = row.get("elements", [])
@@ -436,16 +430,16 @@ def _ventilation(raw, where, label, problems):
                          "\"flow\", ventilation = ..., infiltration = ..., heat_recovery = "
                          "..., minimum_air_change = ... }"))
         return None
-    _unknown(raw, VENTILATION_KEYS, where, problems)
+    unknown(raw, VENTILATION_KEYS, where, problems)
     basis = str(raw.get("basis", "")).strip().lower()
     if basis not in ("air_change", "flow"):
         problems.append((f"{where}.basis", f"{label}: must be 'air_change' (1/h) or 'flow' "
                          f"(m3/h); got {raw.get('basis')!r}"))
         return None
     unit = dict(non_negative=True, default=0.0)
-    vals = {k: _number(raw, k, where, problems, **unit)
+    vals = {k: number(raw, k, where, problems, **unit)
             for k in ("ventilation", "infiltration", "minimum_air_change")}
-    eta = _number(raw, "heat_recovery", where, problems, non_negative=True, default=0.0)
+    eta = number(raw, "heat_recovery", where, problems, non_negative=True, default=0.0)
     if eta is not None and eta > 1.0:
         problems.append((f"{where}.heat_recovery", f"{label}: the heat-recovery efficiency "
                          f"must be between 0 and 1; got {eta:g}"))
@@ -479,8 +473,8 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
             return None
         return Ground(s["theta_me"], f_g1=s["f_g1"], groundwater_factor=s["g_w"])
     if b == "unheated":
-        t = _number(row, "temp_adjacent", where, problems)
-        f = _number(row, "adjustment_factor", where, problems)
+        t = number(row, "temp_adjacent", where, problems)
+        f = number(row, "adjustment_factor", where, problems)
         if (t is None) == (f is None):
             problems.append((f"{where}.boundary", f"{label}: an unheated space needs exactly "
                              "one of temp_adjacent (degC) or adjustment_factor (b_u, 0..1)"))
@@ -491,7 +485,7 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
             return None
         return Unheated(temperature=t) if t is not None else Unheated(adjustment_factor=f)
     if b == "adjacent":
-        t = _number(row, "temp_adjacent", where, problems, required=True)
+        t = number(row, "temp_adjacent", where, problems, required=True)
         return None if t is None else AdjacentRoom(temperature=t)
     other = str(row.get("room", "") or "").strip()
     if not other:
@@ -525,7 +519,7 @@ def _element(row, where, room_label, room_name, ctx, problems):
                          f"{', '.join(map(repr, ELEMENT_METHODS))} (how the U-value is found); "
                          f"got {row.get('method')!r}"))
         return None
-    _unknown(row, ELEMENT_METHODS[method], where, problems)
+    unknown(row, ELEMENT_METHODS[method], where, problems)
     kind = str(row.get("kind", "floor" if method in GROUND_METHODS else "wall")).strip().lower()
     if kind not in ELEMENT_KINDS:
         problems.append((f"{where}.kind", f"{label}: must be one of "
@@ -539,9 +533,9 @@ def _element(row, where, room_label, room_name, ctx, problems):
             boundary, (Ground, Outside)):
         problems.append((f"{where}.boundary", f"{label}: an EN ISO 13370 ground element faces "
                          "'ground' (or 'outside'); got " + repr(row.get("boundary"))))
-    dutb = _number(row, "thermal_bridge_allowance", where, problems, non_negative=True,
+    dutb = number(row, "thermal_bridge_allowance", where, problems, non_negative=True,
                    default=0.0)
-    area = _number(row, "area", where, problems, positive=True,
+    area = number(row, "area", where, problems, positive=True,
                    required=method != "window")
     u = None
     try:
@@ -549,7 +543,7 @@ def _element(row, where, room_label, room_name, ctx, problems):
             u = _construction_name(row, "construction", where, label, ctx, problems,
                                    required=True)
         elif method == "declared":
-            uv = _number(row, "u_value", where, problems, positive=True, required=True)
+            uv = number(row, "u_value", where, problems, positive=True, required=True)
             src = str(row.get("u_source", "") or "").strip()
             if not src:
                 problems.append((f"{where}.u_source", f"{label}: a declared U-value needs "
@@ -591,11 +585,11 @@ def _construction_name(row, key, where, label, ctx, problems, *, required):
 
 def _window(row, where, label, area, problems):
     req = ("glazing_area", "frame_area", "glazing_u", "frame_u", "glazing_perimeter")
-    vals = {k: _number(row, k, where, problems, non_negative=True, required=True) for k in req}
-    vals["psi_glazing"] = _number(row, "psi_glazing", where, problems, required=True)
+    vals = {k: number(row, k, where, problems, non_negative=True, required=True) for k in req}
+    vals["psi_glazing"] = number(row, "psi_glazing", where, problems, required=True)
     for k in ("panel_area", "panel_u", "panel_perimeter"):
-        vals[k] = _number(row, k, where, problems, non_negative=True, default=0.0)
-    vals["psi_panel"] = _number(row, "psi_panel", where, problems, default=0.0)
+        vals[k] = number(row, k, where, problems, non_negative=True, default=0.0)
+    vals["psi_panel"] = number(row, "psi_panel", where, problems, default=0.0)
     if None in vals.values():
         return None
     shape = str(row.get("glazing_shape", "rectilinear"))
@@ -615,7 +609,7 @@ def _resistance(row, con_key, r_key, where, label, ctx, problems):
                          "them"))
         return None, ""
     if has_r:
-        return _number(row, r_key, where, problems, non_negative=True), ""
+        return number(row, r_key, where, problems, non_negative=True), ""
     name = _construction_name(row, con_key, where, label, ctx, problems, required=True)
     if name is None:
         return None, ""
@@ -629,8 +623,8 @@ def _ground(method, row, where, label, area, ctx, problems):
         soil = (DEFAULT_SOIL_CONDUCTIVITY, f"soil unknown: lambda {DEFAULT_SOIL_CONDUCTIVITY:g} "
                 "W/(m K), category 2 (EN ISO 13370 Table 7)")
     lam, soil_text = soil
-    p = _number(row, "exposed_perimeter", where, problems, positive=True, required=True)
-    w_mm = _number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True)
+    p = number(row, "exposed_perimeter", where, problems, positive=True, required=True)
+    w_mm = number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True)
     outline = str(row.get("exposed_outline", "rectilinear"))
     if area is None or p is None or w_mm is None:
         return None
@@ -652,10 +646,10 @@ def _ground(method, row, where, label, area, ctx, problems):
     if method == "suspended_floor":
         rd, cname = _resistance(row, "construction", "deck_resistance", where, label, ctx,
                                 problems)
-        kw = {k: _number(row, k, where, problems, non_negative=True, required=True)
+        kw = {k: number(row, k, where, problems, non_negative=True, required=True)
               for k in ("underfloor_height", "underfloor_wall_u", "vent_area_per_perimeter",
                         "wind_speed")}
-        kw["ground_insulation_resistance"] = _number(
+        kw["ground_insulation_resistance"] = number(
             row, "ground_insulation_resistance", where, problems, non_negative=True,
             default=0.0)
         shield = row.get("wind_shielding")
@@ -674,7 +668,7 @@ def _ground(method, row, where, label, area, ctx, problems):
     rf, cname = _resistance(row, "construction", "floor_resistance", where, label, ctx, problems)
     rw, wname = _resistance(row, "wall_construction", "wall_resistance", where, label, ctx,
                             problems)
-    z = _number(row, "depth", where, problems, positive=True, required=True)
+    z = number(row, "depth", where, problems, positive=True, required=True)
     if rf is None or rw is None or z is None:
         return None
     res = heated_basement(area, p, w, rf, rw, z, soil_conductivity=lam,
@@ -688,10 +682,10 @@ def _edge(raw, where, label, problems):
         problems.append((where, f"{label}: must be a table {{ orientation, extent, resistance, "
                          "thickness_mm }"))
         return None
-    _unknown(raw, EDGE_KEYS, where, problems)
-    ext = _number(raw, "extent", where, problems, positive=True, required=True)
-    rn = _number(raw, "resistance", where, problems, non_negative=True, required=True)
-    dn = _number(raw, "thickness_mm", where, problems, positive=True, required=True)
+    unknown(raw, EDGE_KEYS, where, problems)
+    ext = number(raw, "extent", where, problems, positive=True, required=True)
+    rn = number(raw, "resistance", where, problems, non_negative=True, required=True)
+    dn = number(raw, "thickness_mm", where, problems, positive=True, required=True)
     if None in (ext, rn, dn):
         return None
     try:
@@ -707,7 +701,7 @@ def _bridge(row, where, room_label, room_name, ctx, problems):
                          "psi and length, or chi and count"))
         return None
     start = len(problems)
-    _unknown(row, BRIDGE_KEYS, where, problems)
+    unknown(row, BRIDGE_KEYS, where, problems)
     name = str(row.get("name", "")).strip()
     if not name:
         problems.append((f"{where}.name", f"{room_label}: every thermal bridge needs a name"))
@@ -728,12 +722,12 @@ def _bridge_object(row, where, label, name, boundary, linear, start, problems):
                          "bridge, or chi (W/K) and count for point bridges"))
         return None
     if linear:
-        psi = _number(row, "psi", where, problems, required=True)
-        length = _number(row, "length", where, problems, positive=True, required=True)
+        psi = number(row, "psi", where, problems, required=True)
+        length = number(row, "length", where, problems, positive=True, required=True)
         if len(problems) > start:
             return None
         return LinearBridge(name, psi, length, boundary)
-    chi = _number(row, "chi", where, problems, required=True)
+    chi = number(row, "chi", where, problems, required=True)
     count = row.get("count", 1)
     if isinstance(count, bool) or not isinstance(count, int) or count < 1:
         problems.append((f"{where}.count", f"{label}: must be a whole number of at least 1; "
@@ -761,36 +755,3 @@ def _closest(name, choices) -> str:
         near = [c for c in choices if low[:3] and c.lower().startswith(low[:3])][:3]
     listed = ", ".join(map(repr, near or choices[:5]))
     return f"; closest names: {listed}" if near else f"; names are: {listed}"
-
-
-def _number(row, key, where, problems, *, default=None, positive=False, non_negative=False,
-            required=False):
-    value = row.get(key) if isinstance(row, dict) else None
-    path = f"{where}.{key}"
-    if value is None or value == "":
-        if required:
-            problems.append((path, "is required"))
-        return default
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        problems.append((path, f"must be a number; got {value!r}"))
-        return None
-    value = float(value)
-    if not math.isfinite(value):
-        problems.append((path, f"must be a finite number; got {value!r}"))
-        return None
-    if positive and value <= 0.0:
-        problems.append((path, f"must be greater than zero; got {value:g}"))
-        return None
-    if non_negative and value < 0.0:
-        problems.append((path, f"must not be negative; got {value:g}"))
-        return None
-    return value
-
-
-def _unknown(row, allowed, where, problems) -> None:
-    if not isinstance(row, dict):
-        return
-    for key in row:
-        if key not in allowed:
-            problems.append((f"{where}.{key}", f"unknown key; allowed here: "
-                             f"{', '.join(allowed)}"))
