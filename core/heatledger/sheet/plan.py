@@ -64,6 +64,8 @@ __all__ = [
     "absolute",
     "sheet_ref",
     "is_formula_like",
+    "text_width",
+    "fit_text_columns",
     "FIXED_TIMESTAMP",
 ]
 
@@ -72,6 +74,10 @@ FIXED_TIMESTAMP = _dt.datetime(2000, 1, 1, 0, 0, 0)
 
 _REF_RE = re.compile(r"^\$?([A-Z]{1,3})\$?([1-9][0-9]*)$")
 _FORMULA_LIKE = ("=", "+", "-", "@")
+#: Width of a column a spreadsheet gives when none is set. [characters]
+DEFAULT_COLUMN_WIDTH = 8.43
+#: Widest a column is made to fit its text; longer texts are cut (or wrap where styled so).
+MAX_FIT_WIDTH = 60.0
 
 
 # --------------------------------------------------------------------------- addresses
@@ -485,6 +491,79 @@ class DataValidation:
     prompt: str = ""
     error: str = ""
     error_style: str = "stop"
+
+
+# --------------------------------------------------------------------------- column widths
+def text_width(text: str, size: float = 10.0) -> float:
+    """Column width that shows ``text`` whole in a font of ``size`` points.
+
+    Parameters
+    ----------
+    text : str
+        The text of the cell. [-]
+    size : float
+        Font size. [pt]
+
+    Returns
+    -------
+    float
+        Width in characters of the default font (the unit of column widths), with a
+        margin of 1.5 characters for the cell padding and wider fallback fonts.
+
+    Examples
+    --------
+    >>> text_width("Heat flow")
+    10.5
+    """
+    return round(len(text) * size / 10.0 + 1.5, 1)
+
+
+def fit_text_columns(sheet: Sheet, *, cap: float = MAX_FIT_WIDTH) -> dict[str, float]:
+    """Widen the columns of ``sheet`` whose text a filled cell to its right would cut.
+
+    A spreadsheet lets text run on into empty cells to its right but cuts it at the first
+    filled one. For every unwrapped, unmerged text cell whose right-hand neighbour holds a
+    value or formula, the column is made at least :func:`text_width` of the text, up to
+    ``cap``. Widths are only ever increased.
+
+    Parameters
+    ----------
+    sheet : Sheet
+        The sheet to adjust (its ``column_widths`` are updated in place). [-]
+    cap : float
+        Widest a column is made. [characters]
+
+    Returns
+    -------
+    dict
+        Column letters -> new width, for the columns that were widened. [-]
+    """
+    cells = sheet.cell_map()
+    merged: set[tuple[int, int]] = set()
+    for rng in sheet.merges:
+        first, _, last = rng.partition(":")
+        r1, c1 = split_ref(first)
+        r2, c2 = split_ref(last or first)
+        merged.update((r, c) for r in range(r1, r2 + 1) for c in range(c1, c2 + 1))
+    need: dict[str, float] = {}
+    for c in cells.values():
+        if c.formula is not None or not isinstance(c.value, str) or not c.value:
+            continue
+        style = STYLES[c.style]
+        row, col = split_ref(c.ref)
+        if style.wrap or (row, col) in merged:
+            continue
+        right = cells.get(ref(row, col + 1))
+        if right is None or (right.formula is None and right.value in (None, "")):
+            continue
+        letters = col_letter(col)
+        need[letters] = max(need.get(letters, 0.0), min(cap, text_width(c.value, style.size)))
+    widened = {}
+    for letters, width in need.items():
+        if sheet.column_widths.get(letters, DEFAULT_COLUMN_WIDTH) < width:
+            sheet.column_widths[letters] = width
+            widened[letters] = width
+    return widened
 
 
 # --------------------------------------------------------------------------- sheet, workbook

@@ -24,7 +24,14 @@ from ..project import (
     project_from_dict,
 )
 from ..surfaces import HEAT_FLOWS
-from .plan import DataValidation, PrintSetup, WorkbookPlan, col_letter, sheet_ref
+from .plan import (
+    DataValidation,
+    PrintSetup,
+    WorkbookPlan,
+    col_letter,
+    fit_text_columns,
+    sheet_ref,
+)
 from .template_fins import FIN_COLUMNS, FIN_NOTES, FIN_SHEETS, fin_template_rows, read_fins
 from .template_rooms import ROOM_COLUMNS, ROOM_NOTES, ROOM_SHEETS, read_rooms, room_template_rows
 
@@ -242,6 +249,8 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
         b.put(f"{col_letter(j)}1", head, role="header")
         for i, v in enumerate(values, 2):
             b.put(f"{col_letter(j)}{i}", v)
+    for sh in plan.sheets:
+        fit_text_columns(sh)
     return plan
 
 

@@ -1,0 +1,100 @@
+"""Layout of the generated workbooks as a reader sees them: text that a filled cell to its
+right would cut is given a column wide enough, up to a cap."""
+
+from __future__ import annotations
+
+import pytest
+
+from heatledger.cli import demo_project
+from heatledger.sheet.audit import audit_plan
+from heatledger.sheet.plan import (
+    DEFAULT_COLUMN_WIDTH,
+    MAX_FIT_WIDTH,
+    STYLES,
+    WorkbookPlan,
+    col_letter,
+    fit_text_columns,
+    split_ref,
+)
+from heatledger.sheet.template import template_plan
+
+# A column width is counted in characters of the default font; a 10 pt text of n characters
+# needs about n of them (common practice, no published source), so the checks below ask for
+# at least len(text), a little less than the helper gives (it adds room for cell padding).
+
+
+@pytest.fixture(scope="module")
+def demo():
+    return demo_project()
+
+
+@pytest.fixture(scope="module")
+def plans(demo):
+    return [audit_plan(demo), template_plan(demo.raw)]
+
+
+def _cut_texts(sheet):
+    """(column letters, text) of unwrapped, unmerged text cells with a filled right neighbour."""
+    cells = sheet.cell_map()
+    merged = set()
+    for rng in sheet.merges:
+        first, _, last = rng.partition(":")
+        (r1, c1), (r2, c2) = split_ref(first), split_ref(last or first)
+        merged |= {(r, c) for r in range(r1, r2 + 1) for c in range(c1, c2 + 1)}
+    for c in cells.values():
+        if c.formula is not None or not isinstance(c.value, str) or STYLES[c.style].wrap:
+            continue
+        row, col = split_ref(c.ref)
+        right = cells.get(f"{col_letter(col + 1)}{row}")
+        if (row, col) in merged or right is None:
+            continue
+        if right.formula is None and right.value in (None, ""):
+            continue
+        yield col_letter(col), c.value
+
+
+def test_no_text_is_cut_by_its_neighbour(plans):
+    short = []
+    for plan in plans:
+        for sheet in plan.sheets:
+            for letters, text in _cut_texts(sheet):
+                width = sheet.column_widths.get(letters, DEFAULT_COLUMN_WIDTH)
+                if width < min(len(text), MAX_FIT_WIDTH):
+                    short.append((sheet.name, letters, width, text))
+    assert not short, short[:10]
+
+
+def test_summary_sheet_column_fits_the_longest_sheet_name(demo, plans):
+    audit = plans[0]
+    summary = audit.sheet("Summary")
+    longest = max(len(s.name) for s in audit.sheets)
+    assert summary.column_widths["C"] >= longest
+    names = [e.name for e in demo.constructions]
+    assert summary.column_widths["B"] >= max(len(n) for n in names)
+    fins = audit.sheet("Fins")
+    assert fins.column_widths["B"] >= max(len(f.name) for f in demo.fins)
+    assert fins.column_widths["C"] >= max(len(s.name) for s in audit.sheets
+                                          if s.name.startswith("Fin "))
+
+
+def test_fit_text_columns_widens_only_where_text_is_cut():
+    plan = WorkbookPlan()
+    sh = plan.add_sheet("T", column_widths={"A": 10, "C": 30})
+    b = sh.block("b")
+    b.put("A1", "a name much longer than ten characters")
+    b.put("B1", 1.0)                                   # filled neighbour: A is widened
+    b.put("C2", "runs on into empty cells to its right")  # no neighbour: C stays 30
+    b.put("E1", "x" * 200)                             # capped
+    b.put("F1", 2.0)
+    b.put("G1", "merged title that is long enough to be cut")
+    b.put("H1", 3.0)
+    sh.merges.append("G1:G2")
+    widened = fit_text_columns(sh)
+    assert sh.column_widths["A"] >= len("a name much longer than ten characters")
+    assert sh.column_widths["C"] == 30
+    assert sh.column_widths["E"] == MAX_FIT_WIDTH
+    assert "G" not in widened and "C" not in widened
+    # never narrower than set
+    sh.column_widths["A"] = 99.0
+    fit_text_columns(sh)
+    assert sh.column_widths["A"] == 99.0
