@@ -1,7 +1,8 @@
-"""Safe file output: write to a temporary file beside the target, then move it into place.
+"""Safe file input and output.
 
-An existing file is replaced only when the caller asks (``force``); an error while writing
-leaves any previous file exactly as it was.
+Output is written to a temporary file beside the target, then moved into place. An existing
+file is replaced only when the caller asks (``force``); an error while writing leaves any
+previous file exactly as it was. Input is read only when it is no larger than a stated limit.
 """
 
 from __future__ import annotations
@@ -13,7 +14,39 @@ from pathlib import Path
 
 from .errors import HeatLedgerError
 
-__all__ = ["write_atomic", "write_bytes_atomic"]
+__all__ = ["read_bytes_limited", "write_atomic", "write_bytes_atomic"]
+
+
+def read_bytes_limited(path, limit: int, what: str) -> bytes:
+    """Read a whole file, refusing one larger than ``limit``.
+
+    Parameters
+    ----------
+    path : str or Path
+        The file to read. [-]
+    limit : int
+        Largest size accepted. [bytes]
+    what : str
+        What the file is, for messages (``"project file"``, ``"template"``). [-]
+
+    Returns
+    -------
+    bytes
+        The file content.
+
+    Raises
+    ------
+    HeatLedgerError
+        If the file cannot be read or is larger than ``limit``.
+    """
+    p = Path(path)
+    try:
+        size = p.stat().st_size
+    except OSError as exc:
+        raise HeatLedgerError(f"cannot read {what} {str(p)!r}: {exc.strerror}") from None
+    if size > limit:
+        raise HeatLedgerError(f"{what} {p.name!r} is {size} bytes; the limit is {limit} bytes")
+    return p.read_bytes()
 
 
 def write_atomic(path, writer: Callable[[Path], None], *, force: bool = False) -> Path:

@@ -26,6 +26,7 @@ from .constructions import (
     Layer,
 )
 from .errors import HeatLedgerError, ProjectError
+from .fileio import read_bytes_limited
 from .materials import Material, MaterialLibrary, default_library
 
 if sys.version_info >= (3, 11):
@@ -147,14 +148,7 @@ def load_project(path) -> Project:
         Listing every problem found, each with its key path.
     """
     p = Path(path)
-    try:
-        size = p.stat().st_size
-    except OSError as exc:
-        raise HeatLedgerError(f"cannot read project file {str(p)!r}: {exc.strerror}") from None
-    if size > MAX_INPUT_BYTES:
-        raise HeatLedgerError(f"project file {p.name!r} is {size} bytes; the limit is "
-                              f"{MAX_INPUT_BYTES} bytes")
-    data_bytes = p.read_bytes()
+    data_bytes = read_bytes_limited(p, MAX_INPUT_BYTES, "project file")
     try:
         data = tomllib.loads(data_bytes.decode("utf-8"))
     except UnicodeDecodeError:
