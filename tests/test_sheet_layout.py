@@ -15,6 +15,7 @@ from heatledger.sheet.plan import (
     col_letter,
     fit_text_columns,
     split_ref,
+    wrapped_lines,
 )
 from heatledger.sheet.template import template_plan
 
@@ -98,3 +99,40 @@ def test_fit_text_columns_widens_only_where_text_is_cut():
     sh.column_widths["A"] = 99.0
     fit_text_columns(sh)
     assert sh.column_widths["A"] == 99.0
+
+
+def test_wrapped_lines_counts_words_and_long_words():
+    # a header of two words that cannot share a 6-character line takes two lines
+    assert wrapped_lines("Engine value", 7.0) == 2
+    assert wrapped_lines("Engine value", 30.0) == 1
+    assert wrapped_lines("x" * 40, 11.0) == 4   # 10 characters a line at 0.8 per character
+    assert wrapped_lines("a\nb", 30.0) == 2
+
+
+def test_wrapped_cells_have_rows_tall_enough(plans):
+    short = []
+    for plan in plans:
+        for sheet in plan.sheets:
+            widths = sheet.column_widths
+            merged_tops = {m.partition(":")[0] for m in sheet.merges}
+            for c in sheet.cells():
+                style = STYLES[c.style]
+                if not style.wrap or c.formula or not isinstance(c.value, str):
+                    continue
+                if c.ref in merged_tops:
+                    continue
+                row, col = split_ref(c.ref)
+                width = widths.get(col_letter(col), DEFAULT_COLUMN_WIDTH)
+                lines = wrapped_lines(c.value, width, style.size, bold=style.bold)
+                if sheet.row_heights.get(row, 15.0) < 13.0 * lines:
+                    short.append((sheet.name, c.ref, lines, c.value[:40]))
+    assert not short, short[:10]
+
+
+def test_fin_overview_fits_its_page(plans):
+    fins = plans[0].sheet("Fins")
+    cells = fins.cell_map()
+    # the notes under the title stay short; the warnings wrap inside their column
+    assert len(cells["A3"].value) < 120
+    assert all(STYLES[c.style].wrap for ref, c in cells.items()
+               if ref.startswith("O") and ref[1:].isdigit() and int(ref[1:]) > 5)

@@ -14,7 +14,15 @@ from collections.abc import Callable
 from .. import cautions as _cautions
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE, ConstructionRefs, add_construction_sheet
 from .files import write_bytes_atomic
-from .plan import Chart, ChartSeries, PrintSetup, WorkbookPlan, fit_text_columns, sheet_ref
+from .plan import (
+    Chart,
+    ChartSeries,
+    PrintSetup,
+    WorkbookPlan,
+    fit_text_columns,
+    fit_wrapped_rows,
+    sheet_ref,
+)
 from .render_openpyxl import workbook_bytes
 
 __all__ = ["audit_plan", "write_audit", "audit_bytes", "METHODS", "tool_version"]
@@ -119,6 +127,7 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
     _cover(cover, project, summary_cells, tolerance)
     for sheet in plan.sheets:
         fit_text_columns(sheet)
+        fit_wrapped_rows(sheet)
     return plan
 
 

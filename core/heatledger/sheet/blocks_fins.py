@@ -195,7 +195,8 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
     sheet.row_heights[3] = 30.0
     w.row = 4
     w.put(2, "Fin")
-    w.put(3, _describe(fin), style="hl text")
+    w.put(3, _describe(fin), style="hl text wrap")
+    sheet.merges.append("C4:E4")  # wraps in the room left of the check counts
     w.row = 5
     w.put(2, "Base temperature T_b [degC]")
     r = {"tb": w.put(3, float(entry.base_temperature), role="input", fmt="0.00")}
@@ -537,8 +538,8 @@ def _overview(sheet, entries, refs) -> dict:
     b.put("A2", _cautions.CAUTIONS["hot_surfaces"], style="hl warning")
     sheet.merges.append("A2:O2")
     sheet.row_heights[2] = 30.0
-    b.put("A3", "Values are live references to the fin sheets. " + " ".join(FIN_METHODS),
-          role="note")
+    b.put("A3", "Values are live references to the fin sheets; the methods are listed on the "
+                "cover and on each fin sheet.", role="note")
     heads = ["No.", "Fin", "Sheet", "q_f one fin [W]", "η_f [-]", "ε_f [-]", "R_t,f [K/W]",
              "T tip [degC]", "q_t array [W]", "η_o [-]", "R_t,o [K/W]", "Check cells",
              "Checks OK", "State", "Warnings (engine)"]
@@ -567,7 +568,7 @@ def _overview(sheet, entries, refs) -> dict:
         arr = entry.evaluate_array()
         if arr is not None:
             warns += [t for t in arr.warnings if t not in warns]
-        b.put(f"O{row}", "; ".join(warns) or "none", style="hl text")
+        b.put(f"O{row}", "; ".join(warns) or "none", style="hl text wrap")
     last = first + max(len(refs), 1) - 1
     t = last + 2
     b.put(f"B{t}", "Check cells on the fin sheets")

@@ -30,6 +30,7 @@ from .plan import (
     WorkbookPlan,
     col_letter,
     fit_text_columns,
+    fit_wrapped_rows,
     sheet_ref,
 )
 from .template_fins import FIN_COLUMNS, FIN_NOTES, FIN_SHEETS, fin_template_rows, read_fins
@@ -251,6 +252,7 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
             b.put(f"{col_letter(j)}{i}", v)
     for sh in plan.sheets:
         fit_text_columns(sh)
+        fit_wrapped_rows(sh)
     return plan
 
 
