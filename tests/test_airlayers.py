@@ -29,6 +29,35 @@ def test_scalar_matches_array():
     assert air_layer_resistance(0.025, "down") == air_layer_resistance([0.025], "down")[0]
 
 
+#: The scalar path uses math where the array path uses numpy; the same operations in the same
+#: order, so the two agree to the last bit or within a few ulp (numpy's vectorised power).
+RTOL_SCALAR_VS_ARRAY = 1e-15
+
+
+@pytest.mark.parametrize("heat_flow", ["up", "horizontal", "down"])
+@pytest.mark.parametrize("emissivities", [(0.9, 0.9), (0.05, 0.9), (1.0, 0.2)])
+@pytest.mark.parametrize("width", [None, 0.01, 0.5])
+def test_scalar_fast_path_matches_array_path(heat_flow, emissivities, width):
+    # both paths evaluate EN ISO 6946:2017 Annex D, eqs (D.1)-(D.5); this checks the plain-float
+    # fast path against the numpy path over the whole thickness range of the method
+    d = np.concatenate([[0.0, 1e-6], np.linspace(0.0, 0.3, 301)[1:], np.geomspace(1e-5, 0.3, 50)])
+    for temp_mean in (10.0, -5.0):
+        arr = air_layer_resistance(d, heat_flow, *emissivities, temp_mean=temp_mean, width=width)
+        scalar = [air_layer_resistance(float(x), heat_flow, *emissivities, temp_mean=temp_mean,
+                                       width=width) for x in d]
+        assert all(type(s) is float for s in scalar)
+        np.testing.assert_allclose(scalar, arr, rtol=RTOL_SCALAR_VS_ARRAY, atol=0.0)
+
+
+@pytest.mark.parametrize("bad", [float("nan"), float("inf"), -0.001, 0.31])
+def test_scalar_and_array_paths_reject_alike(bad):
+    with pytest.raises(HeatLedgerError) as scalar:
+        air_layer_resistance(bad, "up")
+    with pytest.raises(HeatLedgerError) as array:
+        air_layer_resistance(np.array([bad]), "up")
+    assert str(scalar.value).split("; got")[0] == str(array.value).split("; got")[0]
+
+
 def test_intermediate_thickness_close_to_linear_interpolation():
     # source: EN ISO 6946:2017 6.9.2 (from memory): intermediate thicknesses by linear
     # interpolation in Table 8; the formula agrees within the table precision.

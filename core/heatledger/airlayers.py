@@ -95,6 +95,8 @@ def air_layer_resistance(
     heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
     e1 = fraction("emissivity_1", emissivity_1, allow_zero=False)
     e2 = fraction("emissivity_2", emissivity_2, allow_zero=False)
+    if isinstance(thickness, (int, float)) and not isinstance(thickness, bool):
+        return _air_layer_resistance_scalar(thickness, heat_flow, e1, e2, temp_mean, width)
     d = _thickness_array(thickness)
     h_r0 = radiative_coefficient_black_body(finite("temp_mean", temp_mean))
     if width is None:
@@ -176,18 +178,51 @@ def ventilation_class(vent_area_mm2: float) -> str:
     return "well"
 
 
-def _thickness_array(thickness):
-    d = np.asarray(thickness, dtype=float)
-    if not np.isfinite(d).all():
+def _air_layer_resistance_scalar(thickness, heat_flow, e1, e2, temp_mean, width) -> float:
+    """:func:`air_layer_resistance` for one plain number, in math instead of numpy.
+
+    The same checks in the same order and the same operations as the array path (``d * d``
+    and ``sqrt`` as numpy's power uses for the exponents 2 and 0.5), so the results agree to
+    the last bit or within 1e-15 relative (tested); a call is several times faster.
+    """
+    d = float(thickness)
+    _check_thickness(math.isfinite(d), d < 0.0, d > MAX_AIR_LAYER_THICKNESS + 1e-12, thickness)
+    h_r0 = radiative_coefficient_black_body(finite("temp_mean", temp_mean))
+    if width is None:
+        radiative = h_r0 / (1.0 / e1 + 1.0 / e2 - 1.0)
+    else:
+        b = positive("width", width, "m")
+        ratio = d / b
+        radiative = h_r0 / (1.0 / e1 + 1.0 / e2 - 2.0
+                            + 2.0 / (1.0 + math.sqrt(1.0 + ratio * ratio) - ratio))
+    if d == 0.0:
+        return 0.0
+    if heat_flow == "horizontal":
+        conv = 1.25
+    elif heat_flow == "up":
+        conv = 1.95
+    else:
+        conv = 0.12 * d**-0.44
+    return 1.0 / (max(conv, 0.025 / d) + radiative)
+
+
+def _check_thickness(finite_, negative, too_thick, thickness) -> None:
+    if not finite_:
         raise HeatLedgerError(f"air layer thickness must be a finite number; got {thickness!r}")
-    if (d < 0.0).any():
+    if negative:
         raise HeatLedgerError(f"air layer thickness must not be negative; got {thickness!r}")
-    if (d > MAX_AIR_LAYER_THICKNESS + 1e-12).any():
+    if too_thick:
         raise HeatLedgerError(
             f"air layer thickness must be at most {MAX_AIR_LAYER_THICKNESS} m for the ISO 6946 "
             f"Annex D method; got {thickness!r} (treat a larger space as a room or use "
             "ISO 13789)"
         )
+
+
+def _thickness_array(thickness):
+    d = np.asarray(thickness, dtype=float)
+    _check_thickness(np.isfinite(d).all(), (d < 0.0).any(),
+                     (d > MAX_AIR_LAYER_THICKNESS + 1e-12).any(), thickness)
     if math.isnan(float(d.max(initial=0.0))):
         raise HeatLedgerError("air layer thickness must not be NaN")
     return d
