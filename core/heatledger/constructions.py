@@ -33,7 +33,7 @@ from .airlayers import (
     air_layer_resistance,
 )
 from .errors import HeatLedgerError
-from .materials import Material, default_library
+from .materials import Material, _load_default
 from .surfaces import HEAT_FLOWS, surface_resistance
 
 __all__ = [
@@ -104,7 +104,7 @@ class Layer:
         label = f"layer {name!r}" if name else "layer"
         self.thickness = positive(f"{label} thickness", thickness, "m")
         if isinstance(material, str):
-            material = default_library().get(material)
+            material = _load_default().get(material)  # cached library, read only
         if material is not None and not isinstance(material, Material):
             raise HeatLedgerError(f"{label} material must be a Material or a material name")
         self.material = material
