@@ -136,3 +136,22 @@ def test_fin_overview_fits_its_page(plans):
     assert len(cells["A3"].value) < 120
     assert all(STYLES[c.style].wrap for ref, c in cells.items()
                if ref.startswith("O") and ref[1:].isdigit() and int(ref[1:]) > 5)
+
+
+def test_template_tables_print_at_a_readable_scale(plans):
+    # about 147 characters of column width fit across A4 landscape at 100 % with 0.5 inch
+    # margins (common practice, no published source); ask for 60 % or more on every page
+    template = plans[1]
+    for sheet in template.sheets:
+        total = sum(sheet.column_widths.values())
+        scale = 147.0 * sheet.print_setup.fit_width / total
+        assert scale >= 0.6, (sheet.name, total, sheet.print_setup.fit_width)
+
+
+def test_template_instructions_name_every_input_sheet(plans):
+    template = plans[1]
+    text = " ".join(str(c.value) for c in template.sheet("Instructions").cells())
+    for sheet in template.sheets:
+        if sheet.name not in ("Instructions", "Lists"):
+            assert f"{sheet.name}" in text, sheet.name
+    assert "ALL CHECKS OK" in text

@@ -12,7 +12,9 @@ TOML route, so ``project_from_template`` ends in :func:`heatledger.project.proje
 from __future__ import annotations
 
 import io
+import math
 import zipfile
+from dataclasses import replace
 from pathlib import Path
 
 from ..errors import HeatLedgerError, ProjectError
@@ -116,6 +118,9 @@ TEMPLATE_SHEETS = ("Instructions", "Project", "Materials", "Constructions", "Lay
 VENTILATION = ("unventilated", "slightly", "well")
 _SHORT = ("kind", "heat_flow", "ventilation", "edition", "application")
 _WIDTHS = {"text": 26, "number": 14, "int": 12, "ref": 22}
+#: Column width printed across one A4 landscape page: about 147 characters fit at 100 %
+#: with 0.5 inch margins, so this keeps the print at 65 % or more. [characters]
+PAGE_WIDTH_CHARS = 230.0
 
 
 # --------------------------------------------------------------------------- writing
@@ -253,6 +258,9 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
     for sh in plan.sheets:
         fit_text_columns(sh)
         fit_wrapped_rows(sh)
+        if sh.name in COLUMNS:  # wide tables print on as many pages across as they need
+            across = math.ceil(sum(sh.column_widths.values()) / PAGE_WIDTH_CHARS)
+            sh.print_setup = replace(sh.print_setup, fit_width=max(1, across))
     return plan
 
 
@@ -278,12 +286,23 @@ def _instructions(plan: WorkbookPlan, with_examples: bool) -> None:
         "material, a bridging material or λ and the bridging fraction.",
         "5. Corrections (optional): air_gaps (level), fasteners (λ or material, section, "
         "count), inverted_roof (p, f, x).",
-        "6. Run: heatledger audit this-file.xlsx -o audit.xlsx",
-        "Sand cells are inputs. Blank rows are skipped. Do not rename the sheets or move the "
-        "header rows: the reader checks them and names every problem by sheet and cell.",
-        "Units: thickness mm; λ W/(m K); R m2 K/W; U W/(m2 K); temperatures degC; area m2.",
-        "The further sheets (building and rooms for the heat loss, fins) follow the same "
-        "rules: one row per item, units in the column headers, blank rows skipped.",
+        "6. Building (optional, for the heat loss): one row with the degree-days and their "
+        "base temperature, and the ground data of ground floors.",
+        "7. Rooms: one row per heated room with its volume and ventilation; a blank θ_int "
+        "takes the design inside temperature from the Project sheet.",
+        "8. Elements: one row per wall, window, roof or floor, naming its room. The method "
+        "says how its U is found (construction, declared, window, slab_on_ground, "
+        "suspended_floor, heated_basement) and the boundary what lies beyond it (outside, "
+        "ground, unheated, room, adjacent); fill in the columns that method and boundary name.",
+        "9. Bridges: thermal bridges of a room, ψ and length (linear) or χ and count (point).",
+        "10. Fins (optional): one row per fin or finned surface; lengths in mm.",
+        "11. Run: heatledger audit this-file.xlsx -o audit.xlsx, open audit.xlsx, let the "
+        "spreadsheet program recalculate, and check that the cover says ALL CHECKS OK.",
+        "Sand cells are inputs. Blank rows are skipped; sheets you do not need stay empty. Do "
+        "not rename the sheets or move the header rows: the reader checks them and names "
+        "every problem by sheet and cell.",
+        "Units are in the column headers: thickness and fin lengths mm; λ W/(m K); R m2 K/W; "
+        "U W/(m2 K); temperatures degC; areas m2; volumes m3.",
     ]
     if with_examples:
         lines.append("The rows already filled in are the invented heatledger demo project; "
