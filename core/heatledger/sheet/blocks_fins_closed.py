@@ -306,8 +306,11 @@ def _annular(w, r, fin, res, entry):
                                     note="trapezoidal rule on the nodes in column AA")
             w.put(2, f"K{n}({lab}) = BESSELK, for comparison only [-]")
             bk = w.put(7, formula=f"=BESSELK({x},{n})", fmt=F_E)
-            w.put(14, formula=f'="relative difference "&({bk}/{b[("K", n, x)]}-1)',
-                  role="note")
+            # shown as 1.9E-9 (3 significant figures), not 15 digits of a fraction
+            d = f'({bk}/{b[("K", n, x)]}-1)'
+            e = f"INT(LOG10(ABS({d})))"
+            w.put(14, formula=f'="relative difference "&IF({d}=0,"0",'
+                              f'ROUND({d}/10^{e},2)&"E"&{e})', role="note")
             w.row += 1
     exact_rim = fin.tip == "convective" and not fin.corrected_length
     hr = w.line("h at the rim [W/(m2 K)]", formula=f"={r['h']}" if exact_rim else None,
