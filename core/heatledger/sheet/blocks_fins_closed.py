@@ -308,7 +308,7 @@ def _annular(w, r, fin, res, entry):
             bk = w.put(7, formula=f"=BESSELK({x},{n})", fmt=F_E)
             # shown as 1.9E-9 (3 significant figures), not 15 digits of a fraction
             d = f'({bk}/{b[("K", n, x)]}-1)'
-            e = f"INT(LOG10(ABS({d})))"
+            e = f"ROUND(LN(ABS({d}))/LN(10)-0.5,0)"  # floor of log10 with the fin functions
             w.put(14, formula=f'="relative difference "&IF({d}=0,"0",'
                               f'ROUND({d}/10^{e},2)&"E"&{e})', role="note")
             w.row += 1
