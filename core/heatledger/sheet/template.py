@@ -37,6 +37,7 @@ from .plan import (
 )
 from .template_fins import FIN_COLUMNS, FIN_NOTES, FIN_SHEETS, fin_template_rows, read_fins
 from .template_rooms import ROOM_COLUMNS, ROOM_NOTES, ROOM_SHEETS, read_rooms, room_template_rows
+from .template_tables import note_cells
 
 __all__ = [
     "template_plan",
@@ -429,7 +430,7 @@ def _parse(wb, source: str, raw: bytes):
     materials = []
     for i, (row, where) in enumerate(tables.get("Materials", []), 1):
         materials.append(row)
-        _note(cells, f"materials[{i}]", where, COLUMNS["Materials"])
+        note_cells(cells, f"materials[{i}]", where)
     if materials:
         data["materials"] = materials
     constructions = []
@@ -439,7 +440,7 @@ def _parse(wb, source: str, raw: bytes):
         row["layers"] = []
         constructions.append(row)
         key = f"constructions[{i}]"
-        _note(cells, key, where, COLUMNS["Constructions"])
+        note_cells(cells, key, where)
         name = str(row.get("name", "")).strip().lower()
         if name in by_name:
             continue  # the duplicate is reported by project_from_dict
@@ -457,7 +458,7 @@ def _parse(wb, source: str, raw: bytes):
                 continue
             lst = target["row"].setdefault(child, [])
             lst.append(row)
-            _note(cells, f"{target['key']}.{child}[{len(lst)}]", where, COLUMNS[sheet])
+            note_cells(cells, f"{target['key']}.{child}[{len(lst)}]", where)
     read_rooms(tables, data, problems, cells)
     read_fins(tables, data, problems, cells)
     if problems:
@@ -574,13 +575,6 @@ def _text(value) -> str:
     if isinstance(value, float) and value.is_integer():
         return str(int(value))
     return str(value)
-
-
-def _note(cells, key, where, cols) -> None:
-    cells[key] = where["_row"]
-    for k, _h, _t in cols:
-        if k in where:
-            cells[f"{key}.{k}"] = where[k]
 
 
 def _locate(where: str, cells: dict) -> str:

@@ -9,6 +9,8 @@ names its sheet and cell.
 
 from __future__ import annotations
 
+from .template_tables import flatten_row, nest_row
+
 __all__ = ["FIN_COLUMNS", "FIN_NOTES", "FIN_SHEETS", "fin_template_rows", "read_fins"]
 
 #: Sub-tables written as prefixed columns: column key -> (sub-table, key inside it).
@@ -70,13 +72,9 @@ def fin_template_rows(data: dict) -> dict:
     for fin in data.get("fins", []):
         if not isinstance(fin, dict):
             continue
-        row = {k: v for k, v in fin.items() if k not in ("array", "fv")}
+        row = flatten_row(fin, _SUB)
         if isinstance(row.get("corrected_length"), bool):
             row["corrected_length"] = "TRUE" if row["corrected_length"] else "FALSE"
-        for col, (sub, key) in _SUB.items():
-            table = fin.get(sub)
-            if isinstance(table, dict) and key in table:
-                row[col] = table[key]
         rows.append(row)
     return {"Fins": rows}
 
@@ -98,25 +96,11 @@ def read_fins(tables: dict, data: dict, problems: list, cells: dict) -> None:
     """
     fins = []
     for i, (row, where) in enumerate(tables.get("Fins", []), 1):
-        key = f"fins[{i}]"
-        fin = {k: v for k, v in row.items() if k not in _SUB}
+        fin = nest_row(row, where, f"fins[{i}]", _SUB, cells)
         flag = fin.get("corrected_length")
         if isinstance(flag, str) and flag.strip().lower() in ("true", "false"):
             fin["corrected_length"] = flag.strip().lower() == "true"
         # any other text is reported by the project parser, with every other problem
-        for col, (sub, sub_key) in _SUB.items():
-            if col in row:
-                fin.setdefault(sub, {})[sub_key] = row[col]
-            if col in where:
-                cells[f"{key}.{sub}.{sub_key}"] = where[col]
-        cells[key] = where["_row"]
-        for k, ref in where.items():
-            if k != "_row" and k not in _SUB:
-                cells[f"{key}.{k}"] = ref
-        for sub in ("array", "fv"):
-            cols = [c for c, (s, _k) in _SUB.items() if s == sub and c in where]
-            if cols:
-                cells.setdefault(f"{key}.{sub}", where[cols[0]])
         fins.append(fin)
     if fins:
         data["fins"] = fins

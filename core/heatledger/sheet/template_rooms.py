@@ -8,13 +8,16 @@ project data, noting the cell of every key so that a problem names its sheet and
 
 from __future__ import annotations
 
+from .template_tables import flatten_row, nest_row, note_cells
+
 __all__ = ["ROOM_COLUMNS", "ROOM_NOTES", "ROOM_SHEETS", "room_template_rows", "read_rooms"]
 
 #: Nested tables written as prefixed columns: column key -> (table key, key inside it).
-_VENT = {"vent_basis": "basis", "vent_rate": "ventilation", "vent_infiltration": "infiltration",
-         "vent_heat_recovery": "heat_recovery", "vent_minimum_air_change": "minimum_air_change"}
-_EDGE = {"edge_orientation": "orientation", "edge_extent": "extent",
-         "edge_resistance": "resistance", "edge_thickness_mm": "thickness_mm"}
+_VENT = {f"vent_{c}": ("ventilation", k) for c, k in (
+    ("basis", "basis"), ("rate", "ventilation"), ("infiltration", "infiltration"),
+    ("heat_recovery", "heat_recovery"), ("minimum_air_change", "minimum_air_change"))}
+_EDGE = {f"edge_{k}": ("edge_insulation", k)
+         for k in ("orientation", "extent", "resistance", "thickness_mm")}
 
 ROOM_COLUMNS = {
     "Building": (
@@ -111,18 +114,9 @@ def room_template_rows(data: dict) -> dict:
     out = {"Building": [dict(b)] if isinstance(b, dict) and b else [], "Rooms": [],
            "Elements": [], "Bridges": []}
     for r in rooms:
-        row = {k: v for k, v in r.items() if k not in ("ventilation", "elements",
-                                                       "thermal_bridges")}
-        vent = r.get("ventilation") or {}
-        for col, key in _VENT.items():
-            if key in vent:
-                row[col] = vent[key]
-        out["Rooms"].append(row)
+        out["Rooms"].append(flatten_row(r, _VENT, drop=("elements", "thermal_bridges")))
         for el in r.get("elements", []):
-            erow = {k: v for k, v in el.items() if k != "edge_insulation"}
-            for col, key in _EDGE.items():
-                if key in (el.get("edge_insulation") or {}):
-                    erow[col] = el["edge_insulation"][key]
+            erow = flatten_row(el, _EDGE)
             erow["room_name"] = r.get("name", "")
             out["Elements"].append(erow)
         for br in r.get("thermal_bridges", []):
@@ -150,22 +144,12 @@ def read_rooms(tables: dict, data: dict, problems: list, cells: dict) -> None:
     if building_rows:
         row, where = building_rows[0]
         data["building"] = dict(row)
-        _note(cells, "building", where)
+        note_cells(cells, "building", where)
     rooms = []
     by_name: dict = {}
     for i, (row, where) in enumerate(tables.get("Rooms", []), 1):
-        room = {k: v for k, v in row.items() if k not in _VENT}
         key = f"rooms[{i}]"
-        _note(cells, key, where)
-        vent = {}
-        for col, sub in _VENT.items():
-            if col in row:
-                vent[sub] = row[col]
-            if col in where:
-                cells[f"{key}.ventilation.{sub}"] = where[col]
-        cells[f"{key}.ventilation"] = where.get("vent_basis", where["_row"])
-        if vent:
-            room["ventilation"] = vent
+        room = nest_row(row, where, key, _VENT, cells)
         room["elements"] = []
         rooms.append(room)
         name = str(room.get("name", "")).strip()
@@ -181,25 +165,11 @@ def read_rooms(tables: dict, data: dict, problems: list, cells: dict) -> None:
                                  f"{choices}"))
                 continue
             room, key = by_name[owner]
-            edge = {sub: row.pop(col) for col, sub in _EDGE.items() if col in row}
-            if edge:
-                row["edge_insulation"] = edge
             lst = room.setdefault(child, [])
-            lst.append(row)
-            ekey = f"{key}.{child}[{len(lst)}]"
-            _note(cells, ekey, where)
-            for col, sub in _EDGE.items():
-                if col in where:
-                    cells[f"{ekey}.edge_insulation.{sub}"] = where[col]
+            lst.append(nest_row(row, where, f"{key}.{child}[{len(lst) + 1}]",
+                                _EDGE if child == "elements" else {}, cells))
     for room in rooms:
         if not room.get("thermal_bridges"):
             room.pop("thermal_bridges", None)
     if rooms:
         data["rooms"] = rooms
-
-
-def _note(cells, key, where) -> None:
-    cells[key] = where["_row"]
-    for k, ref in where.items():
-        if k != "_row":
-            cells[f"{key}.{k}"] = ref
