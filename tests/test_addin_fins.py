@@ -10,7 +10,6 @@ from __future__ import annotations
 import datetime as dt
 import math
 import re
-from numbers import Real
 
 import ht
 import numpy as np
@@ -21,6 +20,7 @@ from hypothesis import strategies as st
 from heatledger_xl import udfs_fins as uf
 from heatledger_xl.ranges import ERROR_VALUES
 from heatledger_xl.registry import MAX_DESCRIPTION, PREFIX, REGISTRY
+from tests._addin_helpers import call_with_drawn, check_bad_optional_named, check_result
 
 FINS = sorted(n for n, s in REGISTRY.items() if s.family == "fins")
 rtol_closed = 1e-12  # the same closed form evaluated in another arrangement
@@ -263,36 +263,12 @@ PLAUSIBLE = {
 }
 
 
-def check_result(name: str, out: object) -> None:
-    spec = REGISTRY[name]
-    if isinstance(out, str):
-        assert out.startswith(f"{name}: "), out
-        assert "\n" not in out and len(out) <= 250
-        assert "unexpected problem" not in out, out
-        assert any(a.name in out for a in spec.args), out
-        return
-    if isinstance(out, list):
-        assert spec.spills and out and all(isinstance(r, list) and r for r in out)
-        assert len({len(r) for r in out}) == 1
-        for row in out:
-            for cell in row:
-                assert cell is None or isinstance(cell, (str, bool, int, float)), cell
-                if isinstance(cell, float):
-                    assert math.isfinite(cell)
-        return
-    assert isinstance(out, Real) and not isinstance(out, bool) and math.isfinite(out), out
-
-
 @pytest.mark.parametrize("name", FINS)
 @settings(max_examples=80, deadline=DEADLINE_MS,
           suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
 @given(data=st.data())
 def test_any_cell_values_give_a_result_or_a_one_line_text(name, data):
-    spec = REGISTRY[name]
-    args = [data.draw(spec_rows if a.is_range else scalars) for a in spec.args]
-    keep = data.draw(st.integers(min_value=sum(not a.optional for a in spec.args),
-                                 max_value=len(args)))
-    check_result(name, spec.function(*args[:keep]))
+    check_result(name, call_with_drawn(name, data.draw, spec_rows, scalars))
 
 
 @pytest.mark.parametrize("name", FINS)
@@ -308,15 +284,7 @@ def test_plausible_inputs_reach_the_engine_and_never_raise(name, data):
 @pytest.mark.parametrize("bad", ["#N/A", "nonsense", True, math.nan, dt.datetime(2026, 12, 2),
                                  [[1, 2], [3, 4]]])
 def test_a_bad_optional_argument_is_named_even_with_blank_required_ones(name, bad):
-    spec = REGISTRY[name]
-    for i, a in enumerate(spec.args):
-        if not a.optional or (a.name == "header" and bad is True):
-            continue
-        args = [None] * len(spec.args)
-        args[i] = bad
-        out = spec.function(*args)
-        assert isinstance(out, str) and out.startswith(f"{name}: ") and a.name in out, (
-            a.name, bad, out)
+    check_bad_optional_named(name, bad)
 
 
 _SPEC_NUMBERS = st.one_of(st.floats(min_value=1e-6, max_value=1e6),

@@ -11,7 +11,6 @@ from __future__ import annotations
 
 import datetime as dt
 import math
-from numbers import Real
 
 import pytest
 from hypothesis import HealthCheck, event, given, settings
@@ -20,6 +19,8 @@ from hypothesis import strategies as st
 from heatledger_xl import udfs
 from heatledger_xl.ranges import ERROR_VALUES, LIBRARY
 from heatledger_xl.registry import REGISTRY
+from tests._addin_helpers import call_with_drawn
+from tests._addin_helpers import check_result as check_answer
 
 DEADLINE_MS = 1000  # the add-in's issue: every bad input answers within a second
 # The construction family; other families (fins) carry their own no-raise tests.
@@ -120,41 +121,12 @@ PLAUSIBLE = {
     "quantity": st.sampled_from([None, "conductivity", "density", "specific_heat",
                                  "vapour_resistance_factor", "source"]),
 }
+#: The functions whose answer may be a text that is not an error.
+TEXT_RESULTS = ("HL_MATERIAL", "HL_VERSION", "HL_WARNINGS")
 
 
 def check_result(name: str, out: object) -> None:
-    spec = REGISTRY[name]
-    if isinstance(out, str):
-        assert "\n" not in out and len(out) <= 250
-        if out.startswith(f"{name}: "):
-            assert "unexpected problem" not in out, out
-            arg_names = [a.name for a in spec.args]
-            assert any(a in out for a in arg_names), f"{out!r} names none of {arg_names}"
-        else:  # a text result, not an error: only these functions return text
-            assert name in ("HL_MATERIAL", "HL_VERSION", "HL_WARNINGS"), out
-        return
-    if isinstance(out, list):
-        assert spec.spills and out and all(isinstance(r, list) and r for r in out)
-        assert len({len(r) for r in out}) == 1, "spilled rows must have one width"
-        for row in out:
-            for cell in row:
-                assert cell is None or isinstance(cell, (str, bool, int, float)), cell
-                if isinstance(cell, float):
-                    assert math.isfinite(cell)
-        return
-    assert isinstance(out, Real) and not isinstance(out, bool), out
-    assert math.isfinite(out)
-
-
-def call_with(name: str, draw) -> object:
-    spec = REGISTRY[name]
-    args = []
-    for a in spec.args:
-        args.append(draw(ranges_ if a.is_range else scalars))
-    # sometimes leave trailing optional arguments out, as the spreadsheet may
-    n_required = sum(not a.optional for a in spec.args)
-    keep = draw(st.integers(min_value=n_required, max_value=len(args)))
-    return spec.function(*args[:keep])
+    check_answer(name, out, text_results=TEXT_RESULTS)
 
 
 @pytest.mark.parametrize("name", OURS)
@@ -162,7 +134,7 @@ def call_with(name: str, draw) -> object:
           suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
 @given(data=st.data())
 def test_any_cell_values_give_a_result_or_a_one_line_text(name, data):
-    out = call_with(name, data.draw)
+    out = call_with_drawn(name, data.draw, ranges_, scalars)
     event("error text" if isinstance(out, str) and out.startswith(f"{name}: ") else "result")
     check_result(name, out)
 
