@@ -18,6 +18,7 @@ from dataclasses import replace
 from pathlib import Path
 
 from ..errors import HeatLedgerError, ProjectError
+from ..fileio import read_bytes_limited
 from ..materials import default_library
 from ..project import (
     CORRECTION_KINDS,
@@ -376,14 +377,7 @@ def _read(p: Path):
         raise HeatLedgerError("reading a workbook needs defusedxml (protection against "
                               "malicious XML); install it with: pip install defusedxml")
 
-    try:
-        size = p.stat().st_size
-    except OSError as exc:
-        raise HeatLedgerError(f"cannot read template {str(p)!r}: {exc.strerror}") from None
-    if size > MAX_TEMPLATE_BYTES:
-        raise HeatLedgerError(f"template {p.name!r} is {size} bytes; the limit is "
-                              f"{MAX_TEMPLATE_BYTES} bytes")
-    raw = p.read_bytes()
+    raw = read_bytes_limited(p, MAX_TEMPLATE_BYTES, "template")
     try:
         with zipfile.ZipFile(io.BytesIO(raw)) as zf:
             total = sum(i.file_size for i in zf.infolist())
