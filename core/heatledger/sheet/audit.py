@@ -13,7 +13,6 @@ from collections.abc import Callable
 
 from .. import cautions as _cautions
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE, ConstructionRefs, add_construction_sheet
-from .files import write_bytes_atomic
 from .plan import (
     Chart,
     ChartSeries,
@@ -23,7 +22,7 @@ from .plan import (
     fit_wrapped_rows,
     sheet_ref,
 )
-from .render_openpyxl import workbook_bytes
+from .render_openpyxl import workbook_bytes, write_workbook
 
 __all__ = ["audit_plan", "write_audit", "audit_bytes", "METHODS", "tool_version"]
 
@@ -163,17 +162,7 @@ def write_audit(project, path, *, force: bool = False, **kwargs):
     -------
     pathlib.Path
     """
-    from pathlib import Path
-
-    from ..errors import HeatLedgerError
-
-    target = Path(path)
-    if target.suffix.lower() != ".xlsx":
-        raise HeatLedgerError(f"output file must end in .xlsx; got {str(target)!r}")
-    if target.exists() and not force:
-        raise HeatLedgerError(f"output file {str(target)!r} exists; choose another name or use "
-                              "--force to replace it")
-    return write_bytes_atomic(target, audit_bytes(project, **kwargs), force=force)
+    return write_workbook(audit_plan(project, **kwargs), path, force=force)
 
 
 # --------------------------------------------------------------------------- sheets

@@ -34,7 +34,8 @@ from ..constructions import (
 from ..surfaces import surface_resistance
 from .plan import Block, Chart, ChartSeries, PrintSetup, Sheet, WorkbookPlan, col_letter, sheet_ref
 
-__all__ = ["ConstructionRefs", "add_construction_sheet", "DEFAULT_CHECK_TOLERANCE"]
+__all__ = ["ConstructionRefs", "add_construction_sheet", "add_calculation_sheet",
+           "DEFAULT_CHECK_TOLERANCE"]
 
 #: Relative tolerance of the check cells: spreadsheet and engine both compute in IEEE
 #: doubles, so they agree to ~1e-13; 1e-9 leaves room for a different summation order.
@@ -157,6 +158,33 @@ class _Rows:
         self.row += 1
 
 
+def add_calculation_sheet(plan: WorkbookPlan, sheet_name: str, widths, header: str) -> Sheet:
+    """Add a calculation sheet as every family lays it out: landscape A4 across one page
+    width, rows 1 to 3 (title, note, caution) frozen and repeated on every printed page.
+
+    Parameters
+    ----------
+    plan : WorkbookPlan
+        The workbook plan to extend. [-]
+    sheet_name : str
+        Name of the new sheet. [-]
+    widths : sequence of float
+        Column widths from column A on. [characters]
+    header : str
+        Page header (project and item). [-]
+
+    Returns
+    -------
+    Sheet
+    """
+    return plan.add_sheet(
+        sheet_name, column_widths={col_letter(i + 1): w for i, w in enumerate(widths)},
+        freeze="A4",
+        print_setup=PrintSetup(orientation="landscape", header=header,
+                               footer_left="heatledger calculation sheet {sheet}",
+                               footer_right="page {page} of {pages}", title_rows="1:3"))
+
+
 def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Construction,
                            *, temp_inside: float, temp_outside: float,
                            nodes_per_layer=None, area: float | None = None,
@@ -207,14 +235,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     temps = temperatures or con.temperatures(temp_inside, temp_outside,
                                              nodes_per_layer=nodes_per_layer)
     name = con.name or sheet_name
-    sheet = plan.add_sheet(
-        sheet_name,
-        column_widths={col_letter(i + 1): w for i, w in enumerate(COLUMN_WIDTHS)},
-        freeze="A4",
-        print_setup=PrintSetup(orientation="landscape", header=f"{project_name} | {name}",
-                               footer_left="heatledger calculation sheet {sheet}",
-                               footer_right="page {page} of {pages}", title_rows="1:3"),
-    )
+    sheet = add_calculation_sheet(plan, sheet_name, COLUMN_WIDTHS, f"{project_name} | {name}")
     w = _Rows(sheet, "$C$8")
 
     # ---- header --------------------------------------------------------------------------

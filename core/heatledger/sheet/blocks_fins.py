@@ -36,7 +36,7 @@ from scipy.constants import Stefan_Boltzmann, zero_Celsius
 
 from .. import cautions as _cautions
 from ..fins.annular import AnnularFin
-from .blocks_construction import DEFAULT_CHECK_TOLERANCE
+from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet
 from .blocks_fins_closed import (
     _W,
     F_E,
@@ -176,12 +176,8 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
     """
     fin = entry.fin
     res = entry.evaluate()
-    sheet = plan.add_sheet(
-        sheet_name, column_widths={col_letter(i + 1): w for i, w in enumerate(COLUMN_WIDTHS)},
-        freeze="A4", print_setup=PrintSetup(orientation="landscape",
-                                            header=f"{project_name} | {entry.name}",
-                                            footer_left="heatledger calculation sheet {sheet}",
-                                            title_rows="1:3"))
+    sheet = add_calculation_sheet(plan, sheet_name, COLUMN_WIDTHS,
+                                  f"{project_name} | {entry.name}")
     w = _W(sheet, "$C$8")
     w.put(1, f"{entry.name}: fin heat rate, efficiency and temperatures", style="hl title")
     sheet.merges.append("A1:N1")

@@ -28,7 +28,8 @@ from ..ground.soil import RSE_GROUND, RSI_FLOOR
 from ..heatloss import AIR_DENSITY, AIR_SPECIFIC_HEAT, AdjacentRoom, Ground, Outside, Unheated
 from ..heatloss.project_io import GroundFloorU
 from ..windows import DeclaredWindow, WindowResult
-from .plan import Chart, ChartSeries, PrintSetup, WorkbookPlan, col_letter, sheet_ref
+from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet
+from .plan import Chart, ChartSeries, WorkbookPlan, col_letter, sheet_ref
 
 __all__ = ["HeatLossRefs", "add_heatloss_sheets", "BUILDING_SHEET", "DEFAULT_CHECK_TOLERANCE",
            "HEATLOSS_METHODS"]
@@ -48,8 +49,6 @@ HEATLOSS_METHODS = (
     "Annual heating energy: degree-day method Q = 24 H DD / 1000, base temperature stated",
 )
 
-#: Relative tolerance of the check cells (both sides compute in IEEE doubles).
-DEFAULT_CHECK_TOLERANCE = 1e-9
 #: Name of the building sheet.
 BUILDING_SHEET = "Heat loss building"
 #: Rows 1 to HEADER_ROWS hold the title, the design data and the sheet's check count.
@@ -225,13 +224,8 @@ def add_heatloss_sheets(plan: WorkbookPlan, building_input, *, project_name: str
 
 # --------------------------------------------------------------------------- room sheet
 def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, project_name):
-    sheet = plan.add_sheet(
-        sname, column_widths={col_letter(i + 1): w for i, (_h, w) in enumerate(TABLE_COLUMNS)},
-        freeze="A4",
-        print_setup=PrintSetup(orientation="landscape", header=f"{project_name} | {room.name}",
-                               footer_left="heatledger calculation sheet {sheet}",
-                               footer_right="page {page} of {pages}", title_rows="1:3"),
-    )
+    sheet = add_calculation_sheet(plan, sname, [w for _h, w in TABLE_COLUMNS],
+                                  f"{project_name} | {room.name}")
     w = _W(sheet, f"${_TOL[0]}${_TOL[1:]}")
     w.put(1, f"Room {room.name}: heat loss and design heat load", style="hl title")
     sheet.merges.append("A1:S1")
@@ -474,8 +468,7 @@ def _ground_rows(w, el, crefs, constructions):
         u0 = w.value_row(
             "U_0: d_t < B' → 2λ/(πB' + d_t) ln(πB'/d_t + 1); else λ/(0.457 B' + d_t) "
             "[W/(m2 K)]",
-            formula=(f"=IF({dt}<{b},2*{lam}/(PI()*{b}+{dt})*LN(PI()*{b}/{dt}+1),"
-                     f"{lam}/(0.457*{b}+{dt}))"),
+            formula=_floor_u_formula(lam, b, dt),
             engine=res.u_without_edge, fmt=FMT_U, note=f"regime here: {res.regime}")
         edge = res.edge_insulation
         if edge is not None:
@@ -541,8 +534,7 @@ def _ground_rows(w, el, crefs, constructions):
     ubf = w.value_row(
         "U_bf: d_t + z/2 < B' → 2λ/(πB' + d_t + z/2) ln(πB'/(d_t + z/2) + 1); else "
         "λ/(0.457 B' + d_t + z/2) [W/(m2 K)]",
-        formula=(f"=IF({de}<{b},2*{lam}/(PI()*{b}+{de})*LN(PI()*{b}/{de}+1),"
-                 f"{lam}/(0.457*{b}+{de}))"),
+        formula=_floor_u_formula(lam, b, de),
         engine=res.floor_u, fmt=FMT_U, note=f"regime here: {res.floor_regime}")
     dw = w.value_row("d_w = λ (R_si + R_w + R_se) [m]", formula=f"={lam}*({rsiw}+{rw}+{rse})",
                      engine=res.wall_equivalent_thickness, fmt="0.0000")
@@ -558,6 +550,13 @@ def _ground_rows(w, el, crefs, constructions):
     area = w.value_row("element area A + z P [m2]", formula=f"={a}+{z}*{p}", engine=g.area,
                        fmt="0.00")
     return u, area
+
+
+def _floor_u_formula(lam, b, d) -> str:
+    """U of a floor of characteristic dimension B' and equivalent thickness d (EN ISO 13370
+    8.2 and 8.4): 2λ/(πB' + d) ln(πB'/d + 1) for d < B', else λ/(0.457 B' + d)."""
+    return (f"=IF({d}<{b},2*{lam}/(PI()*{b}+{d})*LN(PI()*{b}/{d}+1),"
+            f"{lam}/(0.457*{b}+{d}))")
 
 
 def _resistance_row(w, label, value, cname, crefs, constructions):
@@ -616,13 +615,8 @@ def _ventilation_rows(w, room, rres) -> dict:
 def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance,
                     project_name) -> dict:
     widths = [5, 40, 24, 10, 11, 11, 11, 11, 12, 12, 10, 10, 10, 10, 10, 10, 10, 10, 40]
-    sheet = plan.add_sheet(
-        BUILDING_SHEET, column_widths={col_letter(i + 1): x for i, x in enumerate(widths)},
-        freeze="A4",
-        print_setup=PrintSetup(orientation="landscape",
-                               header=f"{project_name} | building heat loss",
-                               footer_left="heatledger calculation sheet {sheet}",
-                               footer_right="page {page} of {pages}", title_rows="1:3"))
+    sheet = add_calculation_sheet(plan, BUILDING_SHEET, widths,
+                                  f"{project_name} | building heat loss")
     w = _W(sheet, f"${_B_TOL[0]}${_B_TOL[1:]}")
     b = bi.building
     w.put(1, f"Building {b.name}: heat loss, design heat load and annual energy",

@@ -308,10 +308,6 @@ def _chart(wb: Workbook, spec: Chart):
             else:
                 ser.graphicalProperties.line.noFill = True
             ch.series.append(ser)
-        ch.x_axis.title = spec.x_title or None
-        ch.y_axis.title = spec.y_title or None
-        ch.x_axis.delete = False
-        ch.y_axis.delete = False
         ch.x_axis.majorGridlines = None
         ch.x_axis.tickLblPos = "low"
         ch.y_axis.tickLblPos = "low"
@@ -328,10 +324,10 @@ def _chart(wb: Workbook, spec: Chart):
             ch.series.append(ser)
         if spec.series and spec.series[0].categories:
             ch.set_categories(_reference(wb, spec.series[0].categories))
-        ch.x_axis.title = spec.x_title or None
-        ch.y_axis.title = spec.y_title or None
-        ch.x_axis.delete = False
-        ch.y_axis.delete = False
+    ch.x_axis.title = spec.x_title or None
+    ch.y_axis.title = spec.y_title or None
+    ch.x_axis.delete = False
+    ch.y_axis.delete = False
     ch.title = spec.title
     ch.width = spec.width_cm
     ch.height = spec.height_cm
