@@ -305,10 +305,7 @@ def HL_ROOM_LOAD(elements, temp_room, temp_external, annual_mean_external_temper
                  groundwater=None, ventilation_coefficient=None, reheat=None):
     """Design heat load of a room Phi_HL = (H_T + H_V)(temp_room - temp_external) + Phi_hu
     from its element range (EN 12831-1 style). [W]"""
-    h_v = number("ventilation_coefficient", ventilation_coefficient, 0.0, low=0.0,
-                 high=MAX_QUANTITY, low_inclusive=True, unit="W/K")
-    phi_hu = number("reheat", reheat, 0.0, low=0.0, high=MAX_QUANTITY, low_inclusive=True,
-                    unit="W")
+    h_v, phi_hu = _ventilation_and_reheat(ventilation_coefficient, reheat)
     ground = _ground(annual_mean_external_temperature, groundwater)
     room = _room(elements, temp_room, temp_external, h_v, phi_hu, ground)
     return room.design_heat_load(room.design_external_temperature)
@@ -322,10 +319,7 @@ def HL_ROOM_SHARES(elements, temp_room, temp_external, annual_mean_external_temp
     """Breakdown of a room's design heat load: one row per element row, then ventilation and
     heating-up, with H, heat flow and share of Phi_HL (EN 12831-1 style). [W/K, W, -]"""
     show_header = flag("header", header, False)
-    h_v = number("ventilation_coefficient", ventilation_coefficient, 0.0, low=0.0,
-                 high=MAX_QUANTITY, low_inclusive=True, unit="W/K")
-    phi_hu = number("reheat", reheat, 0.0, low=0.0, high=MAX_QUANTITY, low_inclusive=True,
-                    unit="W")
+    h_v, phi_hu = _ventilation_and_reheat(ventilation_coefficient, reheat)
     ground = _ground(annual_mean_external_temperature, groundwater)
     room = _room(elements, temp_room, temp_external, h_v, phi_hu, ground)
     res = room.heat_load(room.design_external_temperature)
@@ -416,6 +410,15 @@ def _ground(annual_mean_external_temperature, groundwater):
     tme = number("annual_mean_external_temperature", annual_mean_external_temperature, None,
                  low=-100.0, high=100.0, unit="degC")
     return tme, GROUNDWATER_FACTOR_SHALLOW if gw == "shallow" else GROUNDWATER_FACTOR_DEEP
+
+
+def _ventilation_and_reheat(ventilation_coefficient, reheat):
+    """H_V [W/K] and the heating-up allowance Phi_hu [W] from their cells (blank = 0)."""
+    h_v = number("ventilation_coefficient", ventilation_coefficient, 0.0, low=0.0,
+                 high=MAX_QUANTITY, low_inclusive=True, unit="W/K")
+    phi_hu = number("reheat", reheat, 0.0, low=0.0, high=MAX_QUANTITY, low_inclusive=True,
+                    unit="W")
+    return h_v, phi_hu
 
 
 def _room(cells, temp_room, temp_external, h_v, phi_hu, ground):
