@@ -155,3 +155,32 @@ def test_template_instructions_name_every_input_sheet(plans):
         if sheet.name not in ("Instructions", "Lists"):
             assert f"{sheet.name}" in text, sheet.name
     assert "ALL CHECKS OK" in text
+
+
+def test_bar_chart_axes_have_sensible_number_formats(plans):
+    # U-values to two decimals (0.20, not 0.2), heat losses in whole watts (not 1000.0)
+    audit = plans[0]
+    assert audit.sheet("Summary").charts[0].y_format == "0.00"
+    assert audit.sheet("Heat loss building").charts[0].y_format == "0"
+    import io
+    import zipfile
+
+    from heatledger.sheet.render_openpyxl import workbook_bytes
+
+    with zipfile.ZipFile(io.BytesIO(workbook_bytes(audit))) as zf:
+        charts = [zf.read(n).decode() for n in zf.namelist() if n.startswith("xl/charts/")]
+    assert any('formatCode="0.00"' in c for c in charts)
+
+
+def test_u_to_two_significant_figures_is_shown_with_two(plans):
+    # ISO 6946:2017 clause 8: U reported to two significant figures; 0.20 shows as 0.20,
+    # not 0.200 (three figures) nor 0.2 (one)
+    audit = plans[0]
+    summary = audit.sheet("Summary").cell_map()
+    fmt = summary["H4"].number_format
+    assert fmt == "[<0.1]0.000;[<1]0.00;0.0"
+    for ref in audit.index.values():
+        if hasattr(ref, "u_reported"):
+            sheet, a1 = ref.u_reported.split("!")
+            cell = audit.sheet(sheet.strip("'")).cell_map()[a1.replace("$", "")]
+            assert cell.number_format == fmt

@@ -12,7 +12,12 @@ import re
 from collections.abc import Callable
 
 from .. import cautions as _cautions
-from .blocks_construction import DEFAULT_CHECK_TOLERANCE, ConstructionRefs, add_construction_sheet
+from .blocks_construction import (
+    DEFAULT_CHECK_TOLERANCE,
+    FMT_U_2SF,
+    ConstructionRefs,
+    add_construction_sheet,
+)
 from .plan import (
     Chart,
     ChartSeries,
@@ -220,7 +225,7 @@ def _summary(sheet, project, refs) -> dict[str, str]:
               number_format="0.00")
         b.put(f"F{r}", formula=f"={ref.r_total}", number_format="0.000")
         b.put(f"G{r}", formula=f"={ref.u_value}", number_format="0.0000")
-        b.put(f"H{r}", formula=f"={ref.u_reported}", number_format="0.000")
+        b.put(f"H{r}", formula=f"={ref.u_reported}", number_format=FMT_U_2SF)
         b.put(f"I{r}", formula=f'=IF(ISNUMBER({ref.extras["target"]}),{ref.extras["target"]},"")',
               number_format="0.000")
         b.put(f"J{r}", formula=f'=IF(ISNUMBER(I{r}),IF(G{r}<=I{r},"yes","NO"),"no target")')
@@ -247,7 +252,7 @@ def _summary(sheet, project, refs) -> dict[str, str]:
              ChartSeries("target U [W/(m2 K)]", sheet_ref(sheet.name, f"I{first}:I{last}"),
                          sheet_ref(sheet.name, f"A{first}:A{last}"), color="D9A441")),
             x_title="construction (No. in the table)", y_title="U [W/(m2 K)]",
-            width_cm=20.0, height_cm=8.0))
+            width_cm=20.0, height_cm=8.0, y_format="0.00"))
     return {"count": sheet_ref(sheet.name, f"L{t + 3}"),
             "ok": sheet_ref(sheet.name, f"M{t + 3}")}
 

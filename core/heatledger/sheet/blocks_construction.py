@@ -48,6 +48,8 @@ FMT_U = "0.0000"
 FMT_T = "0.000"
 FMT_COEF = "0.0000"
 FMT_SMALL = "0.000E+00"
+#: U to two significant figures shown with exactly two (0.20, 0.085, 1.4), not 0.200.
+FMT_U_2SF = "[<0.1]0.000;[<1]0.00;0.0"
 
 LAYER_COLUMNS = [
     ("No.", 5), ("Layer", 30), ("Kind", 11), ("Material", 24), ("d [mm]", 10),
@@ -582,7 +584,8 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                         formula=f"={u0}+{applied}*{du_sum}", engine=con.u_value, fmt=FMT_U)
     u_rep = w.value_row("U to two significant figures [W/(m2 K)]",
                         formula=f"=ROUND({u_val},1-INT(LOG10(ABS({u_val}))))",
-                        engine=con.u_value_reported, fmt="0.000", note="ISO 6946:2017 clause 8")
+                        engine=con.u_value_reported, fmt=FMT_U_2SF,
+                        note="ISO 6946:2017 clause 8")
     w.put(2, "Target met?")
     w.put(7, formula=f'=IF(ISNUMBER({target_ref}),IF({u_val}<={target_ref},"yes","NO"),'
                      '"no target")')

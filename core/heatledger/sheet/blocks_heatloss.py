@@ -779,7 +779,8 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
         "bar", "Design heat loss by element type", f"B{chart_row}",
         (ChartSeries("Φ [W]", sheet_ref(BUILDING_SHEET, f"G{k_first}:G{k_last}"),
                      sheet_ref(BUILDING_SHEET, f"B{k_first}:B{k_last}"), color="2E5A6B"),),
-        x_title="element type", y_title="heat loss at θ_e [W]", width_cm=20.0, height_cm=8.0))
+        x_title="element type", y_title="heat loss at θ_e [W]", width_cm=20.0, height_cm=8.0,
+        y_format="0"))
     total = w.checks + sum(n for _c, _o, n in counters)
     s = BUILDING_SHEET
     for name, ref in room_energy.items():

@@ -423,6 +423,9 @@ class Chart:
         Axis titles with units.
     width_cm, height_cm : float
         Size on the page.
+    y_format : str or None
+        Number format of the value-axis labels (``"0.00"``); None leaves the renderer's
+        default (the scatter charts' whole degrees, the bars' source format).
     """
 
     kind: str
@@ -433,6 +436,7 @@ class Chart:
     y_title: str = ""
     width_cm: float = 16.0
     height_cm: float = 8.0
+    y_format: str | None = None
 
     def __post_init__(self) -> None:
         if self.kind not in ("scatter", "bar"):

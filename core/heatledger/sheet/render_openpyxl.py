@@ -328,6 +328,8 @@ def _chart(wb: Workbook, spec: Chart):
     ch.y_axis.title = spec.y_title or None
     ch.x_axis.delete = False
     ch.y_axis.delete = False
+    if spec.y_format:
+        ch.y_axis.number_format = spec.y_format
     ch.title = spec.title
     ch.width = spec.width_cm
     ch.height = spec.height_cm
