@@ -95,17 +95,17 @@ def air_layer_resistance(
     heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
     e1 = fraction("emissivity_1", emissivity_1, allow_zero=False)
     e2 = fraction("emissivity_2", emissivity_2, allow_zero=False)
-    if isinstance(thickness, (int, float)) and not isinstance(thickness, bool):
-        return _air_layer_resistance_scalar(thickness, heat_flow, e1, e2, temp_mean, width)
-    d = _thickness_array(thickness)
-    h_r0 = radiative_coefficient_black_body(finite("temp_mean", temp_mean))
-    if width is None:
-        radiative = h_r0 / (1.0 / e1 + 1.0 / e2 - 1.0)
+    plain = isinstance(thickness, (int, float)) and not isinstance(thickness, bool)
+    if plain:  # fast path: math on one number (numpy costs ~15 us on a scalar)
+        d = float(thickness)
+        _check_thickness(math.isfinite(d), d < 0.0, d > MAX_AIR_LAYER_THICKNESS + 1e-12,
+                         thickness)
     else:
-        b = positive("width", width, "m")
-        ratio = d / b
-        radiative = h_r0 / (1.0 / e1 + 1.0 / e2 - 2.0
-                            + 2.0 / (1.0 + (1.0 + ratio**2) ** 0.5 - ratio))
+        d = _thickness_array(thickness)
+    h_r0 = radiative_coefficient_black_body(finite("temp_mean", temp_mean))
+    radiative = _radiative_term(h_r0, e1, e2, d, width, math.sqrt if plain else np.sqrt)
+    if plain:
+        return _scalar_resistance(d, heat_flow, radiative)
     h_a = air_layer_convective_coefficient(d, heat_flow)
     out = 1.0 / (h_a + radiative)
     out = np.where(d == 0.0, 0.0, out)
@@ -178,23 +178,21 @@ def ventilation_class(vent_area_mm2: float) -> str:
     return "well"
 
 
-def _air_layer_resistance_scalar(thickness, heat_flow, e1, e2, temp_mean, width) -> float:
-    """:func:`air_layer_resistance` for one plain number, in math instead of numpy.
+def _radiative_term(h_r0, e1, e2, d, width, sqrt):
+    """``E hr0`` of Annex D, or its small-void form when ``width`` is given.
 
-    The same checks in the same order and the same operations as the array path (``d * d``
-    and ``sqrt`` as numpy's power uses for the exponents 2 and 0.5), so the results agree to
-    the last bit or within 1e-15 relative (tested); a call is several times faster.
+    ``sqrt`` is ``math.sqrt`` for one number or ``np.sqrt`` for arrays (the same operations
+    either way, so both paths agree to the last bit or within 1e-15 relative, tested).
     """
-    d = float(thickness)
-    _check_thickness(math.isfinite(d), d < 0.0, d > MAX_AIR_LAYER_THICKNESS + 1e-12, thickness)
-    h_r0 = radiative_coefficient_black_body(finite("temp_mean", temp_mean))
     if width is None:
-        radiative = h_r0 / (1.0 / e1 + 1.0 / e2 - 1.0)
-    else:
-        b = positive("width", width, "m")
-        ratio = d / b
-        radiative = h_r0 / (1.0 / e1 + 1.0 / e2 - 2.0
-                            + 2.0 / (1.0 + math.sqrt(1.0 + ratio * ratio) - ratio))
+        return h_r0 / (1.0 / e1 + 1.0 / e2 - 1.0)
+    b = positive("width", width, "m")
+    ratio = d / b
+    return h_r0 / (1.0 / e1 + 1.0 / e2 - 2.0 + 2.0 / (1.0 + sqrt(1.0 + ratio * ratio) - ratio))
+
+
+def _scalar_resistance(d: float, heat_flow: str, radiative: float) -> float:
+    """``Rg = 1/(ha + E hr0)`` for one thickness, in math (see the array path)."""
     if d == 0.0:
         return 0.0
     if heat_flow == "horizontal":
