@@ -184,3 +184,24 @@ def test_u_to_two_significant_figures_is_shown_with_two(plans):
             sheet, a1 = ref.u_reported.split("!")
             cell = audit.sheet(sheet.strip("'")).cell_map()[a1.replace("$", "")]
             assert cell.number_format == fmt
+
+
+def test_warnings_have_room_to_be_read(plans):
+    # a caution wrapped into a narrow label column spills over the rows around it
+    narrow = []
+    for sheet in plans[0].sheets:
+        tops = {}
+        for rng in sheet.merges:
+            first, _, last = rng.partition(":")
+            (_r1, c1), (_r2, c2) = split_ref(first), split_ref(last or first)
+            tops[first] = sum(sheet.column_widths.get(col_letter(c), DEFAULT_COLUMN_WIDTH)
+                              for c in range(c1, c2 + 1))
+        for c in sheet.cells():
+            if c.style != "hl warning":
+                continue
+            _row, col = split_ref(c.ref)
+            width = tops.get(c.ref, sheet.column_widths.get(col_letter(col),
+                                                            DEFAULT_COLUMN_WIDTH))
+            if width < 60:
+                narrow.append((sheet.name, c.ref, width))
+    assert not narrow, narrow[:10]

@@ -35,7 +35,7 @@ from ..surfaces import surface_resistance
 from .plan import Block, Chart, ChartSeries, PrintSetup, Sheet, WorkbookPlan, col_letter, sheet_ref
 
 __all__ = ["ConstructionRefs", "add_construction_sheet", "add_calculation_sheet",
-           "DEFAULT_CHECK_TOLERANCE"]
+           "put_warning", "DEFAULT_CHECK_TOLERANCE"]
 
 #: Relative tolerance of the check cells: spreadsheet and engine both compute in IEEE
 #: doubles, so they agree to ~1e-13; 1e-9 leaves room for a different summation order.
@@ -185,6 +185,33 @@ def add_calculation_sheet(plan: WorkbookPlan, sheet_name: str, widths, header: s
         print_setup=PrintSetup(orientation="landscape", header=header,
                                footer_left="heatledger calculation sheet {sheet}",
                                footer_right="page {page} of {pages}", title_rows="1:3"))
+
+
+def put_warning(w, text: str | None = None, *, formula: str | None = None,
+                last_col: str = "N") -> str:
+    """Write a warning on its own row from column B, merged to ``last_col`` so that it reads
+    on one or two lines instead of wrapping in the narrow label column; move to the next row.
+
+    Parameters
+    ----------
+    w : row writer
+        A sheet's row writer (``put(col, ...)``, ``row``, ``sheet``). [-]
+    text : str, optional
+        The warning. [-]
+    formula : str, optional
+        A formula giving the warning text instead. [-]
+    last_col : str
+        Last column of the merged range. [-]
+
+    Returns
+    -------
+    str
+        The reference of the warning cell. [-]
+    """
+    a1 = w.put(2, text, formula=formula, style="hl warning")
+    w.sheet.merges.append(f"B{w.row}:{last_col}{w.row}")
+    w.row += 1
+    return a1
 
 
 def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Construction,
@@ -726,8 +753,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         w.put(7, float(val), role="engine", fmt=fmt)
         w.row += 1
     for text in con.warnings:
-        w.put(2, f"Warning: {text}", style="hl warning")
-        w.row += 1
+        put_warning(w, f"Warning: {text}")
     last_row = w.row
 
     # ---- chart ---------------------------------------------------------------------------

@@ -36,7 +36,7 @@ from scipy.constants import Stefan_Boltzmann, zero_Celsius
 
 from .. import cautions as _cautions
 from ..fins.annular import AnnularFin
-from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet
+from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet, put_warning
 from .blocks_fins_closed import (
     _W,
     F_E,
@@ -230,14 +230,11 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
     w.line("highest surface temperature of the fin [degC]",
            formula=f"=MAX({r['tb']},{r['tip']})", fmt="0.00",
            note="compare with the touch limits that apply (see the caution above)")
-    w.put(2, formula=f'=IF({r["eps"]}<1,"WARNING: fin effectiveness "&ROUND({r["eps"]},3)'
-                     f'&" is below 1: the fin reduces the heat rate of the base it covers",'
-                     f'"fin effectiveness "&ROUND({r["eps"]},3)&" is at least 1")',
-          style="hl warning")
-    w.row += 1
+    put_warning(w, formula=f'=IF({r["eps"]}<1,"WARNING: fin effectiveness "&ROUND({r["eps"]},3)'
+                           f'&" is below 1: the fin reduces the heat rate of the base it covers",'
+                           f'"fin effectiveness "&ROUND({r["eps"]},3)&" is at least 1")')
     for text in res.warnings:
-        w.put(2, f"Warning (engine): {text}", style="hl warning")
-        w.row += 1
+        put_warning(w, f"Warning (engine): {text}")
     for text in res.notes:
         w.put(2, f"Note (engine): {text}", role="note")
         w.row += 1
@@ -325,8 +322,7 @@ def _array(w, r, entry):
     w.line("bare base alone h A_base θ_b [W]", formula=f"={r['h']}*{base}*{r['theta']}", fmt=F_G,
            note="for comparison: the base without fins")
     for text in res.warnings[len(entry.fin.warnings):]:
-        w.put(2, f"Warning (engine): {text}", style="hl warning")
-        w.row += 1
+        put_warning(w, f"Warning (engine): {text}")
     for key, answer in entry.sizing().items():
         label = "fin length" if key == "length" else "fin count"
         if isinstance(answer, str):
@@ -493,8 +489,7 @@ def _fv(w, r, fin, entry):
             ("fin effectiveness by finite volumes [-]", fv.effectiveness, F_G)):
         w.stated(label, val, fmt)
     for text in fv.warnings:
-        w.put(2, f"Warning (finite volumes): {text}", style="hl warning")
-        w.row += 1
+        put_warning(w, f"Warning (finite volumes): {text}")
     return node0, node_n
 
 
