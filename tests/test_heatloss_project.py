@@ -148,6 +148,12 @@ def test_unknown_construction_names_room_element_rule_and_closest_names():
      "rooms[2].elements[2].adjustment_factor", "between 0"),
     (lambda d: d["rooms"][0]["elements"][1].update(exposed_perimeter=10.0),
      "rooms[1].elements[2]", "exposed_perimeter"),
+    (lambda d: d["rooms"][0].update(elements={}), "rooms[1].elements",
+     "room 'A': must be a list of tables ([[rooms.elements]])"),
+    (lambda d: d["rooms"][1].update(thermal_bridges=3), "rooms[2].thermal_bridges",
+     "must be a list of tables ([[rooms.thermal_bridges]])"),
+    (lambda d: d.update(building=[1]), "building", "must be a table ([building])"),
+    (lambda d: d.update(rooms={}), "rooms", "must be a list of tables ([[rooms]])"),
 ])
 def test_bad_input_is_named_by_key_path(change, path, fragment):
     data = small_data()

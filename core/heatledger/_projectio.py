@@ -95,17 +95,21 @@ def table(data, key, problems) -> dict:
     return value
 
 
-def table_list(data, key, problems) -> list:
-    """Read a top-level ``[[key]]`` list of tables; a missing one is empty.
+def table_list(data, key, problems, *, where="", section=None) -> list:
+    """Read a ``[[key]]`` list of tables; a missing one is empty.
 
     Parameters
     ----------
     data : dict
-        The project data. [-]
+        The project data, or the table holding the list. [-]
     key : str
-        The section name. [-]
+        The key of the list. [-]
     problems : list
-        A problem is appended as ``(key, message)``. [-]
+        A problem is appended as ``(key path, message)``. [-]
+    where : str
+        Key path of ``data`` (``rooms[2]``); empty for the top level. [-]
+    section : str, optional
+        The list's name in TOML, for the message (``rooms.elements``); default ``key``. [-]
 
     Returns
     -------
@@ -114,7 +118,8 @@ def table_list(data, key, problems) -> list:
     """
     value = data.get(key, [])
     if not isinstance(value, list):
-        problems.append((key, f"must be a list of tables ([[{key}]])"))
+        path = f"{where}.{key}" if where else key
+        problems.append((path, f"must be a list of tables ([[{section or key}]])"))
         return []
     return value
 

@@ -389,10 +389,7 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
     reheat = number(row, "reheat_factor", where, problems, non_negative=True, default=0.0)
     vent = _ventilation(row.get("ventilation"), f"{where}.ventilation", label, problems)
     elements = []
-    raw_el = row.get("elements", [])
-    if not isinstance(raw_el, list):
-        problems.append((f"{where}.elements", "must be a list of tables ([[rooms.elements]])"))
-        raw_el = []
+    raw_el = table_list(row, "elements", problems, where=where, section="rooms.elements")
     for j, erow in enumerate(raw_el, 1):
         ew = f"{where}.elements[{j}]"
         el = _element(erow, ew, label, name, ctx, problems)
@@ -400,11 +397,8 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
             elements.append(el)
             where_map[(name, el.name)] = ew
     bridges = []
-    raw_br = row.get("thermal_bridges", [])
-    if not isinstance(raw_br, list):
-        problems.append((f"{where}.thermal_bridges", "must be a list of tables "
-                         "([[rooms.thermal_bridges]])"))
-        raw_br = []
+    raw_br = table_list(row, "thermal_bridges", problems, where=where,
+                        section="rooms.thermal_bridges")
     for j, brow in enumerate(raw_br, 1):
         bw = f"{where}.thermal_bridges[{j}]"
         br = _bridge(brow, bw, label, name, ctx, problems)
