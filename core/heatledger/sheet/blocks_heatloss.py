@@ -67,8 +67,11 @@ TABLE_COLUMNS = [
     ("Unit", 7), ("U, ψ, χ", 11), ("ΔU_TB [W/(m2 K)]", 10), ("θ other side [degC]", 10),
     ("Factor f [-]", 10), ("H [W/K]", 11), ("Engine H [W/K]", 11), ("Check H", 10),
     ("Φ [W]", 11), ("Share [-]", 9), ("Engine share [-]", 9), ("Check share", 10),
-    ("Internal [1/0]", 8), ("Rule / source", 44),
+    ("Internal [1/0]", 8), ("Rule / source", 60),
 ]
+#: Style of the notes in the last column: wrapped there, so a long provenance does not
+#: run on past the table and shrink the printed page.
+NOTE_STYLE = "hl note wrap"
 #: Header cells (column C) of a room sheet and of the building sheet.
 _TI, _TE, _DT, _TOL = "C4", "C5", "C6", "C7"
 # building sheet header cells
@@ -144,7 +147,7 @@ class _W:
             eng = self.put(12, float(engine), role="engine", fmt=fmt)
             self.check(13, ref, eng)
         if note:
-            self.put(19, note, role="note")
+            self.put(19, note, role="note", style=NOTE_STYLE)
         self.row += 1
         return ref
 
@@ -308,7 +311,7 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
         w.put(14, formula=f"=K{r}*{_DT}", fmt=FMT_W)
         _share_cells(w, r, total_ref, line)
         w.put(18, 1 if line.internal else 0, role="engine", fmt="0")
-        w.put(19, f"{line.factor_rule}; U from {line.source}", role="note")
+        w.put(19, f"{line.factor_rule}; U from {line.source}", role="note", style=NOTE_STYLE)
     # ventilation row
     vline, rline = rres.lines[n_trans], rres.lines[n_trans + 1]
     r = w.row = vent_row
@@ -325,7 +328,8 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
     w.put(14, formula=f"=K{r}*{_DT}", fmt=FMT_W)
     _share_cells(w, r, total_ref, vline)
     w.put(18, 0, role="engine", fmt="0")
-    w.put(19, "H_V = V_eff ρ c_p / 3600 (quantity V_eff, transmittance ρ c_p/3600)", role="note")
+    w.put(19, "H_V = V_eff ρ c_p / 3600 (quantity V_eff, transmittance ρ c_p/3600)", role="note",
+          style=NOTE_STYLE)
     # reheat row
     r = w.row = reheat_row
     w.put(1, n_trans + 2)
@@ -340,7 +344,8 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
     w.check(13, phi_hu, w.put(12, float(rline.heat_flow), role="engine", fmt=FMT_W))
     _share_cells(w, r, total_ref, rline)
     w.put(18, 0, role="engine", fmt="0")
-    w.put(19, "Φ_hu = f_RH A_floor (f_RH [W/m2] input; check compares Φ_hu)", role="note")
+    w.put(19, "Φ_hu = f_RH A_floor (f_RH [W/m2] input; check compares Φ_hu)", role="note",
+          style=NOTE_STYLE)
     w.row = reheat_row + 1
 
     # ---- totals (fixed layout: total_ref above points at Φ_HL) --------------------------
@@ -444,7 +449,7 @@ def _ground_rows(w, el, crefs, constructions):
     g = el.u
     res = g.result
     w.put(2, f"{g.method_key.replace('_', ' ')}: {el.name}", style="hl label")
-    w.put(19, g.method, role="note")
+    w.put(19, g.method, role="note", style=NOTE_STYLE)
     w.row += 1
     a = w.value_row("A floor area [m2]", value=float(res.area), fmt="0.00")
     p = w.value_row("P exposed perimeter [m]", value=float(res.exposed_perimeter), fmt="0.00")
@@ -614,7 +619,7 @@ def _ventilation_rows(w, room, rres) -> dict:
 # --------------------------------------------------------------------------- building sheet
 def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance,
                     project_name) -> dict:
-    widths = [5, 40, 24, 10, 11, 11, 11, 11, 12, 12, 10, 10, 10, 10, 10, 10, 10, 10, 40]
+    widths = [5, 40, 24, 10, 11, 11, 11, 11, 12, 12, 10, 10, 10, 10, 10, 10, 10, 10, 60]
     sheet = add_calculation_sheet(plan, BUILDING_SHEET, widths,
                                   f"{project_name} | building heat loss")
     w = _W(sheet, f"${_B_TOL[0]}${_B_TOL[1:]}")

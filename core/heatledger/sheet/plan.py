@@ -271,6 +271,7 @@ STYLES: dict[str, Style] = {
               align="center", wrap=True),
         Style("hl label", color="1F2A33"),
         Style("hl note", italic=True, size=9, color="5A6770", wrap=False),
+        Style("hl note wrap", italic=True, size=9, color="5A6770", wrap=True),
         Style("hl input", color="3A2A00", fill="FBEFD0", border="thin"),
         Style("hl formula", color="0B3340", fill="DDEFF2", border="thin"),
         Style("hl engine", color="4A4A4A", fill="EEEEEE", border="thin"),
