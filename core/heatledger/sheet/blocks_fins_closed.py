@@ -127,12 +127,18 @@ def _mm_inputs(w, r, items):
         r[key] = w.line(f"{label} [m]", formula=f"={mm}/1000", engine=float(value), fmt=F_G)
 
 
-def _straight(w, r, fin, res):
+def _fin_size_inputs(w, r, fin, thickness: str, diameter: str) -> bool:
+    """Length and section of a straight fin (mm inputs, m formulas); True for a plate."""
     plate = fin.shape == "plate"
     items = [("L", "L, fin length", fin.length)]
-    items += [("t", "t, plate thickness", fin.thickness), ("w", "w, plate width", fin.width)] \
-        if plate else [("D", "D, pin diameter", fin.diameter)]
+    items += [("t", f"t, {thickness}", fin.thickness), ("w", "w, plate width", fin.width)] \
+        if plate else [("D", f"D, {diameter}", fin.diameter)]
     _mm_inputs(w, r, items)
+    return plate
+
+
+def _straight(w, r, fin, res):
+    plate = _fin_size_inputs(w, r, fin, "plate thickness", "pin diameter")
     if fin.tip == "temperature":
         r["TL"] = w.line("T_L, prescribed tip temperature [degC]",
                          value=float(fin.tip_temperature), fmt="0.00")
@@ -213,11 +219,7 @@ def _theta_ratio(fin, r, x: str, beta_on: bool) -> str:
 
 
 def _profiled(w, r, fin, res):
-    plate = fin.shape == "plate"
-    items = [("L", "L, fin length", fin.length)]
-    items += [("t", "t, base thickness", fin.thickness), ("w", "w, plate width", fin.width)] \
-        if plate else [("D", "D, base diameter", fin.diameter)]
-    _mm_inputs(w, r, items)
+    plate = _fin_size_inputs(w, r, fin, "base thickness", "base diameter")
     w.start("geometry", f"{fin.profile.capitalize()} {fin.shape} fin (Incropera & DeWitt, "
                         "Table 3.5)")
     L = r["L"]  # noqa: N806 - the textbook's symbol
