@@ -4,7 +4,7 @@ import textwrap
 
 import pytest
 
-from heatledger import ProjectError, load_project, project_from_dict
+from heatledger import HeatLedgerError, ProjectError, load_project, project_from_dict
 from heatledger.cli import demo_project
 
 
@@ -115,3 +115,30 @@ def test_duplicate_construction_names():
     data = {"constructions": [{"name": "A", "layers": layer}, {"name": "a", "layers": layer}]}
     with pytest.raises(ProjectError, match="used twice"):
         project_from_dict(data)
+
+
+def test_material_row_problems_name_the_key_without_repeating_it():
+    data = {"materials": [{"name": "m1"}, {"name": "m2", "conductivity": "high"},
+                          {"name": "m3", "conductivity": -1.0}]}
+    with pytest.raises(ProjectError) as err:
+        project_from_dict(data)
+    problems = err.value.problems
+    assert ("materials[1].conductivity", "is required") in problems
+    assert ("materials[2].conductivity", "must be a number; got 'high'") in problems
+    ((where, msg),) = [(w, m) for w, m in problems if w.startswith("materials[3]")]
+    assert where == "materials[3]" and "conductivity of material 'm3'" in msg
+    assert not msg.startswith("materials[3]")
+
+
+def test_project_file_over_the_size_limit(tmp_path, monkeypatch):
+    import heatledger.project as project_module
+
+    p = _write(tmp_path, "[design]\ntemp_inside = 20\n")
+    size = p.stat().st_size
+    monkeypatch.setattr(project_module, "MAX_INPUT_BYTES", size - 1)
+    with pytest.raises(HeatLedgerError) as err:
+        load_project(p)
+    assert str(err.value) == (f"project file 'p.toml' is {size} bytes; the limit is "
+                              f"{size - 1} bytes")
+    monkeypatch.setattr(project_module, "MAX_INPUT_BYTES", size)
+    assert load_project(p).constructions == []

@@ -217,8 +217,7 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
             library.add(mat, override=True)
             user_materials.append(mat)
         except HeatLedgerError as exc:
-            problems.append((exc.where or where, str(exc).split(": ", 1)[-1] if exc.where
-                             else str(exc)))
+            problems.append((exc.where or where, _msg(exc)))
 
     entries = []
     names_seen: set[str] = set()
