@@ -219,3 +219,20 @@ def test_heat_loss_notes_wrap_in_their_column(plans):
         long = [c.ref for c in notes if len(str(c.value)) > sheet.column_widths["S"]
                 and not STYLES[c.style].wrap]
         assert not long, (sheet.name, long)
+
+
+def test_template_thermal_inputs_show_their_decimals(plans):
+    # a target U of 0.20 must read 0.20 (not 0.2); λ 0.040 reads 0.040
+    template = plans[1]
+    cons = template.sheet("Constructions").cell_map()
+    heads = {c.value: c.ref[0] for c in cons.values() if c.role == "header"}
+    target = cons[f"{heads['Target U [W/(m2 K)]']}5"]
+    assert target.number_format == "0.00###"
+    mats = template.sheet("Materials").cell_map()
+    heads = {c.value: c.ref[0] for c in mats.values() if c.role == "header"}
+    assert mats[f"{heads['λ [W/(m K)]']}5"].number_format == "0.000##"
+    fins = template.sheet("Fins").cell_map()
+    heads = {c.value: "".join(ch for ch in c.ref if ch.isalpha())
+             for c in fins.values() if c.role == "header"}
+    contact = [h for h in heads if "contact" in h]
+    assert contact and fins[f"{heads[contact[0]]}5"].number_format is None  # 1e-5 as typed

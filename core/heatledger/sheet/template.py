@@ -120,6 +120,10 @@ TEMPLATE_SHEETS = ("Instructions", "Project", "Materials", "Constructions", "Lay
 VENTILATION = ("unventilated", "slightly", "well")
 _SHORT = ("kind", "heat_flow", "ventilation", "edition", "application")
 _WIDTHS = {"text": 26, "number": 14, "int": 12, "ref": 22}
+#: Number formats of the template's U and R columns (two decimals at least, five at most)
+#: and of its λ and ψ columns (three at least).
+INPUT_FORMAT_THERMAL = "0.00###"
+INPUT_FORMAT_CONDUCTIVITY = "0.000##"
 #: Column width printed across one A4 landscape page: about 147 characters fit at 100 %
 #: with 0.5 inch margins, so this keeps the print at 65 % or more. [characters]
 PAGE_WIDTH_CHARS = 230.0
@@ -207,6 +211,7 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
             b.put(f"{col_letter(j)}{HEADER_ROW}", head, role="header")
         sh.row_heights[HEADER_ROW] = 30.0
         table_rows = rows[name]
+        formats = {j: _input_format(head, kind) for j, (_k, head, kind) in enumerate(cols, 1)}
         n_rows = max(INPUT_ROWS, len(table_rows) + 50)
         for i in range(n_rows):
             r = HEADER_ROW + 1 + i
@@ -219,7 +224,7 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
                     value = int(value) if isinstance(value, (int, float)) else str(value)
                 elif value is not None and not isinstance(value, (int, float)):
                     value = str(value)
-                b.put(f"{col_letter(j)}{r}", value, role="input")
+                b.put(f"{col_letter(j)}{r}", value, role="input", number_format=formats[j])
         last = HEADER_ROW + n_rows
         keys = [k for k, _h, _t in cols]
 
@@ -264,6 +269,18 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
             across = math.ceil(sum(sh.column_widths.values()) / PAGE_WIDTH_CHARS)
             sh.print_setup = replace(sh.print_setup, fit_width=max(1, across))
     return plan
+
+
+def _input_format(head: str, kind: str) -> str | None:
+    """Number format of a template column: U and R show at least two decimals (a target of
+    0.20 reads 0.20, not 0.2), λ and ψ three (0.040), up to five as typed; others as typed."""
+    if kind != "number" or "contact" in head:
+        return None
+    if "[W/(m K)]" in head:
+        return INPUT_FORMAT_CONDUCTIVITY
+    if "[W/(m2 K)]" in head or "[m2 K/W]" in head:
+        return INPUT_FORMAT_THERMAL
+    return None
 
 
 def _print(name: str, orientation: str = "portrait") -> PrintSetup:
