@@ -236,3 +236,12 @@ def test_template_thermal_inputs_show_their_decimals(plans):
              for c in fins.values() if c.role == "header"}
     contact = [h for h in heads if "contact" in h]
     assert contact and fins[f"{heads[contact[0]]}5"].number_format is None  # 1e-5 as typed
+
+
+def test_cover_says_where_the_checks_are(plans):
+    cover = {c.ref: c.value for c in plans[0].sheet("Cover").cells()}
+    row = next(k[1:] for k, v in cover.items() if v == "Where the checks are")
+    text = cover[f"C{row}"]
+    for sheet in ("Summary", "Fins", "Heat loss building"):
+        assert sheet in text
+        assert any(s.name == sheet for s in plans[0].sheets)

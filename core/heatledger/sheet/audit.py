@@ -353,6 +353,19 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     b.put(f"C{r}", formula=f'=IF(AND({count}>0,{ok}={count}),"ALL CHECKS OK",'
                            f'"NOT ALL OK: "&({count}-{ok})&" check(s) fail; do not rely on this '
                            'file")', style="hl check")
+    r += 1
+    lists = ["the Summary (constructions)"]
+    if getattr(project, "fins", None):
+        lists.append("Fins")
+    if _heatloss_topics(project)[0]:
+        lists.append("Heat loss building (rooms)")
+    text = ("Every calculation sheet counts its own check cells at its top right; "
+            + ", ".join(lists[:-1]) + (" and " if len(lists) > 1 else "") + lists[-1]
+            + (" list" if len(lists) > 1 else " lists")
+            + " them sheet by sheet, so a failing check can be found.")
+    b.put(f"B{r}", "Where the checks are")
+    b.put(f"C{r}", text, style="hl paragraph")
+    sheet.merges.append(f"C{r}:D{r}")
     r += 2
     b.put(f"B{r}", "Methods and standards applied", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
