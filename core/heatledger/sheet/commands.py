@@ -118,6 +118,17 @@ def _write(project, out: Path, *, force: bool, quiet: bool) -> int:
                 sys.stderr.write("\n")
             sys.stderr.flush()
     path = write_audit(project, out, force=force, progress=progress)
-    print(f"heatledger: audit of {n} construction{'s' if n != 1 else ''} written to {path}; "
+    parts = [_count(n, "construction")]
+    rooms = getattr(getattr(project, "building", None), "building", None)
+    n_rooms = len(getattr(rooms, "rooms", ()) or ())
+    if n_rooms:
+        parts.append(_count(n_rooms, "room"))
+    if project.fins:
+        parts.append(_count(len(project.fins), "fin entry", "fin entries"))
+    print(f"heatledger: audit of {', '.join(parts)} written to {path}; "
           "open it in a spreadsheet program and check that the cover says ALL CHECKS OK")
     return 0
+
+
+def _count(n: int, one: str, many: str | None = None) -> str:
+    return f"{n} {one if n == 1 else (many or one + 's')}"
