@@ -286,6 +286,18 @@ def _chart(sheet, book, spec: Chart, rename: dict, report: RenderReport) -> None
             continue
         if styled:
             _try_series_look(chart, -1, s)
+    if spec.y_format and not _value_axis_format(chart, spec.y_format):
+        report.skipped.append(f"{sheet.name}: chart {spec.title!r} value-axis number format "
+                              f"{spec.y_format!r} (this platform's chart object has no axes)")
+
+
+def _value_axis_format(chart, number_format: str) -> bool:
+    """Set the value-axis number format through the native chart (classic xlwings)."""
+    try:  # chart.api is (ChartObject, Chart); Axes(2) is the value axis (xlValue)
+        chart.api[1].Axes(2).TickLabels.NumberFormat = number_format
+        return True
+    except Exception:  # noqa: BLE001 - a platform without the native call: report it
+        return False
 
 
 def _try_series_look(chart, index: int, spec) -> bool:
