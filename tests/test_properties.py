@@ -32,6 +32,7 @@ temps = st.tuples(st.floats(-30.0, 40.0), st.floats(-30.0, 40.0))
 @settings(max_examples=60, deadline=None)
 @given(stacks, directions, st.floats(0.001, 0.3), st.floats(0.02, 0.05))
 def test_adding_insulation_never_raises_u(stack, heat_flow, d_ins, lam):
+    # source: EN ISO 6946:2017 6.7.1: a layer adds a positive resistance in series
     before = Construction(stack, heat_flow)
     after = Construction(stack + [Layer(d_ins, lam)], heat_flow)
     assert after.u_value <= before.u_value * (1 + 1e-12)
@@ -54,6 +55,8 @@ def test_layer_order_does_not_change_u(stack, heat_flow, rnd):
 @settings(max_examples=60, deadline=None)
 @given(stacks, directions, temps, st.integers(1, 8))
 def test_temperatures_monotonic_and_balanced(stack, heat_flow, tt, nodes):
+    # source: steady 1-D conduction without sources (Incropera & DeWitt 6th ed. section 3.1):
+    # the heat flux is uniform, so the temperature falls monotonically between the ambients
     t_in, t_out = tt
     con = Construction(stack, heat_flow)
     res = con.temperatures(t_in, t_out, nodes_per_layer=nodes)
