@@ -83,7 +83,7 @@ def test_error_while_writing_leaves_previous_file(tmp_path, monkeypatch):
     def broken_fsync(fd):
         raise OSError(28, "No space left on device")
 
-    monkeypatch.setattr("heatledger.sheet.files.os.fsync", broken_fsync)
+    monkeypatch.setattr("heatledger.fileio.os.fsync", broken_fsync)
     with pytest.raises(OSError, match="No space"):
         rend.write_workbook(small_plan(), target, force=True)
     assert target.read_bytes() == b"previous content"

@@ -9,12 +9,11 @@ from __future__ import annotations
 
 import os
 import tempfile
-from collections.abc import Callable
 from pathlib import Path
 
 from .errors import HeatLedgerError
 
-__all__ = ["read_bytes_limited", "write_atomic", "write_bytes_atomic"]
+__all__ = ["read_bytes_limited", "write_bytes_atomic"]
 
 
 def read_bytes_limited(path, limit: int, what: str) -> bytes:
@@ -49,61 +48,74 @@ def read_bytes_limited(path, limit: int, what: str) -> bytes:
     return p.read_bytes()
 
 
-def write_atomic(path, writer: Callable[[Path], None], *, force: bool = False) -> Path:
-    """Create ``path`` by calling ``writer(temporary_path)`` and moving the result into place.
+def write_bytes_atomic(path: str | os.PathLike, data: bytes, *, force: bool = False) -> Path:
+    """Write ``data`` to ``path`` through a temporary file in the same folder.
 
     Parameters
     ----------
-    path : str or Path
-        Destination file. [-]
-    writer : callable
-        Called with a temporary path in the same folder; must write the complete file. [-]
+    path : str or path-like
+        Target file. [-]
+    data : bytes
+        File content. [-]
     force : bool
-        Replace an existing file. [-]
+        Replace an existing file. Without it an existing file is an error. [-]
 
     Returns
     -------
-    Path
-        The destination.
+    pathlib.Path
+        The path written.
 
     Raises
     ------
     HeatLedgerError
-        If the file exists and ``force`` is false, or the folder does not exist.
+        If the file exists and ``force`` is false, or the folder does not exist or cannot
+        be written.
+
+    Notes
+    -----
+    The data go to ``.<name>.<random>.tmp`` in the target folder, are flushed and synced,
+    and the temporary file is then renamed over the target (``os.replace``, atomic on one
+    file system). Without ``force`` the move is ``os.link`` + unlink, which fails if a file
+    appeared at the target meanwhile, so nothing is ever overwritten by accident.
     """
-    dest = Path(path)
-    if dest.exists() and not force:
-        raise HeatLedgerError(f"{str(dest)!r} exists; choose another name or add --force to "
-                              "replace it")
-    folder = dest.parent if str(dest.parent) else Path(".")
+    target = Path(path)
+    folder = target.parent if str(target.parent) else Path(".")
     if not folder.is_dir():
-        raise HeatLedgerError(f"folder {str(folder)!r} does not exist; create it first")
-    fd, tmp_name = tempfile.mkstemp(prefix=f".{dest.name}.", suffix=".part", dir=folder)
-    os.close(fd)
+        raise HeatLedgerError(f"output folder {str(folder)!r} does not exist; create it first")
+    if target.exists() and not force:
+        raise HeatLedgerError(
+            f"output file {str(target)!r} exists; choose another name or use --force to "
+            "replace it"
+        )
+    try:
+        fd, tmp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=folder)
+    except OSError as exc:
+        raise HeatLedgerError(f"cannot write in folder {str(folder)!r}: {exc.strerror}") from None
     tmp = Path(tmp_name)
     try:
-        writer(tmp)
-        os.replace(tmp, dest)
-    finally:
-        if tmp.exists():
-            tmp.unlink()
-    return dest
-
-
-def write_bytes_atomic(path, data: bytes, *, force: bool = False) -> Path:
-    """Write ``data`` to ``path`` atomically (see :func:`write_atomic`).
-
-    Parameters
-    ----------
-    path : str or Path
-        Destination file. [-]
-    data : bytes
-        Complete file content. [-]
-    force : bool
-        Replace an existing file. [-]
-
-    Returns
-    -------
-    Path
-    """
-    return write_atomic(path, lambda tmp: tmp.write_bytes(data), force=force)
+        with os.fdopen(fd, "wb") as fh:
+            fh.write(data)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.chmod(tmp, 0o644)
+        if force:
+            os.replace(tmp, target)
+        else:
+            try:
+                os.link(tmp, target)
+            except FileExistsError:
+                raise HeatLedgerError(
+                    f"output file {str(target)!r} exists; choose another name or use --force "
+                    "to replace it"
+                ) from None
+            except OSError:  # file system without hard links
+                if target.exists():
+                    raise HeatLedgerError(
+                        f"output file {str(target)!r} exists; use --force to replace it"
+                    ) from None
+                os.replace(tmp, target)
+    except BaseException:
+        tmp.unlink(missing_ok=True)
+        raise
+    tmp.unlink(missing_ok=True)
+    return target
