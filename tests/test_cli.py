@@ -47,3 +47,14 @@ def test_materials_lists_sources(capsys):
 
 def test_no_command_is_usage_error(capsys):
     assert main([]) == 2
+
+
+def test_write_toml_does_not_replace_without_force(tmp_path, capsys):
+    # DESIGN.md section 6: an existing file is not replaced unless the user asks (--force)
+    target = tmp_path / "d.toml"
+    target.write_text("mine", encoding="utf-8")
+    assert main(["demo", "--write-toml", str(target)]) == 1
+    assert target.read_text(encoding="utf-8") == "mine"
+    assert "--force" in capsys.readouterr().err
+    assert main(["demo", "--write-toml", str(target), "--force"]) == 0
+    assert "invented" in target.read_text(encoding="utf-8").lower()

@@ -290,7 +290,7 @@ def _cmd_demo(args) -> int:
     if args.write_toml:
         from .fileio import write_bytes_atomic
 
-        write_bytes_atomic(args.write_toml, demo_bytes(), force=True)
+        write_bytes_atomic(args.write_toml, demo_bytes(), force=args.force)
         return 0
     _emit(project_results(demo_project()), args.json)
     return 0
