@@ -781,7 +781,7 @@ class Construction:
             raise HeatLedgerError(f"{label}: the first layer is a well ventilated air layer, so "
                                   "no layer is left to count")
 
-        r_inner = self._series(own, [c for c in counted], range(len(self.layers)))
+        r_inner = sum(r for r, c in zip(own, counted, strict=True) if c)
         bridging = self._bridging(own, counted, rse_used)
         r_total = bridging.total if bridging else self.rsi + r_inner + rse_used
 
@@ -842,10 +842,6 @@ class Construction:
                 f"upper/lower limit ratio {bridging.ratio:.3f} exceeds 1.5: ISO 6946:2017 6.7.2 "
                 "is not valid; use a numerical method (ISO 10211)")
         self._corrections = self._apply_corrections(label, own)
-
-    @staticmethod
-    def _series(values, counted, indices) -> float:
-        return sum(values[i] for i in indices if counted[i])
 
     def _bridging(self, own, counted, rse_used) -> BridgingResult | None:
         bridged = [i for i, lay in enumerate(self.layers) if lay.kind == "bridged" and counted[i]]

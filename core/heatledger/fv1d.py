@@ -381,14 +381,8 @@ def solve_tridiagonal(lower, diag, upper, rhs) -> np.ndarray:
     d = np.array(diag, dtype=float)
     if d.size == 1:
         return np.asarray(rhs, dtype=float) / d
-    dl = np.array(lower, dtype=float)
-    du = np.array(upper, dtype=float)
-    bb = np.array(rhs, dtype=float)
-    _, _, _, x, info = _GTSV(dl, d, du, bb, overwrite_dl=1, overwrite_d=1, overwrite_du=1,
-                             overwrite_b=1)
-    if info != 0:
-        raise HeatLedgerError(f"the finite-volume system is singular (LAPACK gtsv info={info})")
-    return x
+    return _gtsv(np.array(lower, dtype=float), d, np.array(upper, dtype=float),
+                 np.array(rhs, dtype=float))
 
 
 def richardson_estimate(quantity: str, coarse: float, fine: float, *, ratio: float = 2.0,
@@ -427,11 +421,17 @@ def richardson_estimate(quantity: str, coarse: float, fine: float, *, ratio: flo
 
 
 def _solve(g_int, a_p, rhs) -> np.ndarray:
+    """Solve the assembled system; ``a_p`` and ``rhs`` are kept (copies go to LAPACK)."""
     if a_p.size == 1:
         return rhs / a_p
     dl = np.negative(g_int)
-    _, _, _, x, info = _GTSV(dl, a_p.copy(), dl.copy(), rhs.copy(), overwrite_dl=1,
-                             overwrite_d=1, overwrite_du=1, overwrite_b=1)
+    return _gtsv(dl, a_p.copy(), dl.copy(), rhs.copy())
+
+
+def _gtsv(dl, d, du, b) -> np.ndarray:
+    """LAPACK ?gtsv on arrays it may overwrite."""
+    _, _, _, x, info = _GTSV(dl, d, du, b, overwrite_dl=1, overwrite_d=1, overwrite_du=1,
+                             overwrite_b=1)
     if info != 0:
         raise HeatLedgerError(f"the finite-volume system is singular (LAPACK gtsv info={info})")
     return x
