@@ -124,8 +124,7 @@ def test_room_load_and_transmission_by_hand():
              ["floor", 40.0, 0.15, None, 0.45],  # ground factor given as b
              ["linear", 18.0, 0.1],
              ["point", 4, 0.25],
-             [None, None, None],
-             ["wall", 999.0, 9.0]]               # below the blank row: ignored
+             [None, None, None]]                 # blank rows below end the range
     ti, te = 21.0, -8.0
     # source: EN 12831-1:2017 clause 6, H_T = sum A (U + dU) f + sum psi l f + sum chi f,
     # f_ij = (theta_int - theta_adj)/(theta_int - theta_e) [from memory; REFERENCES.md 5]
@@ -135,6 +134,10 @@ def test_room_load_and_transmission_by_hand():
     h_v = udfs.HL_VENTILATION_H(90.0)
     load = udfs.HL_ROOM_LOAD(table, ti, te, None, None, h_v, 150.0)
     assert load == pytest.approx((h_t + h_v) * (ti - te) + 150.0, rel=rtol_same)
+    # an element below a blank row is not dropped from the load (it would undersize the
+    # heating): the range is rejected, naming the rows
+    out = udfs.HL_ROOM_LOAD(table + [["wall", 9.0, 0.3]], ti, te)
+    assert "elements row 7 is blank but row 8 below it is filled" in out, out
 
 
 def test_shares_spill_adds_up_to_the_load():
@@ -169,8 +172,10 @@ def test_a_room_facing_only_its_own_temperature_loses_nothing():
 
 def test_annual_energy_is_the_degree_day_equation():
     # source: degree-day method Q = 24 H DD / 1000 [from memory; REFERENCES.md section 5]
-    assert udfs.HL_ANNUAL_ENERGY(120.0, 2900.0, 15.5) == pytest.approx(
+    assert udfs.HL_ANNUAL_ENERGY(120.0, 2900.0) == pytest.approx(
         24 * 120.0 * 2900.0 / 1000, rel=rtol_same)
+    # the base temperature lies in the degree-days; no argument that changes nothing
+    assert "base_temperature" not in [a.name for a in REGISTRY["HL_ANNUAL_ENERGY"].args]
 
 
 @pytest.mark.parametrize(("call", "fragment"), [
@@ -191,7 +196,7 @@ def test_annual_energy_is_the_degree_day_equation():
     (lambda: udfs.HL_ROOM_LOAD([["wall", 1, 1, 5, 0.5]], 20, -5), "elements row 1"),
     (lambda: udfs.HL_ROOM_LOAD([["point", 2.5, 1]], 20, -5), "whole count"),
     (lambda: udfs.HL_ROOM_LOAD([["wall", 1, 1]], 20, 25), "temp_external"),
-    (lambda: udfs.HL_ANNUAL_ENERGY(100, 3000, None), "base_temperature"),
+    (lambda: udfs.HL_ANNUAL_ENERGY(100, None), "degree_days"),
 ])
 def test_bad_input_gives_one_line_naming_the_argument(call, fragment):
     out = call()
@@ -282,5 +287,5 @@ def test_huge_element_ranges_stop_at_the_row_limit():
     rows = [["wall", 1.0, 0.2]] * 10_000
     out = udfs.HL_ROOM_HT(rows, 20, -5)
     assert isinstance(out, str) and "elements" in out
-    assert udfs.HL_ROOM_HT(rows[:400] + [[None] * 3] + rows, 20, -5) == pytest.approx(
+    assert udfs.HL_ROOM_HT(rows[:400] + [[None] * 3] * 10_000, 20, -5) == pytest.approx(
         400 * 0.2, rel=rtol_same)

@@ -228,15 +228,33 @@ def test_layers_table_sums_to_total_resistance():
 
 
 # --------------------------------------------------------------------------- conventions
-def test_header_row_narrow_range_and_blank_row_ending_the_table():
+def test_header_row_narrow_range_and_trailing_blank_rows_ending_the_table():
     body = [row[:2] for row in WALL[1:3]]
     u_two = udfs.HL_UVALUE(body)
     with_header = [["name", "thickness_mm"]] + body
     assert udfs.HL_UVALUE(with_header) == u_two
-    with_tail = body + [[None, None], ["ignored", "text below the table"], [1, 2]]
+    with_tail = body + [[None, None]] * 20  # a range reaching into empty cells below
     assert udfs.HL_UVALUE(with_tail) == u_two
     spaces = body + [["  ", ""]]
     assert udfs.HL_UVALUE(spaces) == u_two
+
+
+def test_a_blank_row_inside_the_table_is_an_error_naming_the_rows():
+    # The layers below a gap used to vanish: U of the first layer alone (4.5 W/(m2 K))
+    # instead of the whole wall's. Each function gives the same one-line error instead.
+    gap = [WALL[1], [None, None, None], WALL[2], WALL[3]]
+    want = "layers row 2 is blank but row 3 below it is filled"
+    for out in (udfs.HL_UVALUE(gap), udfs.HL_TNODES(gap, 20, -5), udfs.HL_THICKNESS(gap, 1, 1),
+                udfs.HL_UVALUE_CORRECTED(gap, None)):
+        assert isinstance(out, str) and want in out, out
+    notes_below = WALL + [[None] * 3, ["notes", "text below the table"]]
+    assert "layers row 7 is blank but row 8 below it is filled" in udfs.HL_UVALUE(notes_below)
+    header_gap = [WALL[0], [None, None], WALL[1]]
+    assert "layers row 2 is blank but row 3" in udfs.HL_UVALUE(header_gap)
+    # the same rule for correction tables: a correction below a gap is not dropped
+    corr_gap = [["air_gaps", 2, 1], [None, None, None], ["fasteners", 2, 17, 12, 4]]
+    out = udfs.HL_UVALUE_CORRECTED(CORR_WALL, corr_gap)
+    assert "corrections row 2 is blank but row 3 below it is filled" in out, out
 
 
 def test_numbers_written_as_text_and_blank_optional_cells_take_defaults():
@@ -279,8 +297,10 @@ def test_declared_resistance_and_air_keywords():
     ([["air", 40, 0.025]], "an air layer takes its resistance from ISO 6946 Annex D"),
     ([[10], [20]], "layers has 1 column"),
     ([["a", 1, 1, 1, 1, 1, "x"]], "layers has 7 columns"),
-    ([[None, None], ["a", 10, 1]], "layers holds no layer"),
+    ([[None, None], ["a", 10, 1]], "layers row 1 is blank but row 2 below it is filled"),
+    ([[None, None]], "layers holds no layer"),
     ([], "layers holds no layer"),
+    ([["frame", 50, 0.035, None, 0.1, 0.13]] * 9, "layers row 9: at most 8 bridged layers"),
     (12.5, "layers must be a range"),
 ])
 def test_bad_layer_tables_return_one_line_naming_row_and_rule(table, fragment):
@@ -316,19 +336,37 @@ def test_huge_ranges_stop_at_the_layer_limit():
     huge = [["block", 10, 1.0]] * 10_000
     out = udfs.HL_UVALUE(huge)
     assert out.startswith("HL_UVALUE: layers holds more than") and str(MAX_LAYERS) in out
-    # 10,000 rows below a blank row are never read
-    tall = WALL + [[None] * 3] + [["x", "y", "z"]] * 10_000
+    # 10,000 blank rows below the table end it; text below a blank row is an error
+    tall = WALL + [[None] * 3] * 10_000
     assert udfs.HL_UVALUE(tall) == udfs.HL_UVALUE(WALL)
+    tall_text = WALL + [[None] * 3] + [["x", "y", "z"]] * 10_000
+    assert "layers row 7 is blank but row 8" in udfs.HL_UVALUE(tall_text)
 
 
 def test_identical_calls_reuse_the_cached_construction():
-    udfs._cached_construction.cache_clear()
+    udfs.CONSTRUCTIONS.clear()
     first = udfs.HL_UVALUE(WALL)
-    info = udfs._cached_construction.cache_info()
+    hits = udfs.CONSTRUCTIONS.hits
     for _ in range(5):
         assert udfs.HL_UVALUE([list(r) for r in WALL]) == first
-    assert udfs._cached_construction.cache_info().hits == info.hits + 5
+    assert udfs.CONSTRUCTIONS.hits == hits + 5
     assert udfs.HL_RTOTAL(WALL, "up") != udfs.HL_RTOTAL(WALL, "horizontal")
+
+
+def test_a_recalculation_of_5000_distinct_tables_is_answered_from_the_cache():
+    # A workbook of 5,000 distinct tables recalculated twice: the second pass finds every
+    # table in the cache (a cache of 256 entries answered none of them: least recently used
+    # is always the next one needed), within the memory budget.
+    tables = [[["gypsum plasterboard 900", 12.5], ["mineral wool 035", 100 + k * 0.01],
+               ["block", 150, 1.35], ["air", 25], ["brick", 102, 0.77], ["render", 15, 1.0]]
+              for k in range(5000)]
+    udfs.CONSTRUCTIONS.clear()
+    first = [udfs.HL_UVALUE(t) for t in tables]
+    assert udfs.CONSTRUCTIONS.misses == 5000
+    assert [udfs.HL_UVALUE(t) for t in tables] == first
+    assert udfs.CONSTRUCTIONS.hits == 5000
+    assert udfs.CONSTRUCTIONS.size_bytes <= udfs.CACHE_BYTES
+    udfs.CONSTRUCTIONS.clear()
 
 
 def test_true_and_one_do_not_share_a_cache_entry():

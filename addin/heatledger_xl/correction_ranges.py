@@ -16,7 +16,8 @@ kind (col. 1)     col. 3                  col. 4                col. 5 / col. 6
                                                                 [W day/(m2 K mm)] (F.4)
 ================= ======================= ===================== =====================
 
-As for layer tables: a blank row ends the table; a first row whose cells are all text and
+As for layer tables: a blank row ends the table and every row below it must be blank
+too; a first row whose cells are all text and
 whose kind cell is not a kind (``kind``, ``correction``...) is a header; blank optional
 cells take the defaults shown. The engine applies the corrections only when they total at
 least 3 % of U (Annex F); :func:`heatledger_xl.udfs.HL_CORRECTIONS` shows what it did.
@@ -31,7 +32,16 @@ from heatledger.constructions import (
 )
 from heatledger.errors import HeatLedgerError
 
-from .ranges import ERROR_VALUES, LIBRARY, _is_blank, _no_booleans, _unwrap_single, number, text
+from .ranges import (
+    ERROR_VALUES,
+    LIBRARY,
+    _is_blank,
+    _no_booleans,
+    _unwrap_single,
+    check_blank_below,
+    number,
+    text,
+)
 
 __all__ = ["CORRECTION_KINDS", "MAX_CORRECTIONS", "correction_rows", "build_corrections"]
 
@@ -70,6 +80,7 @@ def correction_rows(name: str, cells: object) -> tuple:
         if not isinstance(row, (list, tuple)):
             row = (row,)
         if all(_is_blank(c) for c in row):
+            check_blank_below(name, cells, i)
             break
         if len(row) > _WIDTH and any(not _is_blank(c) for c in row[_WIDTH:]):
             raise HeatLedgerError(f"{name} has {len(row)} columns; a correction table has 2 "

@@ -36,8 +36,13 @@ col  heading (suggested)     unit                    rule
 
 Further rules:
 
-- **Blank row ends the table.** A row whose cells are all blank (empty, or text of spaces
-  only) ends the table; rows below it are ignored, so a range may reach below the table.
+- **No gaps.** A row whose cells are all blank (empty, or text of spaces only) ends the
+  table, and every row below it in the range must be blank too, so a range may reach into
+  empty cells below the table. A blank row with a filled row below it is an error naming
+  both rows (never silently a shorter table: the layers below the gap would vanish from
+  the U-value).
+- **Bridged layers.** At most :data:`MAX_BRIDGED_LAYERS` bridged layers per table (the
+  upper limit combines every section through all of them: 2 to the power of their number).
 - **Header row.** The first row is a header, and skipped, when every filled cell in it is
   text and its thickness cell (column 2) mentions ``mm`` or ``thick``.
 - **Blank optional cells take defaults**: blank conductivity -> library value; blank
@@ -53,6 +58,7 @@ from __future__ import annotations
 
 import datetime as _dt
 import math
+from functools import lru_cache
 from numbers import Real
 
 from heatledger.airlayers import MAX_AIR_LAYER_THICKNESS
@@ -74,6 +80,8 @@ __all__ = [
     "heat_flow_value",
     "layer_rows",
     "build_construction",
+    "check_blank_below",
+    "MAX_BRIDGED_LAYERS",
 ]
 
 #: Column names of a layer table, in order, as used in messages.
@@ -81,6 +89,10 @@ LAYER_COLUMNS = ("material", "thickness_mm", "conductivity", "resistance",
                  "bridging_fraction", "bridging_conductivity")
 #: Most layers a table may hold (a real build-up has well under 30).
 MAX_LAYERS = 100
+#: Most bridged layers a table may hold: the upper limit of EN ISO 6946 6.7.2 sums over
+#: every combination of their parts (2**n sections for n two-part layers), so the work
+#: doubles with each one; real build-ups have one to three (studs, battens, counter-battens).
+MAX_BRIDGED_LAYERS = 8
 #: Largest layer thickness accepted. [mm]
 MAX_THICKNESS_MM = 10_000.0
 #: Smallest layer thickness accepted (a thin film is about 0.1 mm). [mm]
@@ -94,6 +106,7 @@ ERROR_VALUES = frozenset({"#N/A", "#VALUE!", "#REF!", "#DIV/0!", "#NUM!", "#NAME
 LIBRARY = default_library()
 
 _HEAT_FLOWS = ("up", "horizontal", "down")
+_PADDING = tuple((None,) * (len(LAYER_COLUMNS) - n) for n in range(len(LAYER_COLUMNS)))
 _BLANK_TEXT = ""
 
 
@@ -336,7 +349,7 @@ def heat_flow_value(value: object) -> str:
 
 # --------------------------------------------------------------------------- layer tables
 def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
-    """The filled rows of a layer-table range, up to the first blank row.
+    """The filled rows of a layer-table range, which end at the first blank row.
 
     Parameters
     ----------
@@ -354,8 +367,8 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
     Raises
     ------
     HeatLedgerError
-        If the range is a single cell, has 1 or more than 6 columns, holds no layer, or
-        more than :data:`MAX_LAYERS` layers.
+        If the range is a single cell, has 1 or more than 6 columns, holds no layer, more
+        than :data:`MAX_LAYERS` layers, or a filled row below a blank row.
     """
     if not isinstance(cells, (list, tuple)):
         raise HeatLedgerError(f"{name} must be a range of 2 to 6 columns (material, "
@@ -364,24 +377,28 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
         cells = [cells]  # a single row given as a 1-D list
     out = []
     width = 0
+    n_cols = len(LAYER_COLUMNS)
     for i, row in enumerate(cells, start=1):
         if not isinstance(row, (list, tuple)):
             row = (row,)
         if _row_is_blank(row):
+            check_blank_below(name, cells, i)
             break
-        width = max(width, len(row))
-        if len(row) > len(LAYER_COLUMNS):
-            extra = row[len(LAYER_COLUMNS):]
-            if any(not _is_blank(c) for c in extra):
+        n = len(row)
+        width = max(width, n)
+        if n >= n_cols:
+            if n > n_cols and any(not _is_blank(c) for c in row[n_cols:]):
                 raise HeatLedgerError(
-                    f"{name} has {len(row)} columns; a layer table has 2 to 6 (material, "
+                    f"{name} has {n} columns; a layer table has 2 to 6 (material, "
                     "thickness_mm, conductivity, resistance, bridging_fraction, "
                     "bridging_conductivity)")
-            row = row[:len(LAYER_COLUMNS)]
-        padded = tuple(row) + (None,) * (len(LAYER_COLUMNS) - len(row))
+            padded = tuple(row[:n_cols])
+        else:
+            padded = tuple(row) + _PADDING[n]
         if i == 1 and _is_header(padded):
             continue
-        _no_booleans(f"{name} row {i}", padded, LAYER_COLUMNS)
+        if bool in map(type, padded):
+            _no_booleans(f"{name} row {i}", padded, LAYER_COLUMNS)
         if len(out) >= MAX_LAYERS:
             raise HeatLedgerError(f"{name} holds more than {MAX_LAYERS} layers; end the "
                                   "table with a blank row")
@@ -390,9 +407,40 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
         raise HeatLedgerError(f"{name} has 1 column; a layer table needs at least material "
                               "and thickness_mm")
     if not out:
-        raise HeatLedgerError(f"{name} holds no layer: the first row is blank (a blank row "
-                              "ends the table)")
+        raise HeatLedgerError(f"{name} holds no layer: the range is empty or blank")
     return tuple(out)
+
+
+def check_blank_below(name: str, cells, blank_row: int) -> None:
+    """Check that every row below a blank row of a table range is blank too.
+
+    A table ends at its first blank row; a filled row further down means a gap inside the
+    table (a deleted layer, a row left for later), and reading only the rows above it
+    would silently drop the rows below.
+
+    Parameters
+    ----------
+    name : str
+        Argument name used in messages (``"layers"``). [-]
+    cells : sequence
+        The rows of the range. [-]
+    blank_row : int
+        Number of the blank row in the range, 1-based. [-]
+
+    Raises
+    ------
+    HeatLedgerError
+        Naming the blank row and the first filled row below it.
+    """
+    for j in range(blank_row, len(cells)):
+        row = cells[j]
+        if not isinstance(row, (list, tuple)):
+            row = (row,)
+        if not _row_is_blank(row):
+            raise HeatLedgerError(
+                f"{name} row {blank_row} is blank but row {j + 1} below it is filled; a table "
+                f"has no blank rows inside it: delete row {blank_row}, or end the range above "
+                "it")
 
 
 def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
@@ -420,7 +468,13 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
     -------
     Construction
     """
-    layers = [_layer(name, i, cells) for i, cells in rows]
+    layers = [_layer_of(name, i, cells) for i, cells in rows]
+    bridged = [i for (i, _), lay in zip(rows, layers, strict=True) if lay.kind == "bridged"]
+    if len(bridged) > MAX_BRIDGED_LAYERS:
+        raise HeatLedgerError(
+            f"{name} row {bridged[MAX_BRIDGED_LAYERS]}: at most {MAX_BRIDGED_LAYERS} bridged "
+            f"layers per table (this one has {len(bridged)}); combine battens and studs that "
+            "share a layer, or model the element by a numerical method (ISO 10211)")
     try:
         return Construction(layers, heat_flow, rsi=rsi, rse=rse, name=label,
                             corrections=corrections)
@@ -434,6 +488,24 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
 
 
 # --------------------------------------------------------------------------- internals
+#: Layer objects kept by (argument, row number, cells): a table that differs from one
+#: already seen in a few rows rebuilds only those rows (about 0.5 kB an entry, the cells
+#: being shared with the table caches of :mod:`heatledger_xl.udfs`).
+ROW_CACHE_SIZE = 4096
+
+
+@lru_cache(maxsize=ROW_CACHE_SIZE)
+def _cached_layer(name: str, row: int, cells: tuple):
+    return _layer(name, row, cells)
+
+
+def _layer_of(name: str, row: int, cells: tuple):
+    try:
+        return _cached_layer(name, row, cells)
+    except TypeError:  # a cell value that cannot key a cache (a nested list)
+        return _layer(name, row, cells)
+
+
 def _no_booleans(where: str, cells: tuple, columns: tuple) -> None:
     """TRUE/FALSE is never a valid table cell. Rejected here, before the row keys a cache,
     because TRUE == 1 and FALSE == 0 in Python and would share a cache entry."""
@@ -464,21 +536,34 @@ def _material(where: str, value: object) -> Material:
         raise HeatLedgerError(f"{where}: {exc}") from None
 
 
+def _cell(where: str, column: str, value: object, default: object, low: float, high: float,
+          low_inclusive: bool, unit: str) -> float:
+    """:func:`number` for a table cell; a plain number within bounds or a blank optional cell
+    is answered without building the message text (the common case of every row)."""
+    kind = type(value)
+    if kind is float or kind is int:
+        if (value > low or (low_inclusive and value == low)) and value <= high:
+            return float(value)
+    elif value is None and default is not REQUIRED:
+        return default  # type: ignore[return-value]
+    return number(f"{where} {column}", value, default, low=low, high=high,
+                  low_inclusive=low_inclusive, unit=unit)
+
+
 def _layer(name: str, row: int, cells: tuple):
     where = f"{name} row {row}"
     c_name, c_thick, c_cond, c_res, c_frac, c_bcond = cells
     label = text(f"{where} material", c_name, "")
-    thickness_mm = number(f"{where} thickness_mm", c_thick, low=MIN_THICKNESS_MM,
-                          low_inclusive=True, high=MAX_THICKNESS_MM, unit="mm")
-    thickness = thickness_mm / 1000.0
-    cond = number(f"{where} conductivity", c_cond, None, low=0.0, high=1.0e4,
-                  unit="W/(m K)")
-    res = number(f"{where} resistance", c_res, None, low=0.0, high=1.0e3, unit="m2 K/W")
-    frac = number(f"{where} bridging_fraction", c_frac, None, low=0.0, high=1.0)
+    thickness = _cell(where, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
+                      MAX_THICKNESS_MM, True, "mm") / 1000.0
+    cond = _cell(where, "conductivity", c_cond, None, 0.0, 1.0e4, False, "W/(m K)")
+    res = _cell(where, "resistance", c_res, None, 0.0, 1.0e3, False, "m2 K/W")
+    frac = _cell(where, "bridging_fraction", c_frac, None, 0.0, 1.0, False, "")
     if frac is not None and frac >= 1.0:
         raise HeatLedgerError(f"{where} bridging_fraction must be below 1; got {frac:g} "
                               "(give the fraction of studs or battens, e.g. 0.12)")
-    has_bcond = not _is_blank(_unwrap_single(f"{where} bridging_conductivity", c_bcond))
+    has_bcond = c_bcond is not None and not _is_blank(
+        _unwrap_single(f"{where} bridging_conductivity", c_bcond))
     try:
         low = label.lower()
         if low == "air" or low.startswith("air:"):

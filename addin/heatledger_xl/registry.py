@@ -13,7 +13,12 @@ a short description and one description per argument. :func:`udf`
    browser and xlwings Server), giving every argument its description and conversion
    options (``ndim=2`` for ranges, ``err_to_str=True`` so error cells arrive as text);
 3. records a :class:`FunctionSpec` in :data:`REGISTRY` (tests check names, lengths of
-   descriptions, argument order).
+   descriptions, argument order). Declaring a function again from the same module (the
+   module was reloaded: classic xlwings reloads a function module whose file changed while
+   Excel's Python runs) replaces its entry; the same name from another module is an error.
+
+The wrapper also refuses to return a number that is not finite (NaN or an infinity), or a
+spilled array holding one: the cell shows a one-line text instead.
 
 A later family adds its functions by writing them in its own module with the same
 decorator and importing that module from :mod:`heatledger_xl.udfs`.
@@ -23,6 +28,7 @@ from __future__ import annotations
 
 import functools
 import inspect
+import math
 import re
 from dataclasses import dataclass
 
@@ -195,12 +201,20 @@ def udf(family: str, *, returns: str, args: dict[str, str], ranges: tuple[str, .
             specs.append(ArgSpec(p.name, args[p.name], optional, p.name in ranges))
         description = " ".join((fn.__doc__ or "").split())
 
+        arg_names = ", ".join(spec.name for spec in specs)
+
         @functools.wraps(fn)
         def guarded(*a, **k):
             try:
-                return fn(*a, **k)
+                out = fn(*a, **k)
             except Exception as exc:  # noqa: BLE001 - never raise into the spreadsheet
                 return error_text(name, exc)
+            if isinstance(out, float) and not math.isfinite(out) or (
+                    type(out) is list and not _all_finite(out)):
+                return error_text(name, HeatLedgerError(
+                    f"no finite result for these arguments ({arg_names}); please report it "
+                    "with the arguments used"))
+            return out
 
         guarded.__doc__ = description
         decorated = guarded
@@ -209,13 +223,31 @@ def udf(family: str, *, returns: str, args: dict[str, str], ranges: tuple[str, .
             decorated = xl_arg(spec.name, doc=spec.doc, err_to_str=True, **options)(decorated)
         decorated = xl_ret()(decorated)
         decorated = xl_func(category=CATEGORY)(decorated)
-        if name in REGISTRY:
-            raise HeatLedgerError(f"function {name} is registered twice")
+        old = REGISTRY.get(name)
+        if old is not None and _origin(old.function) != _origin(fn):
+            raise HeatLedgerError(f"function {name} is declared in {old.function.__module__} "
+                                  f"and again in {fn.__module__}")
         REGISTRY[name] = FunctionSpec(name, family, description, tuple(specs), returns,
                                       spills, decorated)
         return decorated
 
     return decorate
+
+
+def _origin(fn) -> tuple:
+    """Module and qualified name of a (decorated) function: equal for the same function
+    declared again by a reload of its module."""
+    fn = inspect.unwrap(fn)
+    return fn.__module__, fn.__qualname__
+
+
+def _all_finite(rows: list) -> bool:
+    """True when no cell of a spilled result is a non-finite float."""
+    for row in rows:
+        for cell in row if type(row) is list else (row,):
+            if isinstance(cell, float) and not math.isfinite(cell):
+                return False
+    return True
 
 
 def _check_name(name: str) -> None:

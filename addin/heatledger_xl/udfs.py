@@ -13,8 +13,15 @@ which may be left out or blank. The layer-table conventions are those of
 starts with the function name and names the argument (and the row) and the rule.
 
 Cost per call: the range is parsed once and the construction built once per distinct
-input (a small LRU cache keyed on the hashable form of the range), without file or network
+input (a least-recently-used cache keyed on the hashable form of the range and bounded by
+memory, :data:`CACHE_BYTES`, about 10,000 six-layer tables), without file or network
 access; the material library is read when the module is imported.
+
+No number that cannot be right: before a value leaves a function it is checked (R_T and U
+finite and positive; temperatures finite, above absolute zero and, without heat sources,
+between the two air temperatures; the finite-volume interface temperatures equal to the
+resistance ladder's, which is exact for steady 1-D conduction without sources); a value
+that fails becomes an error text naming the rows whose resistances caused it.
 
 Results support, and do not replace, design by a competent person under the local codes;
 check material values against the declared values of the products actually used.
@@ -22,16 +29,31 @@ check material values against the declared values of the products actually used.
 
 from __future__ import annotations
 
-from functools import lru_cache
+import importlib
+import math
+import sys
+
+import numpy as np
 
 import heatledger
+from heatledger import fv1d
 from heatledger.airlayers import air_layer_resistance
 from heatledger.constructions import required_thickness
 from heatledger.errors import HeatLedgerError
 from heatledger.surfaces import surface_resistance, surface_resistance_calc
 
-from .correction_ranges import build_corrections, correction_rows
-from .ranges import (
+# Classic xlwings reloads this module (only this one) when its file changed while Excel's
+# Python runs, as after an upgrade: the add-in modules it is built on are reloaded first, so
+# that the functions and their helpers stay of one version (each function declared again
+# replaces its registry entry).
+if "HL_UVALUE" in globals():
+    for _module in ("cache", "ranges", "correction_ranges", "udfs_fins", "udfs_heatloss"):
+        if f"{__package__}.{_module}" in sys.modules:
+            importlib.reload(sys.modules[f"{__package__}.{_module}"])
+
+from .cache import MISSING, BoundedCache  # noqa: E402
+from .correction_ranges import build_corrections, correction_rows  # noqa: E402
+from .ranges import (  # noqa: E402
     LIBRARY,
     MIN_THICKNESS_MM,
     build_construction,
@@ -42,7 +64,7 @@ from .ranges import (
     number,
     text,
 )
-from .registry import udf
+from .registry import udf  # noqa: E402
 
 __all__ = [
     "HL_UVALUE",
@@ -69,8 +91,23 @@ __all__ = [
 FAMILY = "constructions"
 #: Largest number of finite-volume cells per layer a cell may ask for.
 MAX_NODES_PER_LAYER = 200
-#: Size of the cache of built constructions.
-CACHE_SIZE = 256
+#: Memory budget of the cache of built constructions, estimated per entry from the table
+#: size (:func:`_entry_bytes`; ``tests/benchmarks/bench_udf.py`` measures the estimate):
+#: about 10,000 six-layer tables. [bytes]
+CACHE_BYTES = 48 * 2**20
+#: Memory budget of the cache of constructions with corrections. [bytes]
+CORRECTED_CACHE_BYTES = 8 * 2**20
+#: Estimated memory of one cache entry: fixed part, per layer row (construction, layer
+#: row, the row's cells in the key) and per section of the bridging upper limit. [bytes]
+ENTRY_BYTES, ROW_BYTES, SECTION_BYTES = 1200, 700, 150
+#: Built constructions by parsed input; ``CORRECTED`` with their correction rows.
+CONSTRUCTIONS = BoundedCache(CACHE_BYTES)
+CORRECTED = BoundedCache(CORRECTED_CACHE_BYTES)
+#: Largest disagreement allowed between a finite-volume temperature and the exact one of
+#: the resistance ladder, and the largest excursion of a temperature beyond the two air
+#: temperatures: a thousandth of a kelvin, ten times below the 0.01 K temperatures are
+#: read to, and nine orders above the round-off of a sound solve. [K]
+TEMP_TOL_K = 1e-3
 #: Absolute zero. [degC]
 _ABS_ZERO = -273.15
 _MAX_TEMP = 2000.0
@@ -258,6 +295,7 @@ def HL_TINTERFACES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, 
     c = _construction(layers, heat_flow, rsi, rse)
     t_i, t_e = _temperatures(temp_inside, temp_outside)
     temps = c.ladder_temperatures(t_i, t_e)
+    _check_temperatures(c, layers, temps, t_i, t_e)
     counted = [r for r in c.layer_table if r.counted]
     x = 0.0
     rows = [["inside surface", 0.0, float(temps[0])]]
@@ -282,10 +320,10 @@ def HL_TNODES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=N
     c = _construction(layers, heat_flow, rsi, rse)
     t_i, t_e = _temperatures(temp_inside, temp_outside)
     n = integer("nodes_per_layer", nodes_per_layer, 4, low=1, high=MAX_NODES_PER_LAYER)
-    res = c.temperatures(t_i, t_e, nodes_per_layer=n)
-    rows = [[i + 1, int(layer) + 1, float(x) * 1000.0, float(t)]
-            for i, (layer, x, t) in enumerate(zip(res.layer_of_node, res.x, res.temperature,
-                                                  strict=True))]
+    sol, layer_of_node = _nodal_solution(c, layers, t_i, t_e, n)
+    rows = [[i + 1, layer + 1, x * 1000.0, t]
+            for i, (layer, x, t) in enumerate(zip(layer_of_node.tolist(), sol.x.tolist(),
+                                                  sol.temperature.tolist(), strict=True))]
     return _with_header(rows, ["node", "layer", "x [mm]", "temperature [degC]"], show_header)
 
 
@@ -304,6 +342,8 @@ def HL_FVCHECK(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=
     n = integer("nodes_per_layer", nodes_per_layer, 4, low=1, high=MAX_NODES_PER_LAYER)
     res = c.temperatures(t_i, t_e, nodes_per_layer=n)
     est = res.mesh_estimate
+    _check_fv(c, layers, t_i, t_e, res.interface_temperatures, res.temperature,
+              (est.coarse, est.fine))
     rows = [["energy-balance residual [-]", float(res.energy_residual)],
             ["heat flux, this mesh [W/m2]", float(est.coarse)],
             ["heat flux, every cell halved [W/m2]", float(est.fine)],
@@ -336,11 +376,15 @@ def HL_THICKNESS(layers, layer_number, target_u, heat_flow=None, rsi=None, rse=N
     k = integer("layer_number", layer_number, low=1, high=len(c.layers))
     u_t = number("target_u", target_u, low=0.0, high=1.0e3, unit="W/(m2 K)")
     try:
-        return required_thickness(c, k - 1, u_t) * 1000.0
+        d_mm = required_thickness(c, k - 1, u_t) * 1000.0
     except HeatLedgerError as exc:
         msg = str(exc).replace(f"layer {k - 1} ", f"layer {k} ").replace("layer_index",
                                                                        "layer_number")
         raise HeatLedgerError(f"layer_number {k}: {msg}") from None
+    if not (math.isfinite(d_mm) and d_mm > 0.0):
+        raise HeatLedgerError(f"layer_number {k}: no finite positive thickness reaches "
+                              f"target_u {u_t:g} W/(m2 K) with this table; got {d_mm:g} mm")
+    return d_mm
 
 
 # --------------------------------------------------------------------------- materials
@@ -401,34 +445,105 @@ def _inputs(layers, heat_flow, rsi, rse):
 
 def _construction(layers, heat_flow, rsi, rse):
     key = _inputs(layers, heat_flow, rsi, rse)
-    try:
-        return _cached_construction(*key)
-    except TypeError:  # an unhashable cell value: build without the cache
-        return build_construction(*key)
-
-
-@lru_cache(maxsize=CACHE_SIZE)
-def _cached_construction(rows, heat_flow, rsi, rse):
-    return build_construction(rows, heat_flow, rsi, rse)
+    c = CONSTRUCTIONS.get(key)
+    if c is MISSING:
+        c = _checked(build_construction(*key), key[0])
+        CONSTRUCTIONS.put(key, c, _entry_bytes(c))
+    return c
 
 
 def _corrected(layers, corrections, heat_flow, rsi, rse):
     key = _inputs(layers, heat_flow, rsi, rse) + (correction_rows("corrections", corrections),)
-    try:
-        return _cached_corrected(*key)
-    except TypeError:  # an unhashable cell value
-        return _build_corrected(*key)
-
-
-@lru_cache(maxsize=CACHE_SIZE)
-def _cached_corrected(rows, heat_flow, rsi, rse, crows):
-    return _build_corrected(rows, heat_flow, rsi, rse, crows)
+    c = CORRECTED.get(key)
+    if c is MISSING:
+        c = _checked(_build_corrected(*key), key[0])
+        CORRECTED.put(key, c, _entry_bytes(c) + ROW_BYTES * len(key[-1]))
+    return c
 
 
 def _build_corrected(rows, heat_flow, rsi, rse, crows):
     base = build_construction(rows, heat_flow, rsi, rse)
     items = build_corrections(crows, [lay.name for lay in base.layers])
     return build_construction(rows, heat_flow, rsi, rse, corrections=items, name="corrections")
+
+
+def _entry_bytes(c) -> int:
+    sections = len(c.bridging.sections) if c.bridging is not None else 0
+    return ENTRY_BYTES + ROW_BYTES * len(c.layers) + SECTION_BYTES * sections
+
+
+def _checked(c, rows):
+    """``c`` when its R_T and U are finite and positive; otherwise an error naming the rows
+    whose resistances are out of scale."""
+    r_t, u = c.total_resistance, c.u_value
+    if math.isfinite(r_t) and r_t > 0.0 and math.isfinite(u) and u > 0.0:
+        return c
+    raise HeatLedgerError(f"layers: R_T = {r_t:.3g} m2 K/W and U = {u:.3g} W/(m2 K) are not "
+                          f"finite and positive; {_resistance_span(c, rows)}")
+
+
+def _resistance_span(c, rows) -> str:
+    """The smallest and largest counted layer resistances with their rows in the range."""
+    counted = [r for r in c.layer_table if r.counted]
+    low = min(counted, key=lambda r: r.resistance)
+    high = max(counted, key=lambda r: r.resistance)
+    if low is high:
+        return (f"row {rows[low.index][0]} has R = {low.resistance:.3g} m2 K/W: check its "
+                "conductivity or resistance")
+    return (f"layer R runs from {low.resistance:.3g} (row {rows[low.index][0]}) to "
+            f"{high.resistance:.3g} m2 K/W (row {rows[high.index][0]}): check the "
+            "conductivity or resistance of those rows")
+
+
+def _table_rows(layers):
+    """The parsed rows of a layer table already accepted by :func:`_construction`."""
+    return layer_rows("layers", layers)
+
+
+def _check_temperatures(c, layers, temps, t_i, t_e) -> None:
+    """Every temperature finite, above absolute zero and, as steady conduction without heat
+    sources requires, between the two air temperatures (within :data:`TEMP_TOL_K`)."""
+    low, high = min(t_i, t_e) - TEMP_TOL_K, max(t_i, t_e) + TEMP_TOL_K
+    arr = np.asarray(temps, dtype=float)
+    ok = (arr >= low) & (arr <= high) & (arr > _ABS_ZERO)  # NaN fails every comparison
+    if ok.all():
+        return
+    raise HeatLedgerError(
+        f"layers: a temperature of {float(arr[~ok][0]):.4g} degC lies outside temp_inside "
+        f"and temp_outside (impossible without heat sources); "
+        f"{_resistance_span(c, _table_rows(layers))}")
+
+
+def _check_fv(c, layers, t_i, t_e, interface_temps, temps, fluxes) -> None:
+    """The finite-volume solution equals the exact resistance ladder (the scheme is exact
+    for piecewise-linear profiles) within :data:`TEMP_TOL_K`, and its heat fluxes equal
+    ``(t_i - t_e)/R_T`` within the flux that :data:`TEMP_TOL_K` across R_T drives."""
+    _check_temperatures(c, layers, temps, t_i, t_e)
+    exact = c.ladder_temperatures(t_i, t_e)
+    q = (t_i - t_e) / c.total_resistance
+    off_t = float(np.max(np.abs(np.asarray(interface_temps) - exact)))
+    off_q = max(abs(f - q) for f in fluxes) * c.total_resistance
+    if off_t <= TEMP_TOL_K and off_q <= TEMP_TOL_K:  # NaN fails
+        return
+    raise HeatLedgerError(
+        f"layers: the finite-volume solution is {max(off_t, off_q):.3g} K off the exact "
+        f"resistance ladder (more than {TEMP_TOL_K:g} K); "
+        f"{_resistance_span(c, _table_rows(layers))}")
+
+
+def _nodal_solution(c, layers, t_i, t_e, n):
+    """The 1-D finite-volume solution with ``n`` cells in each counted layer (no mesh
+    estimate: HL_TNODES does not show one), checked against the ladder."""
+    counted = [r for r in c.layer_table if r.counted]
+    widths = np.repeat([r.thickness / n for r in counted], n)
+    cond = np.repeat([r.thickness / r.resistance for r in counted], n)
+    layer_of_node = np.repeat([r.index for r in counted], n)
+    sol = fv1d.solve_conduction(widths, cond, fv1d.surface_to_ambient(t_i, c.rsi),
+                                fv1d.surface_to_ambient(t_e, c.rse_used))
+    bounds = np.arange(0, n * len(counted) + 1, n)
+    _check_fv(c, layers, t_i, t_e, sol.face_temperature[bounds], sol.temperature,
+              (sol.heat_in, sol.heat_out))
+    return sol, layer_of_node
 
 
 def _temperatures(temp_inside, temp_outside):

@@ -16,9 +16,11 @@ still blank.
 - ``HL_VENTILATION_H``: ventilation heat-loss coefficient from an air flow in m3/h.
 - ``HL_ROOM_HT`` and ``HL_ROOM_LOAD``: transmission coefficient and design heat load of a
   room from an element range (conventions below); ``HL_ROOM_SHARES`` spills the breakdown.
-- ``HL_ANNUAL_ENERGY``: degree-day annual heating energy, with the base temperature stated.
+- ``HL_ANNUAL_ENERGY``: degree-day annual heating energy (the base temperature is in the
+  degree-days, so it is not an argument).
 
-Element-range conventions (one row per element or thermal bridge, a blank row ends it):
+Element-range conventions (one row per element or thermal bridge; a blank row ends it, and
+every row below a blank row must be blank too, as in a layer table):
 
 ==== ========================== =========================================================
 col  heading (suggested)        rule
@@ -76,7 +78,7 @@ from heatledger.heatloss import (
 )
 from heatledger.windows import window_u
 
-from .ranges import ERROR_VALUES, flag, number, text
+from .ranges import ERROR_VALUES, check_blank_below, flag, number, text
 from .registry import udf
 
 __all__ = [
@@ -158,8 +160,8 @@ _D = {
                                "blank = 0. [W/K]",
     "reheat": "Heating-up allowance Phi_hu = f_RH A_floor; blank = 0. [W]",
     "heat_loss_coefficient": "Heat-loss coefficient H = H_T + H_V. [W/K]",
-    "degree_days": "Heating degree-days on the stated base. [K day]",
-    "base_temperature": "Base temperature of the degree-days (stated for the record). [degC]",
+    "degree_days": "Heating degree-days on the base temperature appropriate to the "
+                   "building. [K day]",
     "header": "TRUE adds a first row of column titles with units; default FALSE. [-]",
 }
 
@@ -330,17 +332,17 @@ def HL_ROOM_SHARES(elements, temp_room, temp_external, annual_mean_external_temp
 
 
 @udf(FAMILY, returns="annual heating energy [kWh]",
-     args=_args("heat_loss_coefficient", "degree_days", "base_temperature"))
-def HL_ANNUAL_ENERGY(heat_loss_coefficient, degree_days, base_temperature):
+     args=_args("heat_loss_coefficient", "degree_days"))
+def HL_ANNUAL_ENERGY(heat_loss_coefficient, degree_days):
     """Annual heating energy by the degree-day method Q = 24 H DD / 1000; the degree-days
-    must be on the base temperature appropriate to the building. [kWh]"""
-    base = number("base_temperature", base_temperature, low=-100.0, high=100.0, unit="degC")
+    must be on the base temperature appropriate to the building (gains are allowed for
+    through that base). [kWh]"""
     h = number("heat_loss_coefficient", heat_loss_coefficient, low=0.0, high=MAX_QUANTITY,
                low_inclusive=True, unit="W/K")
     dd = number("degree_days", degree_days, low=0.0, high=20000.0, low_inclusive=True,
                 unit="K day")
     room = Room("cell", 20.0, 1.0, (), Ventilation("flow", ventilation=h / _VOLUMETRIC))
-    return room.annual_energy(dd, base_temperature=base)
+    return room.annual_energy(dd)
 
 
 # --------------------------------------------------------------------------- helpers
@@ -451,6 +453,7 @@ def _element_rows(cells, ground):
             raise HeatLedgerError(f"elements has more than {MAX_ELEMENT_ROWS} rows; a blank "
                                   "row ends the table")
         if all(_blank(c) for c in row):
+            check_blank_below("elements", rows, n)
             break
         if len(row) > 6:
             raise HeatLedgerError(f"elements has {len(row)} columns; give 2 to 6 (kind, "

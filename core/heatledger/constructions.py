@@ -943,8 +943,12 @@ def required_thickness(construction: Construction, layer_index: int, target_u: f
 
     Notes
     -----
-    Solved by Brent's method on ``U(d) - U_target``, which is monotonic in ``d``; for a
-    homogeneous layer without corrections it equals ``d = lambda (1/U_t - R_T + R_layer)``.
+    Where ``U = 1/R_T`` is linear in the layer's resistance (a plain or declared layer, no
+    bridged layer, no ventilated air layer, no corrections) the closed form
+    ``d = (1/U_t - R_rest) d_0/R_0`` is used, with ``R_rest = R_T - R_0`` and ``d_0/R_0`` the
+    layer's thickness per unit resistance (``lambda``; a declared resistance scales with
+    the thickness). Otherwise Brent's method solves ``U(d) - U_target = 0``, monotonic in
+    ``d``.
     """
     target = positive("target_u", target_u, "W/(m2 K)")
     n = len(construction.layers)
@@ -954,11 +958,18 @@ def required_thickness(construction: Construction, layer_index: int, target_u: f
     if layer.kind == "air":
         raise HeatLedgerError("layer_index points to an air layer; choose an insulation layer")
 
-    def u_at(d: float) -> float:
-        return construction.with_layer(layer_index, layer.with_thickness(d)).u_value - target
-
     d_min = 1e-4
     d_max = positive("max_thickness", max_thickness, "m")
+    linear = (layer.kind in ("material", "declared") and construction.bridging is None
+              and construction.ventilation is None and not construction.corrections_input)
+    m_per_r = layer.thickness / layer.resistance_value if linear else 0.0  # [m/(m2 K/W)]
+    r_rest = construction.total_resistance - layer.resistance_value if linear else 0.0
+
+    def u_at(d: float) -> float:
+        if linear:  # U = 1/R_T with R_T = R_rest + d/m_per_r
+            return 1.0 / (r_rest + d / m_per_r) - target
+        return construction.with_layer(layer_index, layer.with_thickness(d)).u_value - target
+
     if u_at(d_min) <= 0.0:
         raise HeatLedgerError(
             f"target_u {target:g} W/(m2 K) is met even without layer "
@@ -969,6 +980,8 @@ def required_thickness(construction: Construction, layer_index: int, target_u: f
             f"target_u {target:g} W/(m2 K) cannot be reached: with {d_max:g} m of layer "
             f"{layer_index} ({layer.name!r}) U is still {best:.4g} W/(m2 K); improve another "
             "layer or relax the target")
+    if linear:
+        return float((1.0 / target - r_rest) * m_per_r)
     return float(brentq(u_at, d_min, d_max, xtol=1e-9, rtol=1e-12))
 
 
