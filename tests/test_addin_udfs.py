@@ -449,3 +449,45 @@ def test_finite_volume_checks_agree_with_the_exact_heat_flux():
     assert abs(rows["energy-balance residual [-]"]) < 1e-10
     assert rows["estimated error of the heat flux [W/m2]"] < 1e-9
     assert udfs.HL_FVCHECK(WALL, 20, -5, None, None, None, 3, True)[0] == ["quantity", "value"]
+
+
+# --------------------------------------------------------------------------- sound numbers
+def test_a_near_zero_declared_resistance_gives_a_text_not_impossible_temperatures():
+    # A declared R of 1e-20 m2 K/W beside ordinary layers made the finite-volume solve
+    # meaningless (nodal temperatures outside the two air temperatures). Steady conduction
+    # without sources keeps every temperature between them (maximum principle), so such a
+    # result is refused with a text naming the row.
+    table = [["gypsum plasterboard 900", 12.5], ["panel", 100, None, 1e-20],
+             ["brick", 102, 0.77]]
+    for name in ("HL_TNODES", "HL_FVCHECK"):
+        out = REGISTRY[name].function(table, 20.0, -5.0)
+        assert isinstance(out, str) and out.startswith(f"{name}: layers"), out
+        assert "1e-20 (row 2)" in out
+    # The exact ladder is unaffected: a resistance of 1e-20 adds nothing to R_T
+    r_t = RSI_H + 0.0125 / LAMBDA_GYPSUM_900 + 0.102 / 0.77 + RSE
+    assert udfs.HL_RTOTAL(table) == pytest.approx(r_t, rel=rtol_R)
+    temps = [r[2] for r in udfs.HL_TINTERFACES(table, 20.0, -5.0)]
+    assert all(-5.0 <= t <= 20.0 for t in temps)
+    assert temps[1] == pytest.approx(temps[2], abs=1e-12)  # no drop across the panel
+
+
+@pytest.mark.parametrize("row", [["void", 10000, 5e-324], ["void", 10000, 1e-300],
+                                 ["frame", 100, 0.04, None, 0.1, 1e-300]])
+def test_a_layer_resistance_out_of_scale_is_refused_naming_the_row(row):
+    # 10 m at 5e-324 W/(m K) gave R_T = inf and a U-value of 0 (and NaN temperatures)
+    table = [["gypsum plasterboard 900", 12.5], row]
+    for out in (udfs.HL_UVALUE(table), udfs.HL_TINTERFACES(table, 20, -5)):
+        assert isinstance(out, str) and "layers row 2" in out and "conductivity" in out, out
+        assert "above 1000 m2 K/W" in out
+
+
+def test_required_thickness_of_plain_and_declared_layers_is_the_closed_form():
+    # d = lambda (1/U_t - R_rest) for a plain layer, from R_T = Rsi + sum R + Rse (ISO 6946
+    # 6.7.1); a declared layer scales its R with d. Exact to round-off (rel 1e-12, far
+    # inside the 1e-9 m an iterative root finder stops at).
+    table = [["gypsum plasterboard 900", 12.5], ["board", 60, None, 1.5], ["block", 150, 1.35]]
+    r_rest = RSI_H + 0.0125 / LAMBDA_GYPSUM_900 + 0.15 / 1.35 + RSE
+    d_mm = 60.0 / 1.5 * (1.0 / 0.2 - r_rest)  # thickness per unit R of the declared board
+    assert udfs.HL_THICKNESS(table, 2, 0.2) == pytest.approx(d_mm, rel=1e-12)
+    d_block = 1.35 * (1.0 / 0.4 - (RSI_H + 0.0125 / LAMBDA_GYPSUM_900 + 1.5 + RSE)) * 1000
+    assert udfs.HL_THICKNESS(table, 3, 0.4) == pytest.approx(d_block, rel=1e-12)

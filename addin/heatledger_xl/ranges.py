@@ -97,6 +97,9 @@ MAX_BRIDGED_LAYERS = 8
 MAX_THICKNESS_MM = 10_000.0
 #: Smallest layer thickness accepted (a thin film is about 0.1 mm). [mm]
 MIN_THICKNESS_MM = 0.001
+#: Largest resistance of one layer, declared or thickness/conductivity (more than a
+#: hundred metres of the best insulation made). [m2 K/W]
+MAX_LAYER_RESISTANCE = 1.0e3
 #: Spreadsheet error values as they arrive as text (xlwings ``err_to_str``).
 ERROR_VALUES = frozenset({"#N/A", "#VALUE!", "#REF!", "#DIV/0!", "#NUM!", "#NAME?",
                           "#NULL!", "#SPILL!", "#CALC!", "#GETTING_DATA", "#FIELD!",
@@ -485,6 +488,10 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
                 msg = msg[len(head):]
                 break
         raise HeatLedgerError(f"{name}: {msg}") from None
+    except ArithmeticError as exc:  # out-of-scale values the engine could not combine
+        raise HeatLedgerError(f"{name}: these layers cannot be combined "
+                              f"({type(exc).__name__}); check the conductivities and "
+                              "resistances") from None
 
 
 # --------------------------------------------------------------------------- internals
@@ -557,7 +564,10 @@ def _layer(name: str, row: int, cells: tuple):
     thickness = _cell(where, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
                       MAX_THICKNESS_MM, True, "mm") / 1000.0
     cond = _cell(where, "conductivity", c_cond, None, 0.0, 1.0e4, False, "W/(m K)")
-    res = _cell(where, "resistance", c_res, None, 0.0, 1.0e3, False, "m2 K/W")
+    if cond is not None:
+        _layer_resistance(where, "conductivity", thickness, cond)
+    res = _cell(where, "resistance", c_res, None, 0.0, MAX_LAYER_RESISTANCE, False,
+                "m2 K/W")
     frac = _cell(where, "bridging_fraction", c_frac, None, 0.0, 1.0, False, "")
     if frac is not None and frac >= 1.0:
         raise HeatLedgerError(f"{where} bridging_fraction must be below 1; got {frac:g} "
@@ -585,6 +595,7 @@ def _layer(name: str, row: int, cells: tuple):
                                       "bridging_conductivity is blank; give both or neither")
             main = cond if cond is not None else _main_conductivity(where, label)
             bcond = _bridging_conductivity(where, c_bcond)
+            _layer_resistance(where, "bridging_conductivity", thickness, bcond)
             return BridgedLayer(thickness, [(main, 1.0 - frac), (bcond, frac)],
                                 name=label or f"layer {row}")
         if res is not None:
@@ -603,6 +614,15 @@ def _layer(name: str, row: int, cells: tuple):
         if msg.startswith(where):
             raise
         raise HeatLedgerError(f"{where}: {msg}") from None
+
+
+def _layer_resistance(where: str, column: str, thickness: float, conductivity: float) -> None:
+    """Reject a thickness/conductivity whose resistance exceeds MAX_LAYER_RESISTANCE."""
+    if thickness > MAX_LAYER_RESISTANCE * conductivity:
+        raise HeatLedgerError(
+            f"{where} {column} {conductivity:.3g} W/(m K) gives R = thickness/conductivity "
+            f"= {thickness / conductivity:.3g} m2 K/W, above {MAX_LAYER_RESISTANCE:g} m2 K/W; "
+            "check the conductivity")
 
 
 def _main_conductivity(where: str, label: str) -> float:

@@ -340,7 +340,7 @@ def HL_FVCHECK(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=
     c = _construction(layers, heat_flow, rsi, rse)
     t_i, t_e = _temperatures(temp_inside, temp_outside)
     n = integer("nodes_per_layer", nodes_per_layer, 4, low=1, high=MAX_NODES_PER_LAYER)
-    res = c.temperatures(t_i, t_e, nodes_per_layer=n)
+    res = _solving(c, layers, lambda: c.temperatures(t_i, t_e, nodes_per_layer=n))
     est = res.mesh_estimate
     _check_fv(c, layers, t_i, t_e, res.interface_temperatures, res.temperature,
               (est.coarse, est.fine))
@@ -531,6 +531,15 @@ def _check_fv(c, layers, t_i, t_e, interface_temps, temps, fluxes) -> None:
         f"{_resistance_span(c, _table_rows(layers))}")
 
 
+def _solving(c, layers, solve):
+    """Run a finite-volume solve; a solver failure names the rows that caused it."""
+    try:
+        return solve()
+    except HeatLedgerError as exc:
+        raise HeatLedgerError(f"layers: the finite-volume solver failed ({exc}); "
+                              f"{_resistance_span(c, _table_rows(layers))}") from None
+
+
 def _nodal_solution(c, layers, t_i, t_e, n):
     """The 1-D finite-volume solution with ``n`` cells in each counted layer (no mesh
     estimate: HL_TNODES does not show one), checked against the ladder."""
@@ -538,8 +547,9 @@ def _nodal_solution(c, layers, t_i, t_e, n):
     widths = np.repeat([r.thickness / n for r in counted], n)
     cond = np.repeat([r.thickness / r.resistance for r in counted], n)
     layer_of_node = np.repeat([r.index for r in counted], n)
-    sol = fv1d.solve_conduction(widths, cond, fv1d.surface_to_ambient(t_i, c.rsi),
-                                fv1d.surface_to_ambient(t_e, c.rse_used))
+    sol = _solving(c, layers, lambda: fv1d.solve_conduction(
+        widths, cond, fv1d.surface_to_ambient(t_i, c.rsi),
+        fv1d.surface_to_ambient(t_e, c.rse_used)))
     bounds = np.arange(0, n * len(counted) + 1, n)
     _check_fv(c, layers, t_i, t_e, sol.face_temperature[bounds], sol.temperature,
               (sol.heat_in, sol.heat_out))

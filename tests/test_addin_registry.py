@@ -1,0 +1,81 @@
+"""The registry of spreadsheet functions survives reloads and refuses non-finite numbers.
+
+Classic xlwings (desktop Excel for Windows) reloads the module named under "UDF Modules"
+with :func:`importlib.reload` when its file changed while Excel's Python process runs (as
+after an upgrade); before, every HL_ function then failed with "registered twice" until
+the process restarted.
+"""
+
+from __future__ import annotations
+
+import importlib
+import math
+
+import pytest
+
+from heatledger.errors import HeatLedgerError
+from heatledger_xl import registry, udfs, udfs_fins, udfs_heatloss
+from heatledger_xl.registry import REGISTRY, udf
+
+WALL = [["gypsum plasterboard 900", 12.5], ["mineral wool 035", 100], ["block", 150, 1.35]]
+
+
+def _consistent() -> None:
+    assert set(udfs.__all__) == set(REGISTRY)
+    for name, spec in REGISTRY.items():
+        assert getattr(udfs, name) is spec.function, name
+
+
+@pytest.mark.parametrize("module", [udfs, udfs_fins, udfs_heatloss])
+def test_reloading_a_function_module_replaces_its_functions(module):
+    names = list(REGISTRY)
+    u = udfs.HL_UVALUE(WALL)
+    old = {n: s.function for n, s in REGISTRY.items() if s.function.__module__ ==
+           module.__name__}
+    importlib.reload(module)
+    if module is not udfs:
+        importlib.reload(udfs)  # what xlwings reloads; keeps udfs' members current
+    assert list(REGISTRY) == names  # same functions, same order
+    for name, fn in old.items():
+        assert REGISTRY[name].function is not fn, f"{name} kept its old function"
+    _consistent()
+    assert udfs.HL_UVALUE(WALL) == u
+    assert isinstance(udfs.HL_FIN_EFFICIENCY(50, 2, 200, 25, 80, 20), float)
+    assert isinstance(udfs.HL_VENTILATION_H(100), float)
+
+
+def test_reloading_udfs_reloads_the_modules_it_is_built_on():
+    fins_before = udfs_fins.HL_FIN_HEATRATE
+    heat_before = udfs_heatloss.HL_ROOM_HT
+    importlib.reload(udfs)
+    assert udfs_fins.HL_FIN_HEATRATE is not fins_before
+    assert udfs_heatloss.HL_ROOM_HT is not heat_before
+    _consistent()
+
+
+def test_the_same_name_from_another_module_is_still_refused():
+    def HL_UVALUE(layers):  # noqa: N802 - a spreadsheet name
+        """A second function of the same name. [-]"""
+        return 0.0
+
+    before = REGISTRY["HL_UVALUE"]
+    with pytest.raises(HeatLedgerError, match="declared in heatledger_xl.udfs and again"):
+        udf("test", returns="x [-]", args={"layers": "Layer table. [-]"})(HL_UVALUE)
+    assert REGISTRY["HL_UVALUE"] is before
+
+
+@pytest.mark.parametrize("value", [math.nan, math.inf, [[1.0, math.nan]], [["a", -math.inf]]])
+def test_a_non_finite_number_never_reaches_a_cell(value):
+    def HL_TEST_NONFINITE(x=None):  # noqa: N802 - a spreadsheet name
+        """Returns what the test gives it, for the wrapper's check. [-]"""
+        return value
+
+    try:
+        fn = udf("test", returns="x [-]", args={"x": "Anything. [-]"}, spills=True)(
+            HL_TEST_NONFINITE)
+        out = fn()
+    finally:
+        REGISTRY.pop("HL_TEST_NONFINITE", None)
+    assert out == ("HL_TEST_NONFINITE: no finite result for these arguments (x); please "
+                   "report it with the arguments used")
+    assert registry.error_text("HL_X", HeatLedgerError("a")) == "HL_X: a"
