@@ -289,3 +289,10 @@ def test_huge_element_ranges_stop_at_the_row_limit():
     assert isinstance(out, str) and "elements" in out
     assert udfs.HL_ROOM_HT(rows[:400] + [[None] * 3] * 10_000, 20, -5) == pytest.approx(
         400 * 0.2, rel=rtol_same)
+
+
+def test_a_window_of_vanishing_area_is_refused_naming_the_areas():
+    # 2.2e-309 m2 of frame and no glazing: psi l / A overflowed into an unexpected problem
+    out = udfs.HL_WINDOW_U(0.0, 2.225073858507203e-309, 1.0, 1.0, 4.0, 0.125)
+    assert out.startswith("HL_WINDOW_U: glazing_area + frame_area + panel_area must be at "
+                          "least 0.0001 m2"), out

@@ -53,6 +53,18 @@ def test_reloading_udfs_reloads_the_modules_it_is_built_on():
     _consistent()
 
 
+def test_helpers_imported_before_a_reload_still_refuse_a_blank_required_value():
+    # macros imported ``number`` before the reload; its "no default" marker must still be
+    # recognised by the reloaded module (or a blank required cell would pass as a value)
+    from heatledger_xl import macros
+
+    importlib.reload(udfs)  # reloads ranges too
+    with pytest.raises(HeatLedgerError, match="x is blank"):
+        macros.number("x", None)
+    with pytest.raises(HeatLedgerError, match="x is blank"):
+        macros.text("x", "  ")
+
+
 def test_the_same_name_from_another_module_is_still_refused():
     def HL_UVALUE(layers):  # noqa: N802 - a spreadsheet name
         """A second function of the same name. [-]"""

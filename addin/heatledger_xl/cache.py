@@ -15,8 +15,9 @@ from collections import OrderedDict
 
 __all__ = ["MISSING", "BoundedCache"]
 
-#: Returned by :meth:`BoundedCache.get` when the key is not cached.
-MISSING = object()
+#: Returned by :meth:`BoundedCache.get` when the key is not cached (kept when the module is
+#: reloaded).
+MISSING = globals().get("MISSING") or object()
 
 
 class BoundedCache:
@@ -41,11 +42,9 @@ class BoundedCache:
     Examples
     --------
     >>> cache = BoundedCache(100)
-    >>> cache.get("a") is MISSING
-    True
     >>> cache.put("a", 1.0, 60); cache.put("b", 2.0, 60)
-    >>> cache.get("a") is MISSING, cache.get("b")
-    (True, 2.0)
+    >>> len(cache), cache.get("b"), cache.size_bytes
+    (1, 2.0, 60)
     """
 
     def __init__(self, budget_bytes: int) -> None:
@@ -75,8 +74,8 @@ class BoundedCache:
             return entry[0]
 
     def put(self, key, value, size_bytes: int) -> None:
-        """Hold ``value`` for ``key``, dropping the least recently used entries beyond the
-        budget.
+        """Hold ``value`` for ``key`` (unless a value is held for it already), dropping the
+        least recently used entries beyond the budget.
 
         Parameters
         ----------
@@ -89,11 +88,10 @@ class BoundedCache:
         """
         with self._lock:
             try:
-                old = self._data.pop(key, None)
+                if key in self._data:  # put meanwhile by another thread: keep that one
+                    return
             except TypeError:
                 return
-            if old is not None:
-                self._bytes -= old[1]
             self._data[key] = (value, size_bytes)
             self._bytes += size_bytes
             while self._bytes > self.budget_bytes and len(self._data) > 1:

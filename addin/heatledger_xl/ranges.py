@@ -109,6 +109,7 @@ ERROR_VALUES = frozenset({"#N/A", "#VALUE!", "#REF!", "#DIV/0!", "#NUM!", "#NAME
 LIBRARY = default_library()
 
 _HEAT_FLOWS = ("up", "horizontal", "down")
+_ZERO_ONE = frozenset((0, 1))
 _PADDING = tuple((None,) * (len(LAYER_COLUMNS) - n) for n in range(len(LAYER_COLUMNS)))
 _BLANK_TEXT = ""
 
@@ -122,7 +123,9 @@ class Required:
         return "REQUIRED"
 
 
-REQUIRED = Required()
+#: The marker; kept when the module is reloaded, so functions defined before and after a
+#: reload (classic xlwings reloads the function module after an upgrade) agree on it.
+REQUIRED = globals().get("REQUIRED") or Required()
 
 
 # --------------------------------------------------------------------------- cell values
@@ -201,12 +204,12 @@ def number(name: str, value: object, default: object = REQUIRED, *, low: float |
             name, value, unit)
         return _bounded(name, value, out, low, high, low_inclusive, unit)
     if value is None:
-        if isinstance(default, Required):
+        if default is REQUIRED:
             raise HeatLedgerError(f"{name} is blank; give a number{_in(unit)}")
         return default  # type: ignore[return-value]
     value = _unwrap_single(name, value)
     if _is_blank(value):
-        if isinstance(default, Required):
+        if default is REQUIRED:
             raise HeatLedgerError(f"{name} is blank; give a number{_in(unit)}")
         return default  # type: ignore[return-value]
     return _bounded(name, value, _number_slow(name, value, unit), low, high, low_inclusive,
@@ -264,7 +267,7 @@ def integer(name: str, value: object, default: object = REQUIRED, *, low: int = 
         Inclusive bounds. [-]
     """
     out = number(name, value, default)
-    if out is default and not isinstance(default, Required):
+    if out is default and default is not REQUIRED:
         return default  # type: ignore[return-value]
     if out != math.floor(out):
         raise HeatLedgerError(f"{name} must be a whole number; got {out:g}")
@@ -293,7 +296,7 @@ def text(name: str, value: object, default: object = REQUIRED) -> str:
             return stripped
     value = _unwrap_single(name, value)
     if _is_blank(value):
-        if isinstance(default, Required):
+        if default is REQUIRED:
             raise HeatLedgerError(f"{name} is blank; give a text")
         return default  # type: ignore[return-value]
     if isinstance(value, str):
@@ -376,33 +379,39 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
     if not isinstance(cells, (list, tuple)):
         raise HeatLedgerError(f"{name} must be a range of 2 to 6 columns (material, "
                               f"thickness_mm, ...); got {_describe(cells)}")
-    if cells and not any(isinstance(r, (list, tuple)) for r in cells):
+    if cells and not isinstance(cells[0], (list, tuple)) and not any(
+            isinstance(r, (list, tuple)) for r in cells):
         cells = [cells]  # a single row given as a 1-D list
     out = []
     width = 0
     n_cols = len(LAYER_COLUMNS)
-    for i, row in enumerate(cells, start=1):
+    i = 0
+    for row in cells:
+        i += 1
         if not isinstance(row, (list, tuple)):
             row = (row,)
-        if _row_is_blank(row):
+        n = len(row)
+        first = row[0] if n else None
+        # a row whose first cell holds a name is filled (the common case, checked first)
+        if not (type(first) is str and first and not first.isspace()) and _row_is_blank(row):
             check_blank_below(name, cells, i)
             break
-        n = len(row)
-        width = max(width, n)
+        if n > width:
+            width = n
         if n >= n_cols:
             if n > n_cols and any(not _is_blank(c) for c in row[n_cols:]):
                 raise HeatLedgerError(
                     f"{name} has {n} columns; a layer table has 2 to 6 (material, "
                     "thickness_mm, conductivity, resistance, bridging_fraction, "
                     "bridging_conductivity)")
-            padded = tuple(row[:n_cols])
+            padded = tuple(row) if n == n_cols else tuple(row[:n_cols])
         else:
             padded = tuple(row) + _PADDING[n]
-        if i == 1 and _is_header(padded):
+        if i == 1 and type(padded[1]) is str and _is_header(padded):
             continue
-        if bool in map(type, padded):
+        if _may_hold_bool(padded):
             _no_booleans(f"{name} row {i}", padded, LAYER_COLUMNS)
-        if len(out) >= MAX_LAYERS:
+        if len(out) == MAX_LAYERS:
             raise HeatLedgerError(f"{name} holds more than {MAX_LAYERS} layers; end the "
                                   "table with a blank row")
         out.append((i, padded))
@@ -471,9 +480,12 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
     -------
     Construction
     """
-    layers = [_layer_of(name, i, cells) for i, cells in rows]
-    bridged = [i for (i, _), lay in zip(rows, layers, strict=True) if lay.kind == "bridged"]
-    if len(bridged) > MAX_BRIDGED_LAYERS:
+    try:
+        layers = [_cached_layer(name, i, cells) for i, cells in rows]
+    except TypeError:  # a cell value that cannot key a cache (a nested list)
+        layers = [_layer(name, i, cells) for i, cells in rows]
+    if sum(lay.kind == "bridged" for lay in layers) > MAX_BRIDGED_LAYERS:
+        bridged = [i for (i, _), lay in zip(rows, layers, strict=True) if lay.kind == "bridged"]
         raise HeatLedgerError(
             f"{name} row {bridged[MAX_BRIDGED_LAYERS]}: at most {MAX_BRIDGED_LAYERS} bridged "
             f"layers per table (this one has {len(bridged)}); combine battens and studs that "
@@ -506,11 +518,12 @@ def _cached_layer(name: str, row: int, cells: tuple):
     return _layer(name, row, cells)
 
 
-def _layer_of(name: str, row: int, cells: tuple):
+def _may_hold_bool(cells: tuple) -> bool:
+    """False when no cell equals 0 or 1, so none can be TRUE or FALSE (a quick look)."""
     try:
-        return _cached_layer(name, row, cells)
-    except TypeError:  # a cell value that cannot key a cache (a nested list)
-        return _layer(name, row, cells)
+        return not _ZERO_ONE.isdisjoint(cells)
+    except TypeError:  # an unhashable cell (a nested list)
+        return True
 
 
 def _no_booleans(where: str, cells: tuple, columns: tuple) -> None:
@@ -560,7 +573,8 @@ def _cell(where: str, column: str, value: object, default: object, low: float, h
 def _layer(name: str, row: int, cells: tuple):
     where = f"{name} row {row}"
     c_name, c_thick, c_cond, c_res, c_frac, c_bcond = cells
-    label = text(f"{where} material", c_name, "")
+    if not (type(c_name) is str and (label := c_name.strip()) and label[0] != "#"):
+        label = text(f"{where} material", c_name, "")  # the common case, a name, is done
     thickness = _cell(where, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
                       MAX_THICKNESS_MM, True, "mm") / 1000.0
     cond = _cell(where, "conductivity", c_cond, None, 0.0, 1.0e4, False, "W/(m K)")

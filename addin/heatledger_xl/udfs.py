@@ -33,8 +33,6 @@ import importlib
 import math
 import sys
 
-import numpy as np
-
 import heatledger
 from heatledger import fv1d
 from heatledger.airlayers import air_layer_resistance
@@ -295,7 +293,7 @@ def HL_TINTERFACES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, 
     c = _construction(layers, heat_flow, rsi, rse)
     t_i, t_e = _temperatures(temp_inside, temp_outside)
     temps = c.ladder_temperatures(t_i, t_e)
-    _check_temperatures(c, layers, temps, t_i, t_e)
+    _check_temperatures(c, layers, temps.tolist(), t_i, t_e)
     counted = [r for r in c.layer_table if r.counted]
     x = 0.0
     rows = [["inside surface", 0.0, float(temps[0])]]
@@ -320,10 +318,9 @@ def HL_TNODES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=N
     c = _construction(layers, heat_flow, rsi, rse)
     t_i, t_e = _temperatures(temp_inside, temp_outside)
     n = integer("nodes_per_layer", nodes_per_layer, 4, low=1, high=MAX_NODES_PER_LAYER)
-    sol, layer_of_node = _nodal_solution(c, layers, t_i, t_e, n)
+    owner, xs, temps = _nodal_solution(c, layers, t_i, t_e, n)
     rows = [[i + 1, layer + 1, x * 1000.0, t]
-            for i, (layer, x, t) in enumerate(zip(layer_of_node.tolist(), sol.x.tolist(),
-                                                  sol.temperature.tolist(), strict=True))]
+            for i, (layer, x, t) in enumerate(zip(owner, xs, temps, strict=True))]
     return _with_header(rows, ["node", "layer", "x [mm]", "temperature [degC]"], show_header)
 
 
@@ -342,8 +339,8 @@ def HL_FVCHECK(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=
     n = integer("nodes_per_layer", nodes_per_layer, 4, low=1, high=MAX_NODES_PER_LAYER)
     res = _solving(c, layers, lambda: c.temperatures(t_i, t_e, nodes_per_layer=n))
     est = res.mesh_estimate
-    _check_fv(c, layers, t_i, t_e, res.interface_temperatures, res.temperature,
-              (est.coarse, est.fine))
+    _check_fv(c, layers, t_i, t_e, res.interface_temperatures.tolist(),
+              res.temperature.tolist(), (est.coarse, est.fine))
     rows = [["energy-balance residual [-]", float(res.energy_residual)],
             ["heat flux, this mesh [W/m2]", float(est.coarse)],
             ["heat flux, every cell halved [W/m2]", float(est.fine)],
@@ -500,35 +497,35 @@ def _table_rows(layers):
     return layer_rows("layers", layers)
 
 
-def _check_temperatures(c, layers, temps, t_i, t_e) -> None:
+def _check_temperatures(c, layers, temps: list, t_i: float, t_e: float) -> None:
     """Every temperature finite, above absolute zero and, as steady conduction without heat
     sources requires, between the two air temperatures (within :data:`TEMP_TOL_K`)."""
-    low, high = min(t_i, t_e) - TEMP_TOL_K, max(t_i, t_e) + TEMP_TOL_K
-    arr = np.asarray(temps, dtype=float)
-    ok = (arr >= low) & (arr <= high) & (arr > _ABS_ZERO)  # NaN fails every comparison
-    if ok.all():
+    low = max(min(t_i, t_e) - TEMP_TOL_K, math.nextafter(_ABS_ZERO, 0.0))
+    high = max(t_i, t_e) + TEMP_TOL_K
+    if math.isfinite(sum(temps)) and low <= min(temps) and max(temps) <= high:
         return
+    bad = next(t for t in temps if not low <= t <= high)  # NaN fails both comparisons
     raise HeatLedgerError(
-        f"layers: a temperature of {float(arr[~ok][0]):.4g} degC lies outside temp_inside "
-        f"and temp_outside (impossible without heat sources); "
+        f"layers: a temperature of {bad:.4g} degC lies outside temp_inside and "
+        f"temp_outside (impossible without heat sources); "
         f"{_resistance_span(c, _table_rows(layers))}")
 
 
-def _check_fv(c, layers, t_i, t_e, interface_temps, temps, fluxes) -> None:
+def _check_fv(c, layers, t_i, t_e, interface_temps: list, temps: list, fluxes) -> None:
     """The finite-volume solution equals the exact resistance ladder (the scheme is exact
     for piecewise-linear profiles) within :data:`TEMP_TOL_K`, and its heat fluxes equal
     ``(t_i - t_e)/R_T`` within the flux that :data:`TEMP_TOL_K` across R_T drives."""
     _check_temperatures(c, layers, temps, t_i, t_e)
-    exact = c.ladder_temperatures(t_i, t_e)
-    q = (t_i - t_e) / c.total_resistance
-    off_t = float(np.max(np.abs(np.asarray(interface_temps) - exact)))
-    off_q = max(abs(f - q) for f in fluxes) * c.total_resistance
-    if off_t <= TEMP_TOL_K and off_q <= TEMP_TOL_K:  # NaN fails
+    exact = c.ladder_temperatures(t_i, t_e).tolist()
+    r_t = c.total_resistance
+    q = (t_i - t_e) / r_t
+    off = max([abs(a - b) for a, b in zip(interface_temps, exact, strict=True)]
+              + [abs(f - q) * r_t for f in fluxes])
+    if off <= TEMP_TOL_K:  # NaN fails
         return
     raise HeatLedgerError(
-        f"layers: the finite-volume solution is {max(off_t, off_q):.3g} K off the exact "
-        f"resistance ladder (more than {TEMP_TOL_K:g} K); "
-        f"{_resistance_span(c, _table_rows(layers))}")
+        f"layers: the finite-volume solution is {off:.3g} K off the exact resistance ladder "
+        f"(more than {TEMP_TOL_K:g} K); {_resistance_span(c, _table_rows(layers))}")
 
 
 def _solving(c, layers, solve):
@@ -541,19 +538,22 @@ def _solving(c, layers, solve):
 
 
 def _nodal_solution(c, layers, t_i, t_e, n):
-    """The 1-D finite-volume solution with ``n`` cells in each counted layer (no mesh
-    estimate: HL_TNODES does not show one), checked against the ladder."""
-    counted = [r for r in c.layer_table if r.counted]
-    widths = np.repeat([r.thickness / n for r in counted], n)
-    cond = np.repeat([r.thickness / r.resistance for r in counted], n)
-    layer_of_node = np.repeat([r.index for r in counted], n)
+    """Layer numbers, cell centres [m] and temperatures [degC] of the 1-D finite-volume
+    solution with ``n`` cells in each counted layer, checked against the ladder. One solve:
+    HL_TNODES shows no mesh estimate, so it computes none."""
+    widths, cond, owner = [], [], []
+    for r in c.layer_table:
+        if r.counted:
+            widths += [r.thickness / n] * n
+            cond += [r.thickness / r.resistance] * n
+            owner += [r.index] * n
     sol = _solving(c, layers, lambda: fv1d.solve_conduction(
         widths, cond, fv1d.surface_to_ambient(t_i, c.rsi),
         fv1d.surface_to_ambient(t_e, c.rse_used)))
-    bounds = np.arange(0, n * len(counted) + 1, n)
-    _check_fv(c, layers, t_i, t_e, sol.face_temperature[bounds], sol.temperature,
+    temps = sol.temperature.tolist()
+    _check_fv(c, layers, t_i, t_e, sol.face_temperature.tolist()[::n], temps,
               (sol.heat_in, sol.heat_out))
-    return sol, layer_of_node
+    return owner, sol.x.tolist(), temps
 
 
 def _temperatures(temp_inside, temp_outside):

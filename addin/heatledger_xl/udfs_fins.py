@@ -473,7 +473,10 @@ _INT_KEYS = ("count", "cells")
 def _entry(spec):
     row, where = _spec_row(spec)
     problems: list = []
-    entries = _guard(lambda: fins_from_dict([row], LIBRARY, problems))
+    try:
+        entries = _guard(lambda: fins_from_dict([row], LIBRARY, problems))
+    except HeatLedgerError as exc:  # name the argument the values came from
+        raise HeatLedgerError(f"spec: {exc}") from None
     if problems:
         # a problem with a key the user typed first (a missing key second)
         problems.sort(key=lambda p: p[0].split(".")[-1] not in where)

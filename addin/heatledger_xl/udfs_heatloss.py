@@ -99,6 +99,9 @@ FAMILY = "heat loss"
 MAX_ELEMENT_ROWS = 500
 #: Largest area [m2], length [m], count or flow [m3/h] accepted.
 MAX_QUANTITY = 1.0e7
+#: Smallest whole-window area (glazing + frame + panel) accepted: a square centimetre,
+#: far below any window, far above areas whose division overflows. [m2]
+MIN_WINDOW_AREA = 1.0e-4
 _ABS_ZERO = -273.15
 _MAX_TEMP = 2000.0
 _MAX_U = 1.0e3
@@ -193,6 +196,9 @@ def HL_WINDOW_U(glazing_area, frame_area, glazing_u, frame_u, glazing_perimeter,
     uf = number("frame_u", frame_u, low=0.0, high=_MAX_U, low_inclusive=True, unit="W/(m2 K)")
     lg = _q("glazing_perimeter", glazing_perimeter)
     psig = number("psi_glazing", psi_glazing, low=-10.0, high=10.0, unit="W/(m K)")
+    if ag + af + ap < MIN_WINDOW_AREA:
+        raise HeatLedgerError(f"glazing_area + frame_area + panel_area must be at least "
+                              f"{MIN_WINDOW_AREA:g} m2; got {ag + af + ap:g} m2")
     return float(window_u(ag, af, ug, uf, lg, psig, panel_area=ap, panel_u=up,
                           panel_perimeter=lp, psi_panel=psip, window_area=aw))
 
