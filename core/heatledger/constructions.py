@@ -22,7 +22,6 @@ from decimal import ROUND_HALF_UP, Decimal
 from itertools import product
 
 import numpy as np
-from scipy.optimize import brentq
 
 from . import fv1d
 from ._validate import choice, finite, non_negative, positive
@@ -969,6 +968,8 @@ def required_thickness(construction: Construction, layer_index: int, target_u: f
             f"target_u {target:g} W/(m2 K) cannot be reached: with {d_max:g} m of layer "
             f"{layer_index} ({layer.name!r}) U is still {best:.4g} W/(m2 K); improve another "
             "layer or relax the target")
+    from scipy.optimize import brentq  # imported here: scipy.optimize costs 0.1 s at start-up
+
     return float(brentq(u_at, d_min, d_max, xtol=1e-9, rtol=1e-12))
 
 
