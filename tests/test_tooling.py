@@ -58,3 +58,14 @@ def test_every_public_name_resolves_and_lists():
     assert set(heatledger.__all__) <= set(dir(heatledger))
     with pytest.raises(AttributeError, match="no attribute 'not_a_name'"):
         heatledger.not_a_name  # noqa: B018
+
+
+def test_command_help_does_not_load_the_engine():
+    # `heatledger --help` answers at once: argparse only, no numpy, scipy or engine module
+    code = ("import sys; from heatledger.cli import main\n"
+            "try:\n    main(['--help'])\nexcept SystemExit:\n    pass\n"
+            "heavy = ('numpy', 'scipy', 'heatledger.constructions', 'heatledger.project');"
+            "print(','.join(m for m in heavy if m in sys.modules), file=sys.stderr)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         check=True).stderr.strip()
+    assert out == "", f"heatledger --help imported: {out}"
