@@ -14,13 +14,12 @@ import json
 import math
 import os
 import sys
-from importlib import resources
+from typing import TYPE_CHECKING
 
-from . import __version__
-from .cautions import caution_lines
 from .errors import HeatLedgerError
-from .materials import default_library
-from .project import Project, load_project, project_from_dict
+
+if TYPE_CHECKING:  # the engine is imported by the commands that use it, not by --help
+    from .project import Project
 
 __all__ = ["main", "demo_project", "project_results"]
 
@@ -52,12 +51,14 @@ def main(argv=None) -> int:
 
 def demo_bytes() -> bytes:
     """The demo project file shipped with heatledger (an invented scenario), as bytes."""
+    from importlib import resources
+
     return resources.files("heatledger").joinpath(DEMO_RESOURCE).read_bytes()
 
 
 def demo_project() -> Project:
     """The demo project shipped with heatledger (an invented scenario)."""
-    from .project import tomllib
+    from .project import project_from_dict, tomllib
 
     data = demo_bytes()
     return project_from_dict(tomllib.loads(data.decode("utf-8")), source_bytes=data,
@@ -79,6 +80,9 @@ def project_results(project: Project) -> dict:
         ``total_resistance`` [m2 K/W], ``u_value`` and ``u_value_reported`` [W/(m2 K)],
         ``interface_temperatures`` [degC], ``heat_flux`` [W/m2] and ``energy_residual`` [-].
     """
+    from . import __version__
+    from .cautions import caution_lines
+
     out = []
     for entry in project.constructions:
         con = entry.construction
@@ -309,11 +313,15 @@ def _cmd_audit(args) -> int:
 
 
 def _cmd_calc(args) -> int:
+    from .project import load_project
+
     _emit(project_results(load_project(args.file)), args.json)
     return 0
 
 
 def _cmd_materials(args) -> int:
+    from .materials import default_library
+
     lib = default_library()
     if args.json:
         rows = [{"name": m.name, "conductivity": m.conductivity, "density": m.density,
@@ -335,13 +343,26 @@ def _cmd_materials(args) -> int:
     return 0
 
 
+class _VersionAction(argparse.Action):
+    """``--version``: print the installed version and exit (looked up only when asked)."""
+
+    def __init__(self, option_strings, dest=argparse.SUPPRESS, **kwargs):
+        super().__init__(option_strings, dest, nargs=0, help="print the version and exit",
+                         **kwargs)
+
+    def __call__(self, parser, namespace, values, option_string=None):
+        from . import __version__
+
+        parser.exit(message=f"heatledger {__version__}\n")
+
+
 def _parser() -> argparse.ArgumentParser:
     p = argparse.ArgumentParser(
         prog="heatledger",
         description="Heat-transfer calculations for building constructions: U-values "
                     "(EN ISO 6946), temperatures through the layers (1-D finite volumes).",
     )
-    p.add_argument("--version", action="version", version=f"heatledger {__version__}")
+    p.add_argument("--version", action=_VersionAction)
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
 
     d = sub.add_parser("demo", help="results of the invented demo project")

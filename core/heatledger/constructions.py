@@ -22,7 +22,6 @@ from decimal import ROUND_HALF_UP, Decimal
 from itertools import product
 
 import numpy as np
-from scipy.optimize import brentq
 
 from . import fv1d
 from ._validate import choice, finite, non_negative, positive
@@ -982,6 +981,8 @@ def required_thickness(construction: Construction, layer_index: int, target_u: f
             "layer or relax the target")
     if linear:
         return float((1.0 / target - r_rest) * m_per_r)
+    from scipy.optimize import brentq  # imported here: scipy.optimize costs 0.1 s at start-up
+
     return float(brentq(u_at, d_min, d_max, xtol=1e-9, rtol=1e-12))
 
 

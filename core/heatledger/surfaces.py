@@ -13,8 +13,8 @@ transmittance - Calculation methods*, 6.8 and Table 7; Annex C, eqs (C.1)-(C.4).
 
 from __future__ import annotations
 
-from scipy.constants import Stefan_Boltzmann, zero_Celsius
-
+from ._constants import STEFAN_BOLTZMANN as Stefan_Boltzmann
+from ._constants import ZERO_CELSIUS as zero_Celsius
 from ._validate import choice, finite, fraction, non_negative
 
 __all__ = [

@@ -6,7 +6,6 @@ import math
 from dataclasses import dataclass, replace
 
 import numpy as np
-from scipy.optimize import brentq
 
 from .. import _validate as v
 from ..errors import HeatLedgerError
@@ -246,6 +245,8 @@ class FinArray:
                 f"target_heat_rate {target_heat_rate:g} W is met by the base with vanishing "
                 f"fins ({math.copysign(q_lo, theta):.6g} W): no fin length is needed"
             )
+        from scipy.optimize import brentq  # lazy: keeps scipy.optimize out of start-up
+
         root, info = brentq(lambda length: q_of(length) - q_goal, lo, long,
                             xtol=_XTOL_LENGTH, rtol=_RTOL, full_output=True)
         sized = replace(self, fin=self.fin.with_length(root))
@@ -318,6 +319,8 @@ class FinArray:
                 f"most that fit; {math.copysign(q_of(limit), theta):.6g} W): use longer fins "
                 "or a larger base"
             )
+        from scipy.optimize import brentq  # lazy: keeps scipy.optimize out of start-up
+
         root, info = brentq(lambda n: q_of(n) - q_goal, 0.0, float(limit), xtol=1e-9,
                             rtol=_RTOL, full_output=True)
         count = min(int(math.ceil(root)), limit)

@@ -17,9 +17,10 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.constants import Stefan_Boltzmann, zero_Celsius
 
 from .. import _validate as v
+from .._constants import STEFAN_BOLTZMANN as Stefan_Boltzmann
+from .._constants import ZERO_CELSIUS as zero_Celsius
 from ..errors import HeatLedgerError
 from ..fv1d import (
     fixed_flux,

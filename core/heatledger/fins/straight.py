@@ -6,11 +6,11 @@ import math
 from dataclasses import KW_ONLY, dataclass
 
 import numpy as np
-from scipy.special import ive
 
 from .. import _validate as v
 from ..errors import HeatLedgerError
 from ._base import FinBase
+from ._bessel import ive
 
 __all__ = ["StraightFin", "STRAIGHT_TIPS", "STRAIGHT_PROFILES"]
 

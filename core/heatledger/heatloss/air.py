@@ -11,10 +11,10 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-import scipy.constants as const
 
 from .. import _validate
 from .._arrays import non_negative_array, out
+from .._constants import GAS_CONSTANT, SECONDS_PER_HOUR, STANDARD_ATMOSPHERE, ZERO_CELSIUS
 from ..errors import HeatLedgerError
 
 # ----------------------------------------------------------------------------- air properties
@@ -22,18 +22,18 @@ from ..errors import HeatLedgerError
 #: Temperature at which the air properties below are stated. [degC]
 AIR_REFERENCE_TEMPERATURE = 20.0
 #: Pressure at which the air properties below are stated: one standard atmosphere. [Pa]
-AIR_REFERENCE_PRESSURE = const.atm
+AIR_REFERENCE_PRESSURE = STANDARD_ATMOSPHERE
 #: Molar mass of dry air, ASHRAE Handbook -- Fundamentals (2017), ch. 1 [M]. [kg/mol]
 DRY_AIR_MOLAR_MASS = 28.966e-3
 #: Density of dry air at the reference state as an ideal gas, p M / (R T). [kg/m3]
 AIR_DENSITY = AIR_REFERENCE_PRESSURE * DRY_AIR_MOLAR_MASS / (
-    const.R * (AIR_REFERENCE_TEMPERATURE + const.zero_Celsius)
+    GAS_CONSTANT * (AIR_REFERENCE_TEMPERATURE + ZERO_CELSIUS)
 )
 #: Specific heat capacity of dry air at constant pressure near 20 degC: the 1.006 kJ/(kg K)
 #: of the ASHRAE Handbook -- Fundamentals (2017) ch. 1 moist-air enthalpy [M]. [J/(kg K)]
 AIR_SPECIFIC_HEAT = 1006.0
 
-_SECONDS_PER_HOUR = const.hour  # 3600 s
+_SECONDS_PER_HOUR = SECONDS_PER_HOUR
 
 
 def ventilation_heat_loss_coefficient(

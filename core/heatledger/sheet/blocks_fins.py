@@ -32,9 +32,9 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
-from scipy.constants import Stefan_Boltzmann, zero_Celsius
-
 from .. import cautions as _cautions
+from .._constants import STEFAN_BOLTZMANN as Stefan_Boltzmann
+from .._constants import ZERO_CELSIUS as zero_Celsius
 from ..fins.annular import AnnularFin
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet, put_warning
 from .blocks_fins_closed import (
@@ -384,7 +384,7 @@ def _fv(w, r, fin, entry):
     sig = None
     if nonlinear:
         sig = w.line("σ, Stefan–Boltzmann constant [W/(m2 K4)]", value=float(Stefan_Boltzmann),
-                     fmt=F_E, note="CODATA value via scipy.constants")
+                     fmt=F_E, note="from the exact SI defining constants, 2 π⁵ k⁴/(15 h³ c²)")
     node0 = w.row + 3
     node_n = node0 + n - 1
     g0 = w.line("base conductance G_0 = 2 λ A_1/dx [W/K]", formula=f"=2*{k}*C{node0}/{dx}",

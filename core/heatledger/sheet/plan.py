@@ -83,6 +83,7 @@ MAX_FIT_WIDTH = 60.0
 
 
 # --------------------------------------------------------------------------- addresses
+@functools.lru_cache(maxsize=4096)
 def col_letter(index: int) -> str:
     """Column letters of a 1-based column index (1 -> ``A``, 27 -> ``AA``).
 
@@ -152,6 +153,7 @@ def ref(row: int, col: int, *, absolute_ref: bool = False) -> str:
     return f"{col_letter(col)}{row}"
 
 
+@functools.lru_cache(maxsize=65536)
 @functools.lru_cache(maxsize=65536)
 def split_ref(a1: str) -> tuple[int, int]:
     """Row and column (1-based) of an A1 reference such as ``"B7"`` or ``"$B$7"``.
@@ -286,7 +288,7 @@ STYLES: dict[str, Style] = {
 
 
 # --------------------------------------------------------------------------- cells, blocks
-@dataclass
+@dataclass(slots=True)
 class Cell:
     """One cell of the plan.
 
