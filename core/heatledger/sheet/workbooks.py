@@ -44,7 +44,7 @@ def regenerate(folder) -> list[Path]:
     out = Path(folder)
     out.mkdir(parents=True, exist_ok=True)
     toml, template, audit = (out / name for name in DEMO_FILES)
-    for argv in (["demo", "--write-toml", str(toml)],
+    for argv in (["demo", "--write-toml", str(toml), "--force"],
                  ["template", "-o", str(template), "--force"],
                  ["audit", str(toml), "-o", str(audit), "--force", "--quiet"]):
         code = main(argv)
