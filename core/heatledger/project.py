@@ -15,7 +15,8 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from ._projectio import number, table, table_list, unknown
-from ._validate import finite
+from ._validate import MAX_PROJECT_CELLS_PER_LAYER, choices_text, quote, show
+from .airlayers import MAX_AIR_LAYER_THICKNESS, VENTILATION_CLASSES
 from .constructions import (
     AirGapCorrection,
     AirLayer,
@@ -27,7 +28,8 @@ from .constructions import (
 )
 from .errors import HeatLedgerError, ProjectError
 from .fileio import read_bytes_limited
-from .materials import Material, MaterialLibrary, default_library
+from .materials import Material, MaterialLibrary, MaterialWithheld, default_library
+from .surfaces import HEAT_FLOWS
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -106,6 +108,8 @@ class Project:
     raw: dict = field(default_factory=dict)
     source_bytes: bytes = b""
     source_name: str = ""
+    #: Input that is probably a slip, as ``(key path, message)``: shown beside the results.
+    warnings: list = field(default_factory=list)
 
     @property
     def sha256(self) -> str:
@@ -190,8 +194,9 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
     info = {k: "" if info_in.get(k) is None else str(info_in.get(k)) for k in PROJECT_KEYS}
     design = table(data, "design", problems)
     unknown(design, DESIGN_KEYS, "design", problems)
-    t_i = number(design, "temp_inside", "design", problems, default=20.0)
-    t_e = number(design, "temp_outside", "design", problems, default=-5.0)
+    t_i = number(design, "temp_inside", "design", problems, default=20.0, limit="temperature")
+    t_e = number(design, "temp_outside", "design", problems, default=-5.0,
+                 limit="temperature")
     if t_i is not None and t_e is not None and not t_i > t_e:
         problems.append(("design.temp_outside", f"must be below temp_inside ({t_i:g} degC) for "
                          f"a heating case; got {t_e:g} degC"))
@@ -204,6 +209,7 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
             problems.append((where, "must be a table with name and conductivity"))
             continue
         unknown(row, MATERIAL_KEYS, where, problems)
+        mat_start = len(problems)
         try:
             mat = Material(
                 name=str(row.get("name", "")).strip(),
@@ -218,27 +224,33 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
             user_materials.append(mat)
         except HeatLedgerError as exc:
             problems.append((exc.where or where, _msg(exc)))
+        if len(problems) > mat_start:  # its references must not add "unknown material"
+            library.withhold(str(row.get("name", "")).strip())
 
     entries = []
     names_seen: set[str] = set()
+    broken: set[str] = set()
     for i, row in enumerate(table_list(data, "constructions", problems), 1):
         where = f"constructions[{i}]"
         entry = _construction(row, where, library, problems)
-        if entry is None:
+        if entry is None:  # keep the name known: its references are not "unknown"
+            broken.add(str(row.get("name", "")).strip() if isinstance(row, dict) else "")
             continue
         if entry.name.lower() in names_seen:
-            problems.append((f"{where}.name", f"construction name {entry.name!r} is used twice; "
-                             "names must be unique"))
+            problems.append((f"{where}.name", f"construction name {quote(entry.name)} is used "
+                             "twice; names must be unique"))
         names_seen.add(entry.name.lower())
         entries.append(entry)
     fins = _parse_fins(data, library, problems)
-    building = _parse_building(data, entries, library, t_i, t_e, problems)
+    building = _parse_building(data, entries, library, t_i, t_e, problems, broken)
     if problems:
         raise ProjectError(problems, source=source_name)
+    warnings = [(e.where, text) for e in entries for text in e.construction.input_warnings]
+    warnings += list(getattr(building, "warnings", []) or [])
     return Project(info=info, temp_inside=t_i, temp_outside=t_e, materials=library,
                    constructions=entries, user_materials=user_materials, fins=fins,
                    building=building, raw=data, source_bytes=source_bytes,
-                   source_name=source_name)
+                   source_name=source_name, warnings=warnings)
 
 
 # Hooks for the other method families: each parses its own section(s), appends every
@@ -256,7 +268,8 @@ def _parse_fins(data, library, problems) -> list:
     return fins_from_dict(data["fins"], library, problems)
 
 
-def _parse_building(data, entries, library, temp_inside, temp_outside, problems):
+def _parse_building(data, entries, library, temp_inside, temp_outside, problems,
+                    broken=()):
     if "rooms" not in data and "building" not in data:
         return None
     try:
@@ -264,7 +277,9 @@ def _parse_building(data, entries, library, temp_inside, temp_outside, problems)
     except ImportError:  # pragma: no cover - until the rooms section is wired
         problems.append(("rooms", "the rooms section is not supported by this version yet"))
         return None
-    constructions = {e.name: e.construction for e in entries}
+    # a construction with a problem of its own stands as None: known, but not usable
+    constructions = {name: None for name in broken if name}
+    constructions.update({e.name: e.construction for e in entries})
     return building_from_dict(data, constructions, library, temp_inside, temp_outside,
                               problems)
 
@@ -306,15 +321,19 @@ def _construction(row, where, library, problems) -> ConstructionEntry | None:
     if not name:
         problems.append((f"{where}.name", "every construction needs a name"))
     heat_flow = row.get("heat_flow", "horizontal")
-    area = number(row, "area", where, problems, positive=True)
+    if not isinstance(heat_flow, str) or heat_flow.strip().lower() not in HEAT_FLOWS:
+        problems.append((f"{where}.heat_flow", f"must be one of {choices_text(HEAT_FLOWS)} "
+                         f"(roofs up, walls horizontal, floors down); got {show(heat_flow)}"))
+    area = number(row, "area", where, problems, positive=True, limit="area")
     target = number(row, "target_u", where, problems, positive=True)
-    rsi = number(row, "rsi", where, problems, non_negative=True)
-    rse = number(row, "rse", where, problems, non_negative=True)
+    rsi = number(row, "rsi", where, problems, non_negative=True, limit="surface_resistance")
+    rse = number(row, "rse", where, problems, non_negative=True, limit="surface_resistance")
     nodes = row.get("nodes_per_layer")
     if nodes is not None and (isinstance(nodes, bool) or not isinstance(nodes, int)
-                              or nodes < 1):
-        problems.append((f"{where}.nodes_per_layer", f"must be a whole number >= 1; got "
-                         f"{nodes!r}"))
+                              or not 1 <= nodes <= MAX_PROJECT_CELLS_PER_LAYER):
+        problems.append((f"{where}.nodes_per_layer", f"must be a whole number from 1 to "
+                         f"{MAX_PROJECT_CELLS_PER_LAYER} (each cell is a row of the audit "
+                         f"sheet); got {show(nodes)}"))
         nodes = None
     layers_in = row.get("layers")
     if not isinstance(layers_in, list) or not layers_in:
@@ -349,8 +368,7 @@ def _construction(row, where, library, problems) -> ConstructionEntry | None:
                            apply_small_corrections=bool(row.get("apply_small_corrections",
                                                                 False)))
     except HeatLedgerError as exc:
-        key = ".heat_flow" if "heat_flow" in str(exc) else ""
-        problems.append((f"{where}{key}", _msg(exc)))
+        problems.append((where, _msg(exc)))
         return None
     return ConstructionEntry(name, con, area, target, nodes, list(layers_in), where,
                              str(row.get("notes", "")), size_layer)
@@ -360,15 +378,23 @@ def _layer(row, where, library, problems):
     if not isinstance(row, dict):
         problems.append((where, "must be a table with kind, thickness_mm and a material"))
         return None
-    kind = str(row.get("kind", "material")).strip().lower()
+    kind = row.get("kind", "material")
+    kind = kind.strip().lower() if isinstance(kind, str) else kind
     if kind not in LAYER_KINDS:
-        problems.append((f"{where}.kind", f"must be one of {', '.join(map(repr, LAYER_KINDS))}; "
-                         f"got {row.get('kind')!r}"))
+        problems.append((f"{where}.kind", f"must be one of {choices_text(LAYER_KINDS)}; "
+                         f"got {show(row.get('kind'))}"))
         return None
     start = len(problems)
     unknown(row, LAYER_KEYS[kind], where, problems)
-    d_mm = number(row, "thickness_mm", where, problems, positive=True, required=True)
+    d_mm = number(row, "thickness_mm", where, problems, positive=True, required=True,
+                  limit="thickness", unit="mm", scale=1e-3)
     name = str(row.get("name", "") or "")
+    if kind == "air" and d_mm is not None and d_mm > MAX_AIR_LAYER_THICKNESS * 1000.0:
+        label = f"air layer {quote(name)}" if name else "the air layer"
+        problems.append((f"{where}.thickness_mm", f"{label} is {d_mm:g} mm thick; the ISO 6946 "
+                         f"Annex D method covers air layers up to "
+                         f"{MAX_AIR_LAYER_THICKNESS * 1000.0:g} mm: treat a larger space as an "
+                         "unheated space or a room"))
     if len(problems) > start:
         return None
     d = d_mm / 1000.0
@@ -379,16 +405,11 @@ def _layer(row, where, library, problems):
             return None
         return Layer(d, lam, name=name or (mat.name if mat else ""), material=mat)
     if kind == "declared":
-        r = number(row, "resistance", where, problems, positive=True, required=True)
+        r = number(row, "resistance", where, problems, positive=True, required=True,
+                   limit="layer_resistance")
         return None if r is None else Layer(d, resistance=r, name=name)
     if kind == "air":
-        vent = row.get("vent_area_mm2")
-        return AirLayer(d, ventilation=str(row.get("ventilation", "unventilated")),
-                        emissivity_1=number(row, "emissivity_1", where, problems, default=0.9),
-                        emissivity_2=number(row, "emissivity_2", where, problems, default=0.9),
-                        vent_area=None if vent is None else finite(f"{where}.vent_area_mm2",
-                                                                   vent),
-                        name=name)
+        return _air_layer(row, d, name, where, problems)
     mat, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
                                          problems)
     bmat, blam = _material_or_conductivity(row, "bridging_material", "bridging_conductivity",
@@ -404,14 +425,34 @@ def _layer(row, where, library, problems):
     return BridgedLayer(d, [(lam, 1.0 - frac), (blam, frac)], name=label)
 
 
+def _air_layer(row, d, name, where, problems):
+    start = len(problems)
+    eps = [number(row, key, where, problems, default=0.9) for key in ("emissivity_1",
+                                                                       "emissivity_2")]
+    for key, e in zip(("emissivity_1", "emissivity_2"), eps, strict=True):
+        if e is not None and not 0.0 < e <= 1.0:
+            problems.append((f"{where}.{key}", f"must be above 0 and at most 1; got {e:g}"))
+    vent = number(row, "vent_area_mm2", where, problems, non_negative=True)
+    ventilation = row.get("ventilation", "unventilated")
+    if not isinstance(ventilation, str) or ventilation.strip().lower() not in \
+            VENTILATION_CLASSES:
+        problems.append((f"{where}.ventilation", f"must be one of "
+                         f"{choices_text(VENTILATION_CLASSES)}; got {show(ventilation)}"))
+    if len(problems) > start:
+        return None
+    return AirLayer(d, ventilation=ventilation, emissivity_1=eps[0], emissivity_2=eps[1],
+                    vent_area=vent, name=name)
+
+
 def _correction(row, where, layers_in, library, problems):
     if not isinstance(row, dict):
         problems.append((where, "must be a table with kind and layer"))
         return None
-    kind = str(row.get("kind", "")).strip().lower()
+    kind = row.get("kind", "")
+    kind = kind.strip().lower() if isinstance(kind, str) else kind
     if kind not in CORRECTION_KINDS:
         problems.append((f"{where}.kind", f"must be one of "
-                         f"{', '.join(map(repr, CORRECTION_KINDS))}; got {row.get('kind')!r}"))
+                         f"{choices_text(CORRECTION_KINDS)}; got {show(row.get('kind'))}"))
         return None
     unknown(row, CORRECTION_KEYS[kind], where, problems)
     idx = _layer_index(row.get("layer"), layers_in, f"{where}.layer", problems)
@@ -420,7 +461,7 @@ def _correction(row, where, layers_in, library, problems):
     if kind == "air_gaps":
         level = row.get("level")
         if level not in (0, 1, 2) or isinstance(level, bool):
-            problems.append((f"{where}.level", f"must be 0, 1 or 2; got {level!r}"))
+            problems.append((f"{where}.level", f"must be 0, 1 or 2; got {show(level)}"))
             return None
         return AirGapCorrection(idx, int(level))
     if kind == "fasteners":
@@ -455,7 +496,7 @@ def _layer_index(ref, layers_in, where, problems):
     if isinstance(ref, str) and ref.strip().lower() in names:
         return names.index(ref.strip().lower())
     problems.append((where, f"must name a layer of this construction (its name or number 1 to "
-                     f"{len(layers_in)}); got {ref!r}"))
+                     f"{len(layers_in)}); got {show(ref)}"))
     return None
 
 
@@ -466,11 +507,13 @@ def _material_or_conductivity(row, mat_key, lam_key, where, library, problems):
     if name not in (None, ""):
         try:
             mat = library.get(str(name))
+        except MaterialWithheld:  # its own entry's problem is reported there
+            return None, None
         except HeatLedgerError as exc:
             problems.append((f"{where}.{mat_key}", str(exc)))
             return None, None
     if lam is not None:
-        value = number(row, lam_key, where, problems, positive=True)
+        value = number(row, lam_key, where, problems, positive=True, limit="conductivity")
         return mat, value
     if mat is None:
         problems.append((f"{where}.{mat_key}", f"give {mat_key} (a library name) or {lam_key} "
@@ -484,7 +527,9 @@ def _req(row, key, where):
     if value is None:
         raise HeatLedgerError("is required", where=f"{where}.{key}")
     if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise HeatLedgerError(f"must be a number; got {value!r}", where=f"{where}.{key}")
+        kind = " (text)" if isinstance(value, str) else ""
+        raise HeatLedgerError(f"must be a number; got {show(value)}{kind}",
+                              where=f"{where}.{key}")
     return value
 
 

@@ -101,11 +101,11 @@ class AnnularFin(FinBase):
         _set(self, "tip", v.choice("tip", self.tip, ANNULAR_TIPS))
         if not isinstance(self.corrected_length, (bool, np.bool_)):
             raise HeatLedgerError(
-                f"corrected_length must be True or False; got {self.corrected_length!r}"
+                f"corrected_length must be true or false; got {v.show(self.corrected_length)}"
             )
         if self.corrected_length and self.tip != "convective":
             raise HeatLedgerError(
-                f"corrected_length applies to tip='convective'; got tip={self.tip!r}"
+                f'corrected_length applies to tip "convective"; got tip {v.show(self.tip)}'
             )
 
     tip_temperature = None  # no prescribed-temperature rim for annular fins

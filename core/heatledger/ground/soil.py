@@ -126,6 +126,8 @@ def _area_perimeter(area, perimeter, outline: str):
     p = _non_negative_array("exposed_perimeter", perimeter, "m")
     if np.any(a <= 0.0):
         raise HeatLedgerError("area must be greater than zero; got 0 m2")
+    if a.size:
+        _validate.within("area", float(a.max()), "area")
     if np.any(p <= 0.0):
         raise HeatLedgerError(
             "exposed_perimeter must be greater than zero; got 0 m (a floor with no exposed "
@@ -136,9 +138,8 @@ def _area_perimeter(area, perimeter, outline: str):
             _check_perimeter("exposed_perimeter", p, "area", a, outline)
         except HeatLedgerError as exc:
             raise HeatLedgerError(
-                f"{exc} (the whole outline was taken as exposed; pass "
-                "exposed_outline='partial' if party walls or unheated neighbours leave part "
-                "of it unexposed)"
+                f'{exc} (the whole outline was taken as exposed; give exposed_outline '
+                '"partial" if party walls or unheated neighbours leave part of it unexposed)'
             ) from None
     return a, p
 

@@ -47,6 +47,7 @@ import difflib
 from dataclasses import dataclass, field
 
 from .._projectio import number, table, table_list, unknown
+from .._validate import choices_text, quote, show
 from ..errors import HeatLedgerError
 from ..ground import (
     DEFAULT_SOIL_CONDUCTIVITY,
@@ -58,7 +59,7 @@ from ..ground import (
     slab_on_ground,
     suspended_floor,
 )
-from ..windows import declared_window, window
+from ..windows import PERIMETER_SHAPES, declared_window, window
 from .air import Ventilation
 from .elements import (
     ELEMENT_KINDS,
@@ -194,6 +195,8 @@ class BuildingInput:
         ``G_w``. [-]
     where : dict
         Key path of every room and element, by ``(room, element)`` name. [-]
+    warnings : list of (str, str)
+        Input that is probably a slip, as ``(key path, message)``. [-]
     """
 
     building: Building
@@ -205,6 +208,7 @@ class BuildingInput:
     f_g1: float = GROUND_FACTOR_FG1
     groundwater_factor: float = GROUNDWATER_FACTOR_DEEP
     where: dict = field(default_factory=dict)
+    warnings: list = field(default_factory=list)
 
     @property
     def rooms(self):
@@ -282,7 +286,7 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
     seen: set[str] = set()
     for i, name in enumerate(names, 1):
         if name and name in seen:
-            problems.append((f"rooms[{i}].name", f"room name {name!r} is used twice; room "
+            problems.append((f"rooms[{i}].name", f"room name {quote(name)} is used twice; room "
                              "names must be unique"))
         seen.add(name)
     ctx = _Context(constructions, settings, set(n for n in names if n), temp_outside)
@@ -297,18 +301,21 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
     bname = str(raw_b.get("name", "") or "").strip() or str(
         (data.get("project") or {}).get("name", "") or "building")
     try:
-        building = Building(bname, rooms, constructions=dict(constructions),
+        building = Building(bname, rooms, constructions={k: v for k, v in constructions.items()
+                                                         if v is not None},
                             design_external_temperature=temp_outside)
-        building.heat_load(temp_outside)
+        load = building.heat_load(temp_outside)
     except HeatLedgerError as exc:
         problems.append(("rooms", str(exc)))
         return None
+    warnings = [(where.get((r.room, None), "rooms"), text) for r in load.rooms
+                for text in r.warnings]
     return BuildingInput(building=building, external_temperature=float(temp_outside),
                          degree_days=settings["degree_days"],
                          base_temperature=settings["degree_day_base"],
                          annual_mean_external_temperature=settings["theta_me"],
                          groundwater=settings["groundwater"], f_g1=settings["f_g1"],
-                         groundwater_factor=settings["g_w"], where=where)
+                         groundwater_factor=settings["g_w"], where=where, warnings=warnings)
 
 
 # ----------------------------------------------------------------------------- helpers
@@ -325,18 +332,19 @@ class _Context:
 def _building_settings(raw, problems) -> dict:
     w = "building"
     dd = number(raw, "degree_days", w, problems, non_negative=True)
-    base = number(raw, "degree_day_base", w, problems)
+    base = number(raw, "degree_day_base", w, problems, limit="temperature")
     if dd is not None and base is None:
         problems.append(("building.degree_day_base", "state the base temperature of the "
                          "degree-days (degC) with degree_days; the energy depends on it"))
     if base is not None and dd is None:
         problems.append(("building.degree_days", "is required with degree_day_base"))
-    theta_me = number(raw, "annual_mean_external_temperature", w, problems)
+    theta_me = number(raw, "annual_mean_external_temperature", w, problems,
+                      limit="temperature")
     gw = str(raw.get("groundwater", "deep")).strip().lower()
     if gw not in GROUNDWATER:
-        problems.append(("building.groundwater", f"must be one of 'deep' (water table more "
-                         f"than 1 m below the floor, G_w 1.00) or 'shallow' (1 m or less, G_w "
-                         f"1.15); got {raw.get('groundwater')!r}"))
+        problems.append(("building.groundwater", f'must be one of "deep" (water table more '
+                         f'than 1 m below the floor, G_w 1.00) or "shallow" (1 m or less, G_w '
+                         f'1.15); got {show(raw.get("groundwater"))}'))
         gw = "deep"
     fg1 = number(raw, "f_g1", w, problems, positive=True, default=GROUND_FACTOR_FG1)
     soil = _soil(raw, w, problems, None)
@@ -358,10 +366,10 @@ def _soil(raw, where, problems, default):
             lam = ground_conductivity(str(raw["soil"]))
         except HeatLedgerError:
             problems.append((f"{where}.soil", f"must be one of "
-                             f"{', '.join(map(repr, SOIL_TYPES))} (EN ISO 13370 Table 7); got "
-                             f"{raw['soil']!r}"))
+                             f"{choices_text(SOIL_TYPES)} (EN ISO 13370 Table 7); got "
+                             f"{show(raw['soil'])}"))
             return default
-        return lam, f"soil {str(raw['soil']).strip().lower()!r}: lambda {lam:g} W/(m K) " \
+        return lam, f"soil {quote(str(raw['soil']).strip().lower())}: lambda {lam:g} W/(m K) " \
                     "(EN ISO 13370 Table 7)"
     if has_lam:
         lam = number(raw, "soil_conductivity", where, problems, positive=True)
@@ -379,13 +387,15 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
     if not name:
         problems.append((f"{where}.name", "every room needs a name"))
         name = where
-    label = f"room {name!r}"
-    ti = number(row, "temp_inside", where, problems, default=temp_inside)
+    label = f"room {quote(name)}"
+    ti = number(row, "temp_inside", where, problems, default=temp_inside, limit="temperature")
     if ti is not None and ctx.temp_outside is not None and not ti > ctx.temp_outside:
         problems.append((f"{where}.temp_inside", f"{label}: must be above the design external "
                          f"temperature {ctx.temp_outside:g} degC; got {ti:g} degC"))
-    volume = number(row, "volume", where, problems, positive=True, required=True)
-    floor_area = number(row, "floor_area", where, problems, non_negative=True, default=0.0)
+    volume = number(row, "volume", where, problems, positive=True, required=True,
+                    limit="volume")
+    floor_area = number(row, "floor_area", where, problems, non_negative=True, default=0.0,
+                        limit="area")
     reheat = number(row, "reheat_factor", where, problems, non_negative=True, default=0.0)
     vent = _ventilation(row.get("ventilation"), f"{where}.ventilation", label, problems)
     elements = []
@@ -407,7 +417,7 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
             where_map[(name, br.name)] = bw
     where_map[(name, None)] = where
     _label_new(problems, start, label)
-    if len(problems) > start:
+    if len(problems) > start or ti is None:  # no ti: the design temperature's problem
         return None
     try:
         return Room(name, ti, volume, elements, vent, thermal_bridges=bridges,
@@ -427,8 +437,8 @@ def _ventilation(raw, where, label, problems):
     unknown(raw, VENTILATION_KEYS, where, problems)
     basis = str(raw.get("basis", "")).strip().lower()
     if basis not in ("air_change", "flow"):
-        problems.append((f"{where}.basis", f"{label}: must be 'air_change' (1/h) or 'flow' "
-                         f"(m3/h); got {raw.get('basis')!r}"))
+        problems.append((f"{where}.basis", f'{label}: must be "air_change" (1/h) or "flow" '
+                         f'(m3/h); got {show(raw.get("basis"))}'))
         return None
     unit = dict(non_negative=True, default=0.0)
     vals = {k: number(raw, k, where, problems, **unit)
@@ -448,13 +458,13 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
     b = str(row.get("boundary", default) or default).strip().lower()
     if b not in BOUNDARIES:
         problems.append((f"{where}.boundary", f"{label}: must be one of "
-                         f"{', '.join(map(repr, BOUNDARIES))}; got {row.get('boundary')!r}"))
+                         f"{choices_text(BOUNDARIES)}; got {show(row.get('boundary'))}"))
         return None
     extra = {"outside": (), "ground": (), "unheated": ("temp_adjacent", "adjustment_factor"),
              "room": ("room",), "adjacent": ("temp_adjacent",)}[b]
     for key in ("temp_adjacent", "adjustment_factor", "room"):
         if key in row and key not in extra:
-            problems.append((f"{where}.{key}", f"{label}: not used with boundary {b!r}"))
+            problems.append((f"{where}.{key}", f"{label}: not used with boundary {quote(b)}"))
             return None
     if b == "outside":
         return Outside()
@@ -467,7 +477,7 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
             return None
         return Ground(s["theta_me"], f_g1=s["f_g1"], groundwater_factor=s["g_w"])
     if b == "unheated":
-        t = number(row, "temp_adjacent", where, problems)
+        t = number(row, "temp_adjacent", where, problems, limit="temperature")
         f = number(row, "adjustment_factor", where, problems)
         if (t is None) == (f is None):
             problems.append((f"{where}.boundary", f"{label}: an unheated space needs exactly "
@@ -479,18 +489,18 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
             return None
         return Unheated(temperature=t) if t is not None else Unheated(adjustment_factor=f)
     if b == "adjacent":
-        t = number(row, "temp_adjacent", where, problems, required=True)
+        t = number(row, "temp_adjacent", where, problems, required=True, limit="temperature")
         return None if t is None else AdjacentRoom(temperature=t)
     other = str(row.get("room", "") or "").strip()
     if not other:
-        problems.append((f"{where}.room", f"{label}: boundary 'room' needs the name of the "
+        problems.append((f"{where}.room", f'{label}: boundary "room" needs the name of the '
                          "neighbouring room"))
         return None
     if other == own_room:
         problems.append((f"{where}.room", f"{label}: an element cannot face its own room"))
         return None
     if other not in ctx.room_names:
-        problems.append((f"{where}.room", f"{label}: room {other!r} does not exist"
+        problems.append((f"{where}.room", f"{label}: room {quote(other)} does not exist"
                          f"{_closest(other, ctx.room_names)}"))
         return None
     return AdjacentRoom(room=other)
@@ -506,31 +516,31 @@ def _element(row, where, room_label, room_name, ctx, problems):
     if not name:
         problems.append((f"{where}.name", f"{room_label}: every element needs a name"))
         name = where
-    label = f"{room_label}, element {name!r}"
+    label = f"{room_label}, element {quote(name)}"
     method = str(row.get("method", "")).strip().lower()
     if method not in ELEMENT_METHODS:
         problems.append((f"{where}.method", f"{label}: must be one of "
-                         f"{', '.join(map(repr, ELEMENT_METHODS))} (how the U-value is found); "
-                         f"got {row.get('method')!r}"))
+                         f"{choices_text(ELEMENT_METHODS)} (how the U-value is found); "
+                         f"got {show(row.get('method'))}"))
         return None
     unknown(row, ELEMENT_METHODS[method], where, problems)
     kind = str(row.get("kind", "floor" if method in GROUND_METHODS else "wall")).strip().lower()
     if kind not in ELEMENT_KINDS:
         problems.append((f"{where}.kind", f"{label}: must be one of "
-                         f"{', '.join(map(repr, ELEMENT_KINDS))}; got {row.get('kind')!r}"))
+                         f"{choices_text(ELEMENT_KINDS)}; got {show(row.get('kind'))}"))
     default_b = "ground" if method in GROUND_METHODS else "outside"
     boundary = _boundary(row, where, label, room_name, ctx, problems, default=default_b)
     if isinstance(boundary, Ground) and method not in GROUND_METHODS:
         problems.append((f"{where}.boundary", f"{label}: a ground boundary needs an EN ISO "
-                         f"13370 U-value; use method {', '.join(map(repr, GROUND_METHODS))}"))
+                         f"13370 U-value; use method {choices_text(GROUND_METHODS)}"))
     if method in GROUND_METHODS and boundary is not None and not isinstance(
             boundary, (Ground, Outside)):
         problems.append((f"{where}.boundary", f"{label}: an EN ISO 13370 ground element faces "
-                         "'ground' (or 'outside'); got " + repr(row.get("boundary"))))
+                         '"ground" (or "outside"); got ' + show(row.get("boundary"))))
     dutb = number(row, "thermal_bridge_allowance", where, problems, non_negative=True,
                    default=0.0)
     area = number(row, "area", where, problems, positive=True,
-                   required=method != "window")
+                  required=method != "window", limit="area")
     u = None
     try:
         if method == "construction":
@@ -569,8 +579,10 @@ def _construction_name(row, key, where, label, ctx, problems, *, required):
                              "project"))
         return None
     ref = str(ref).strip()
+    if ref in ctx.constructions and ctx.constructions[ref] is None:
+        return None  # the construction's own problem is reported at its entry
     if ref not in ctx.constructions:
-        problems.append((f"{where}.{key}", f"{label}: construction {ref!r} does not exist "
+        problems.append((f"{where}.{key}", f"{label}: construction {quote(ref)} does not exist "
                          f"among the project's [[constructions]]"
                          f"{_closest(ref, ctx.constructions)}"))
         return None
@@ -579,14 +591,20 @@ def _construction_name(row, key, where, label, ctx, problems, *, required):
 
 def _window(row, where, label, area, problems):
     req = ("glazing_area", "frame_area", "glazing_u", "frame_u", "glazing_perimeter")
-    vals = {k: number(row, k, where, problems, non_negative=True, required=True) for k in req}
+    vals = {k: number(row, k, where, problems, non_negative=True, required=True,
+                      limit="area" if k.endswith("_area") else None) for k in req}
     vals["psi_glazing"] = number(row, "psi_glazing", where, problems, required=True)
     for k in ("panel_area", "panel_u", "panel_perimeter"):
-        vals[k] = number(row, k, where, problems, non_negative=True, default=0.0)
+        vals[k] = number(row, k, where, problems, non_negative=True, default=0.0,
+                         limit="area" if k == "panel_area" else None)
     vals["psi_panel"] = number(row, "psi_panel", where, problems, default=0.0)
     if None in vals.values():
         return None
-    shape = str(row.get("glazing_shape", "rectilinear"))
+    shape = row.get("glazing_shape", "rectilinear")
+    if shape not in PERIMETER_SHAPES:
+        problems.append((f"{where}.glazing_shape", f"{label}: must be one of "
+                         f"{choices_text(PERIMETER_SHAPES)}; got {show(shape)}"))
+        return None
     return window(vals["glazing_area"], vals["frame_area"], vals["glazing_u"], vals["frame_u"],
                   vals["glazing_perimeter"], vals["psi_glazing"], panel_area=vals["panel_area"],
                   panel_u=vals["panel_u"], panel_perimeter=vals["panel_perimeter"],
@@ -618,7 +636,8 @@ def _ground(method, row, where, label, area, ctx, problems):
                 "W/(m K), category 2 (EN ISO 13370 Table 7)")
     lam, soil_text = soil
     p = number(row, "exposed_perimeter", where, problems, positive=True, required=True)
-    w_mm = number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True)
+    w_mm = number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True,
+                  limit="thickness", unit="mm", scale=1e-3)
     outline = str(row.get("exposed_outline", "rectilinear"))
     if area is None or p is None or w_mm is None:
         return None
@@ -648,8 +667,8 @@ def _ground(method, row, where, label, area, ctx, problems):
             default=0.0)
         shield = row.get("wind_shielding")
         if shield in (None, ""):
-            problems.append((f"{where}.wind_shielding", f"{label}: is required: 'sheltered', "
-                             "'average' or 'exposed'"))
+            problems.append((f"{where}.wind_shielding", f'{label}: is required: "sheltered", '
+                             '"average" or "exposed"'))
             return None
         if rd is None or None in kw.values():
             return None
@@ -679,7 +698,8 @@ def _edge(raw, where, label, problems):
     unknown(raw, EDGE_KEYS, where, problems)
     ext = number(raw, "extent", where, problems, positive=True, required=True)
     rn = number(raw, "resistance", where, problems, non_negative=True, required=True)
-    dn = number(raw, "thickness_mm", where, problems, positive=True, required=True)
+    dn = number(raw, "thickness_mm", where, problems, positive=True, required=True,
+                limit="thickness", unit="mm", scale=1e-3)
     if None in (ext, rn, dn):
         return None
     try:
@@ -700,7 +720,7 @@ def _bridge(row, where, room_label, room_name, ctx, problems):
     if not name:
         problems.append((f"{where}.name", f"{room_label}: every thermal bridge needs a name"))
         name = where
-    label = f"{room_label}, thermal bridge {name!r}"
+    label = f"{room_label}, thermal bridge {quote(name)}"
     boundary = _boundary(row, where, label, room_name, ctx, problems)
     linear = "psi" in row or "length" in row
     try:
@@ -725,7 +745,7 @@ def _bridge_object(row, where, label, name, boundary, linear, start, problems):
     count = row.get("count", 1)
     if isinstance(count, bool) or not isinstance(count, int) or count < 1:
         problems.append((f"{where}.count", f"{label}: must be a whole number of at least 1; "
-                         f"got {count!r}"))
+                         f"got {show(count)}"))
     if len(problems) > start:
         return None
     return PointBridge(name, chi, count, boundary)
@@ -747,5 +767,5 @@ def _closest(name, choices) -> str:
     if not near:
         low = name.lower()
         near = [c for c in choices if low[:3] and c.lower().startswith(low[:3])][:3]
-    listed = ", ".join(map(repr, near or choices[:5]))
+    listed = ", ".join(map(quote, near or choices[:5]))
     return f"; closest names: {listed}" if near else f"; names are: {listed}"
