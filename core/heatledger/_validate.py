@@ -169,8 +169,8 @@ class Limit:
         Largest value accepted. [SI]
     unit : str
         SI unit of ``low`` and ``high``. [-]
-    why : str
-        The justification of the bounds: a source, or "common practice, no published
+    low_why, high_why : str
+        The justification of each bound: a source, or "common practice, no published
         source". [-]
     low_open : bool
         The low bound itself is refused too (absolute zero). [-]
@@ -179,7 +179,8 @@ class Limit:
     low: float | None
     high: float | None
     unit: str
-    why: str
+    low_why: str = ""
+    high_why: str = ""
     low_open: bool = False
 
     def broken(self, value: float) -> str | None:
@@ -195,47 +196,50 @@ class Limit:
         [-]"""
         unit = unit or self.unit
         bound = self.low if side == "low" else self.high
-        here = f"{bound / scale:g} {unit}"
+        why = self.low_why if side == "low" else self.high_why
         si = "" if unit == self.unit else f"{bound:g} {self.unit}; "
         if side == "low":
             word = "above" if self.low_open else "at least"
         else:
             word = "at most"
-        return f"{word} {here} ({si}{self.why})"
+        return f"{word} {bound / scale:g} {unit} ({si}{why})"
 
 
-#: The physical limits of inputs, in SI, each with its justification. Input beyond them is
-#: refused with a message naming the input, the value and this rule.
+_CP = "common practice, no published source"
+
+#: The physical limits of inputs, in SI, each bound with its justification. Input beyond
+#: them is refused with a message naming the input, the value and this rule.
 LIMITS = {
     "temperature": Limit(
         ABSOLUTE_ZERO, 5000.0, "degC",
-        "absolute zero is -273.15 degC by the definition of the Celsius scale; no solid "
-        "survives above 5000 degC, tungsten melts at 3422 degC, from memory", low_open=True),
+        low_why="absolute zero, by the definition of the Celsius scale",
+        high_why="no solid survives higher; tungsten melts at 3422 degC, from memory; " + _CP,
+        low_open=True),
     "thickness": Limit(
-        None, 10.0, "m", "no building layer is thicker than 10 m: common practice, no "
-        "published source"),
+        None, 10.0, "m", high_why="no building layer is thicker; " + _CP),
     "conductivity": Limit(
         1e-3, 5000.0, "W/(m K)",
-        "no material conducts less than 0.001 W/(m K), a vacuum insulation panel is about "
-        "0.004, or more than 5000 W/(m K), diamond is about 2000, both from memory; common "
-        "practice, no published source"),
+        low_why="no material conducts less; a vacuum insulation panel is about 0.004, from "
+                "memory; " + _CP,
+        high_why="no material conducts more; diamond is about 2000, from memory; " + _CP),
     "layer_resistance": Limit(
         1e-9, 1e4, "m2 K/W",
-        "below 1e-9 m2 K/W, thinner than 1 micrometre of copper, the temperature solve "
-        "loses its precision against the other layers (tested: at 1e-9 it still agrees "
-        "with 1/R_T to 1e-9); above 1e4 m2 K/W is more than 10 m of the best insulation: "
-        "common practice, no published source"),
+        low_why="thinner than 1 micrometre of copper; below it the temperature solve loses "
+                "its precision against the other layers (tested: at 1e-9 it still agrees "
+                "with 1/R_T to 1e-9); " + _CP,
+        high_why="more than 10 m of the best insulation; " + _CP),
     "surface_resistance": Limit(
         None, 10.0, "m2 K/W",
-        "EN ISO 6946 Annex C gives at most 1/0.7 = 1.4 m2 K/W (still air, heat flow down, "
-        "zero emissivity); 10 leaves room for an unheated space taken as a resistance: "
-        "common practice, no published source"),
+        high_why="EN ISO 6946 Annex C gives at most 1/0.7 = 1.4 (still air, heat flow down, "
+                 "zero emissivity); 10 leaves room for an unheated space taken as a "
+                 "resistance; " + _CP),
     "area": Limit(
-        None, 1e7, "m2", "10 km2 is more than the roof of the largest building, about "
-        "0.4 km2, from memory: common practice, no published source"),
+        None, 1e7, "m2",
+        high_why="10 km2, more than the roof of the largest building, about 0.4 km2, from "
+                 "memory; " + _CP),
     "volume": Limit(
-        None, 1e8, "m3", "more than the largest building by volume, about 1.3e7 m3, from "
-        "memory: common practice, no published source"),
+        None, 1e8, "m3",
+        high_why="more than the largest building, about 1.3e7 m3, from memory; " + _CP),
 }
 
 #: Most finite-volume cells per layer the engine accepts. [-]

@@ -129,7 +129,7 @@ class MaterialLibrary:
         hint = (
             "; closest known: " + ", ".join(quote(self._rows[c].name) for c in close)
             if close
-            else "; run 'heatledger materials' to list the library"
+            else '; run "heatledger materials" to list the library'
         )
         raise HeatLedgerError(f"unknown material {quote(name)}{hint}")
 

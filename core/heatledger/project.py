@@ -212,12 +212,12 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
         mat_start = len(problems)
         try:
             mat = Material(
-                name=str(row.get("name", "")).strip(),
+                name=str(row.get("name") or "").strip(),
                 conductivity=_req(row, "conductivity", where),
                 density=row.get("density"),
                 specific_heat=row.get("specific_heat"),
                 vapour_resistance_factor=row.get("vapour_resistance_factor"),
-                source=str(row.get("source", "")) or "user input",
+                source=str(row.get("source") or "") or "user input",
                 confidence="user",
             )
             library.add(mat, override=True)
@@ -225,7 +225,7 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
         except HeatLedgerError as exc:
             problems.append((exc.where or where, _msg(exc)))
         if len(problems) > mat_start:  # its references must not add "unknown material"
-            library.withhold(str(row.get("name", "")).strip())
+            library.withhold(str(row.get("name") or "").strip())
 
     entries = []
     names_seen: set[str] = set()
@@ -234,7 +234,7 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
         where = f"constructions[{i}]"
         entry = _construction(row, where, library, problems)
         if entry is None:  # keep the name known: its references are not "unknown"
-            broken.add(str(row.get("name", "")).strip() if isinstance(row, dict) else "")
+            broken.add(str(row.get("name") or "").strip() if isinstance(row, dict) else "")
             continue
         if entry.name.lower() in names_seen:
             problems.append((f"{where}.name", f"construction name {quote(entry.name)} is used "
@@ -317,7 +317,7 @@ def _construction(row, where, library, problems) -> ConstructionEntry | None:
         return None
     start = len(problems)
     unknown(row, CONSTRUCTION_KEYS, where, problems)
-    name = str(row.get("name", "")).strip()
+    name = str(row.get("name") or "").strip()
     if not name:
         problems.append((f"{where}.name", "every construction needs a name"))
     heat_flow = row.get("heat_flow", "horizontal")
@@ -371,7 +371,7 @@ def _construction(row, where, library, problems) -> ConstructionEntry | None:
         problems.append((where, _msg(exc)))
         return None
     return ConstructionEntry(name, con, area, target, nodes, list(layers_in), where,
-                             str(row.get("notes", "")), size_layer)
+                             str(row.get("notes") or ""), size_layer)
 
 
 def _layer(row, where, library, problems):

@@ -314,7 +314,7 @@ def _entry(row, where, library, problems):
     array_values = None if array_in is None else _array_inputs(array_in, f"{where}.array",
                                                                   problems)
     fv = _fv(row, where, problems)
-    if len(problems) > start:
+    if len(problems) > start or k is None:  # no k: its material's problem is reported
         return None
     try:
         if kind == "straight":

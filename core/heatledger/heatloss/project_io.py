@@ -281,7 +281,7 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
     settings = _building_settings(raw_b, problems)
     names = []
     for row in raw_rooms:
-        name = str(row.get("name", "")).strip() if isinstance(row, dict) else ""
+        name = str(row.get("name") or "").strip() if isinstance(row, dict) else ""
         names.append(name)
     seen: set[str] = set()
     for i, name in enumerate(names, 1):
@@ -296,8 +296,8 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
         room = _room(row, f"rooms[{i}]", ctx, temp_inside, problems, where)
         if room is not None:
             rooms.append(room)
-    if len(problems) > start or temp_outside is None:
-        return None
+    if len(problems) > start or temp_outside is None or len(rooms) < len(raw_rooms):
+        return None  # a room left out without a problem of its own: see design.temp_inside
     bname = str(raw_b.get("name", "") or "").strip() or str(
         (data.get("project") or {}).get("name", "") or "building")
     try:
@@ -383,7 +383,7 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
         return None
     start = len(problems)
     unknown(row, ROOM_KEYS, where, problems)
-    name = str(row.get("name", "")).strip()
+    name = str(row.get("name") or "").strip()
     if not name:
         problems.append((f"{where}.name", "every room needs a name"))
         name = where
@@ -512,7 +512,7 @@ def _element(row, where, room_label, room_name, ctx, problems):
                          "method, area and boundary"))
         return None
     start = len(problems)
-    name = str(row.get("name", "")).strip()
+    name = str(row.get("name") or "").strip()
     if not name:
         problems.append((f"{where}.name", f"{room_label}: every element needs a name"))
         name = where
@@ -638,7 +638,7 @@ def _ground(method, row, where, label, area, ctx, problems):
     p = number(row, "exposed_perimeter", where, problems, positive=True, required=True)
     w_mm = number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True,
                   limit="thickness", unit="mm", scale=1e-3)
-    outline = str(row.get("exposed_outline", "rectilinear"))
+    outline = row.get("exposed_outline", "rectilinear")
     if area is None or p is None or w_mm is None:
         return None
     w = w_mm / 1000.0
@@ -703,7 +703,7 @@ def _edge(raw, where, label, problems):
     if None in (ext, rn, dn):
         return None
     try:
-        return EdgeInsulation(str(raw.get("orientation", "")), ext, rn, dn / 1000.0)
+        return EdgeInsulation(raw.get("orientation", ""), ext, rn, dn / 1000.0)
     except HeatLedgerError as exc:
         problems.append((f"{where}.orientation", f"{label}: {exc}"))
         return None
@@ -716,7 +716,7 @@ def _bridge(row, where, room_label, room_name, ctx, problems):
         return None
     start = len(problems)
     unknown(row, BRIDGE_KEYS, where, problems)
-    name = str(row.get("name", "")).strip()
+    name = str(row.get("name") or "").strip()
     if not name:
         problems.append((f"{where}.name", f"{room_label}: every thermal bridge needs a name"))
         name = where
