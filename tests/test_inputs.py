@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import copy
 import datetime as dt
+import math
 import re
 import tracemalloc
 
@@ -107,7 +108,8 @@ def test_layer_resistance_at_the_bound_keeps_the_solve_exact():
     (lambda: Layer(1e305, 1.0), "thickness must be at most 10 m"),
     (lambda: Layer(0.1, 1e-300), "conductivity must be at least 0.001"),
     (lambda: Layer(0.1, resistance=1e-300), "resistance must be at least 1e-09"),
-    (lambda: Layer(1e-12, 1.0), "resistance thickness/conductivity must be at least"),
+    (lambda: Layer(1e-6, 5000.0), "resistance thickness/conductivity must be at least"),
+    (lambda: Layer(1e-12, 1.0), "thickness must be at least 1e-06 m"),
     (lambda: BridgedLayer(1e308, [(0.04, 0.9), (0.13, 0.1)]), "at most 10 m"),
     (lambda: Construction([Layer(0.1, 1.0)], rsi=1e300), "rsi must be at most 10 m2 K/W"),
     (lambda: Construction([Layer(0.1, 1.0)]).temperatures(-300, -5), "inside must be above"),
@@ -212,6 +214,10 @@ def test_template_cells_get_the_same_limits(tmp_path):
         tpl.project_from_template(path)
     ((where, msg),) = err.value.problems
     assert where.startswith("Layers!") and "at most 10000 mm" in msg
+    data["constructions"][0]["layers"][2]["thickness_mm"] = 0.06  # metres in a mm cell
+    path = write_workbook(tpl.template_plan(data), tmp_path / "thin.xlsx", force=True)
+    ((where, text),) = tpl.project_from_template(path).warnings
+    assert where.startswith("Constructions!") and "0.06 mm is below 1 mm" in text
 
 
 # ----------------------------------------------------------------------------- flagged
@@ -455,3 +461,59 @@ def test_no_message_shows_python_syntax():
 def test_names_and_choices_are_quoted_as_in_the_project_file():
     ((_, msg),) = problems_of(wall(kind="foam"))
     assert msg == ('must be one of "material", "declared", "air" or "bridged"; got "foam"')
+
+
+# ----------------------------------------------------------------------------- every key
+def _leaves(obj, path=()):
+    if isinstance(obj, dict):
+        for k, v in obj.items():
+            yield from _leaves(v, path + (k,))
+    elif isinstance(obj, list):
+        for i, v in enumerate(obj):
+            yield from _leaves(v, path + (i,))
+    else:
+        yield path, obj
+
+
+def _with(data, path, value):
+    out = copy.deepcopy(data)
+    node = out
+    for k in path[:-1]:
+        node = node[k]
+    node[path[-1]] = value
+    return out
+
+
+def _finite(obj) -> bool:
+    if isinstance(obj, float):
+        return math.isfinite(obj)
+    if isinstance(obj, dict):
+        return all(_finite(v) for v in obj.values())
+    if isinstance(obj, list):
+        return all(_finite(v) for v in obj)
+    return True
+
+
+@pytest.mark.parametrize("value", [1e308, -1e308, 1e-308])
+def test_every_number_of_the_demo_at_an_extreme_is_refused_or_gives_finite_results(value):
+    base = demo_project().raw
+    for path, old in _leaves(base):
+        if isinstance(old, bool) or not isinstance(old, (int, float)):
+            continue
+        try:
+            results = project_results(project_from_dict(_with(base, path, value)))
+        except ProjectError:
+            continue
+        assert _finite(results), path
+
+
+@pytest.mark.parametrize("value", [None, "x", True, [1, "a"], {"a": 1}, dt.date(2024, 1, 1)])
+def test_every_key_of_the_demo_with_a_wrong_type_gives_plain_messages(value):
+    base = demo_project().raw
+    for path, _ in _leaves(base):
+        try:
+            project_from_dict(_with(base, path, value))
+        except ProjectError as exc:
+            for where, msg in exc.problems:
+                bad = [p.pattern for p in PYTHON_SYNTAX if p.search(msg)]
+                assert not bad, (path, where, msg)

@@ -11,7 +11,7 @@ import math
 
 from ._validate import ABSOLUTE_ZERO, LIMITS, limit_rule, show
 
-__all__ = ["number", "table", "table_list", "unknown", "ABSOLUTE_ZERO"]
+__all__ = ["number", "text", "table", "table_list", "unknown", "ABSOLUTE_ZERO"]
 
 
 def number(row, key, where, problems, *, default=None, required=False, positive=False,
@@ -79,6 +79,40 @@ def number(row, key, where, problems, *, default=None, required=False, positive=
                              f"{unit or LIMITS[limit].unit}"))
             return None
     return value
+
+
+def text(row, key, where, problems, *, default=""):
+    """Read one optional text (a name, or a reference to a name) from a table.
+
+    Parameters
+    ----------
+    row : dict
+        The table; anything else reads as if the key were missing. [-]
+    key : str
+        The key to read. [-]
+    where : str
+        Key path of the table; empty for the top level. [-]
+    problems : list
+        A problem is appended as ``(key path, message)``. [-]
+    default : str
+        Returned when the key is missing. [-]
+
+    Returns
+    -------
+    str or None
+        The text, stripped (a whole number reads as its digits), ``default`` when missing,
+        None when it is not text.
+    """
+    value = row.get(key) if isinstance(row, dict) else None
+    if value is None:
+        return default
+    if isinstance(value, str):
+        return value.strip()
+    if isinstance(value, int) and not isinstance(value, bool):
+        return str(value)
+    path = f"{where}.{key}" if where else key
+    problems.append((path, f"must be text (a name); got {show(value)}"))
+    return None
 
 
 def table(data, key, problems) -> dict:

@@ -28,6 +28,7 @@ from .errors import HeatLedgerError
 
 __all__ = ["finite", "positive", "non_negative", "fraction", "choice", "array_positive",
            "show", "quote", "choices_text", "Limit", "LIMITS", "within", "limit_rule",
+           "positive_within",
            "ABSOLUTE_ZERO", "MAX_CELLS_PER_LAYER", "MAX_CELLS", "MAX_PROJECT_CELLS_PER_LAYER",
            "THIN_LAYER", "OPENING_U_HIGH", "ROOM_HEIGHT_RANGE", "CONDUCTIVITY_CLASSES",
            "conductivity_class", "thin_layer_warning", "conductivity_warning",
@@ -216,7 +217,10 @@ LIMITS = {
         high_why="no solid survives higher; tungsten melts at 3422 degC, from memory; " + _CP,
         low_open=True),
     "thickness": Limit(
-        None, 10.0, "m", high_why="no building layer is thicker; " + _CP),
+        1e-6, 10.0, "m",
+        low_why="thinner than any layer a construction lists, a foil is about 6 micrometres "
+                "(from memory); " + _CP,
+        high_why="no building layer is thicker; " + _CP),
     "conductivity": Limit(
         1e-3, 5000.0, "W/(m K)",
         low_why="no material conducts less; a vacuum insulation panel is about 0.004, from "
@@ -240,6 +244,54 @@ LIMITS = {
     "volume": Limit(
         None, 1e8, "m3",
         high_why="more than the largest building, about 1.3e7 m3, from memory; " + _CP),
+    "wall_thickness": Limit(
+        None, 10.0, "m", high_why="no building wall is thicker; " + _CP),
+    "perimeter": Limit(
+        1e-3, 1e5, "m", low_why="shorter than 1 mm is no building's perimeter; " + _CP,
+        high_why="100 km, more than any building's perimeter; " + _CP),
+    "length": Limit(
+        None, 1e5, "m", high_why="100 km, more than any building's perimeter or junction; "
+        + _CP),
+    "u_value": Limit(
+        None, 100.0, "W/(m2 K)",
+        high_why="1/Rsi alone is at most about 11 W/(m2 K), EN ISO 6946 Annex C with heat "
+                 "flowing up and emissivity 1; 100 leaves a wide margin; " + _CP),
+    "psi": Limit(
+        -10.0, 10.0, "W/(m K)",
+        low_why="building junctions lie within about 1.5 W/(m K) either way; " + _CP,
+        high_why="building junctions lie within about 1.5 W/(m K) either way; " + _CP),
+    "chi": Limit(
+        -100.0, 100.0, "W/K",
+        low_why="a point bridge through a building element is far below 10 W/K; " + _CP,
+        high_why="a point bridge through a building element is far below 10 W/K; " + _CP),
+    "h": Limit(
+        1e-3, 1e6, "W/(m2 K)",
+        low_why="far below free convection in still air, about 2 to 5 W/(m2 K); " + _CP,
+        high_why="condensing steam reaches about 1e5 W/(m2 K), from memory; " + _CP),
+    "air_change": Limit(
+        None, 1000.0, "1/h",
+        high_why="clean rooms reach about 600 air changes per hour, from memory; " + _CP),
+    "air_flow": Limit(
+        None, 1e7, "m3/h", high_why="more than any room's ventilation; " + _CP),
+    "degree_days": Limit(
+        None, 36500.0, "K day", high_why="a whole year 100 K below the base temperature; "
+        + _CP),
+    "area_load": Limit(
+        None, 1000.0, "W/m2", high_why="reheat allowances are tabulated up to a few tens "
+        "of W/m2 (EN 12831-1, from memory); " + _CP),
+    "precipitation": Limit(
+        None, 2000.0, "mm/day", high_why="the wettest day on record brought about 1.8 m of "
+        "rain, from memory; " + _CP),
+    "factor_x": Limit(
+        None, 1.0, "W day/(m2 K mm)", high_why="25 times the 0.04 of EN ISO 6946 Annex F.4, "
+        "recalled; " + _CP),
+    "resistance": Limit(
+        None, 1e4, "m2 K/W", high_why="more than 10 m of the best insulation; " + _CP),
+    "wind_speed": Limit(
+        None, 120.0, "m/s", high_why="above the strongest gust on record, about 113 m/s, "
+        "from memory; " + _CP),
+    "count_per_m2": Limit(
+        None, 1e4, "1/m2", high_why="one fastener per square centimetre; " + _CP),
 }
 
 #: Most finite-volume cells per layer the engine accepts. [-]
@@ -276,6 +328,12 @@ def limit_rule(kind: str, value: float, *, scale: float = 1.0, unit: str | None 
     lim = LIMITS[kind]
     side = lim.broken(value * scale)
     return None if side is None else lim.rule(side, scale, unit)
+
+
+def positive_within(name: str, value, kind: str, unit: str = "") -> float:
+    """Return ``value`` [SI] as a float greater than zero and within :data:`LIMITS`
+    ``[kind]`` (the message says "greater than zero" for zero or less). [SI]"""
+    return within(name, positive(name, value, unit), kind)
 
 
 def within(name: str, value, kind: str, *, scale: float = 1.0, unit: str | None = None):

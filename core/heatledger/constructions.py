@@ -302,6 +302,8 @@ class BridgedLayer:
             raise HeatLedgerError(
                 f"{label}: area fractions must sum to 1; they sum to {total:.6g}")
         self.parts = tuple(cleaned)
+        within(f"{label} lower-limit resistance thickness/(sum of fraction x conductivity)",
+               self.lower_limit_resistance, "layer_resistance")
 
     @property
     def lower_limit_resistance(self) -> float:

@@ -14,7 +14,7 @@ import sys
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from ._projectio import number, table, table_list, unknown
+from ._projectio import number, table, table_list, text, unknown
 from ._validate import MAX_PROJECT_CELLS_PER_LAYER, choices_text, quote, show
 from .airlayers import MAX_AIR_LAYER_THICKNESS, VENTILATION_CLASSES
 from .constructions import (
@@ -210,9 +210,12 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
             continue
         unknown(row, MATERIAL_KEYS, where, problems)
         mat_start = len(problems)
+        mat_name = text(row, "name", where, problems)
         try:
+            if mat_name is None:
+                raise HeatLedgerError("material name must be text")
             mat = Material(
-                name=str(row.get("name") or "").strip(),
+                name=mat_name,
                 conductivity=_req(row, "conductivity", where),
                 density=row.get("density"),
                 specific_heat=row.get("specific_heat"),
@@ -223,9 +226,10 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
             library.add(mat, override=True)
             user_materials.append(mat)
         except HeatLedgerError as exc:
-            problems.append((exc.where or where, _msg(exc)))
-        if len(problems) > mat_start:  # its references must not add "unknown material"
-            library.withhold(str(row.get("name") or "").strip())
+            if mat_name is not None:
+                problems.append((exc.where or where, _msg(exc)))
+        if len(problems) > mat_start and mat_name:  # references must not add "unknown"
+            library.withhold(mat_name)
 
     entries = []
     names_seen: set[str] = set()
@@ -234,7 +238,7 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
         where = f"constructions[{i}]"
         entry = _construction(row, where, library, problems)
         if entry is None:  # keep the name known: its references are not "unknown"
-            broken.add(str(row.get("name") or "").strip() if isinstance(row, dict) else "")
+            broken.add(text(row, "name", where, []) or "")
             continue
         if entry.name.lower() in names_seen:
             problems.append((f"{where}.name", f"construction name {quote(entry.name)} is used "
@@ -317,15 +321,15 @@ def _construction(row, where, library, problems) -> ConstructionEntry | None:
         return None
     start = len(problems)
     unknown(row, CONSTRUCTION_KEYS, where, problems)
-    name = str(row.get("name") or "").strip()
-    if not name:
+    name = text(row, "name", where, problems)
+    if name == "":
         problems.append((f"{where}.name", "every construction needs a name"))
     heat_flow = row.get("heat_flow", "horizontal")
     if not isinstance(heat_flow, str) or heat_flow.strip().lower() not in HEAT_FLOWS:
         problems.append((f"{where}.heat_flow", f"must be one of {choices_text(HEAT_FLOWS)} "
                          f"(roofs up, walls horizontal, floors down); got {show(heat_flow)}"))
     area = number(row, "area", where, problems, positive=True, limit="area")
-    target = number(row, "target_u", where, problems, positive=True)
+    target = number(row, "target_u", where, problems, positive=True, limit="u_value")
     rsi = number(row, "rsi", where, problems, non_negative=True, limit="surface_resistance")
     rse = number(row, "rse", where, problems, non_negative=True, limit="surface_resistance")
     nodes = row.get("nodes_per_layer")
@@ -388,7 +392,7 @@ def _layer(row, where, library, problems):
     unknown(row, LAYER_KEYS[kind], where, problems)
     d_mm = number(row, "thickness_mm", where, problems, positive=True, required=True,
                   limit="thickness", unit="mm", scale=1e-3)
-    name = str(row.get("name", "") or "")
+    name = text(row, "name", where, problems) or ""
     if kind == "air" and d_mm is not None and d_mm > MAX_AIR_LAYER_THICKNESS * 1000.0:
         label = f"air layer {quote(name)}" if name else "the air layer"
         problems.append((f"{where}.thickness_mm", f"{label} is {d_mm:g} mm thick; the ISO 6946 "
@@ -467,9 +471,12 @@ def _correction(row, where, layers_in, library, problems):
     if kind == "fasteners":
         _, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
                                            problems)
-        area = number(row, "cross_section_mm2", where, problems, positive=True, required=True)
-        n = number(row, "count_per_m2", where, problems, non_negative=True, required=True)
-        pen = number(row, "penetration_mm", where, problems, positive=True)
+        area = number(row, "cross_section_mm2", where, problems, positive=True, required=True,
+                      limit="area", unit="mm2", scale=1e-6)
+        n = number(row, "count_per_m2", where, problems, non_negative=True, required=True,
+                   limit="count_per_m2")
+        pen = number(row, "penetration_mm", where, problems, positive=True,
+                     limit="thickness", unit="mm", scale=1e-3)
         if lam is None or area is None or n is None:
             return None
         return FastenerCorrection(idx, lam, area * 1e-6, n,
@@ -477,10 +484,15 @@ def _correction(row, where, layers_in, library, problems):
                                   edition=str(row.get("edition", "2017")),
                                   application=str(row.get("application", "wall")))
     p = number(row, "precipitation_mm_per_day", where, problems, non_negative=True,
-                required=True)
+               required=True, limit="precipitation")
     f = number(row, "drainage_factor", where, problems, non_negative=True, required=True)
-    x = number(row, "factor_x", where, problems, non_negative=True, default=0.04)
-    if p is None or f is None:
+    x = number(row, "factor_x", where, problems, non_negative=True, default=0.04,
+               limit="factor_x")
+    if f is not None and f > 1.0:
+        problems.append((f"{where}.drainage_factor", f"must be between 0 and 1 (the share of "
+                         f"the rain that reaches the membrane); got {f:g}"))
+        return None
+    if p is None or f is None or x is None:
         return None
     return InvertedRoofCorrection(idx, p, f, x)
 
@@ -501,10 +513,12 @@ def _layer_index(ref, layers_in, where, problems):
 
 
 def _material_or_conductivity(row, mat_key, lam_key, where, library, problems):
-    name = row.get(mat_key)
+    name = text(row, mat_key, where, problems)
     lam = row.get(lam_key)
     mat = None
-    if name not in (None, ""):
+    if name is None:
+        return None, None
+    if name:
         try:
             mat = library.get(str(name))
         except MaterialWithheld:  # its own entry's problem is reported there

@@ -296,7 +296,7 @@ def _entry(row, where, library, problems):
         return None
     unknown(row, FIN_KEYS[kind], where, problems)
     material, k = _conductivity(row, where, library, problems)
-    h = number(row, "h", where, problems, required=True, positive=True)
+    h = number(row, "h", where, problems, required=True, positive=True, limit="h")
     t_b = number(row, "base_temperature", where, problems, required=True, above_absolute_zero=True)
     t_inf = number(row, "ambient", where, problems, required=True, above_absolute_zero=True)
     corrected = row.get("corrected_length", False)
@@ -390,8 +390,10 @@ def _array_inputs(data, where, problems):
     count = data.get("count")
     if isinstance(count, bool) or not isinstance(count, int) or count < 0:
         problems.append((f"{where}.count", f"must be a whole number >= 0; got {show(count)}"))
-    area = number(data, "base_area", where, problems, required=True, positive=True)
-    rc = number(data, "contact_resistance", where, problems, non_negative=True, default=0.0)
+    area = number(data, "base_area", where, problems, required=True, positive=True,
+                  limit="area")
+    rc = number(data, "contact_resistance", where, problems, non_negative=True, default=0.0,
+                limit="resistance")
     target = number(data, "target_heat_rate", where, problems)
     if target is not None and target == 0.0:
         problems.append((f"{where}.target_heat_rate", "must not be zero (leave it out for no "
@@ -423,7 +425,7 @@ def _fv(row, where, problems) -> FinFVSettings:
         problems.append((f"{sub}.emissivity", f"must be between 0 and 1; got {eps:g}"))
         eps = 0.0
     t_sur = number(data, "temp_surroundings", sub, problems, above_absolute_zero=True)
-    c = number(data, "h_coefficient", sub, problems, positive=True)
+    c = number(data, "h_coefficient", sub, problems, positive=True, limit="h")
     n = number(data, "h_exponent", sub, problems, non_negative=True)
     law = None
     if (data.get("h_coefficient") is None) != (data.get("h_exponent") is None):
@@ -441,6 +443,10 @@ def _fv(row, where, problems) -> FinFVSettings:
 def _conductivity(row, where, library, problems):
     name = row.get("material")
     lam = row.get("conductivity")
+    if name not in (None, "") and not isinstance(name, str):
+        problems.append((f"{where}.material", f"must be text (a library name); got "
+                         f"{show(name)}"))
+        return None, None
     if name not in (None, "") and lam is not None:
         problems.append((f"{where}.conductivity", "give material (a library name) or "
                          "conductivity (W/(m K)), not both"))

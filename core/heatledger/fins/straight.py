@@ -130,8 +130,9 @@ class StraightFin(FinBase):
     def __post_init__(self) -> None:
         _set = object.__setattr__
         _set(self, "length", v.positive("length", self.length, "m"))
-        _set(self, "conductivity", v.positive("conductivity", self.conductivity, "W/(m K)"))
-        _set(self, "h", v.positive("h", self.h, "W/(m2 K)"))
+        _set(self, "conductivity", v.positive_within("conductivity", self.conductivity,
+                                                     "conductivity", "W/(m K)"))
+        _set(self, "h", v.positive_within("h", self.h, "h", "W/(m2 K)"))
         if (self.thickness is None) == (self.diameter is None):
             got = "both" if self.thickness is not None else "neither"
             raise HeatLedgerError(
@@ -139,10 +140,12 @@ class StraightFin(FinBase):
                 f"got {got}"
             )
         if self.thickness is not None:
-            _set(self, "thickness", v.positive("thickness", self.thickness, "m"))
-            _set(self, "width", v.positive("width", self.width, "m"))
+            _set(self, "thickness", v.positive_within("thickness", self.thickness, "thickness",
+                                                      "m"))
+            _set(self, "width", v.positive_within("width", self.width, "thickness", "m"))
         else:
-            _set(self, "diameter", v.positive("diameter", self.diameter, "m"))
+            _set(self, "diameter", v.positive_within("diameter", self.diameter, "thickness",
+                                                     "m"))
             if float(self.width) != 1.0:
                 raise HeatLedgerError(
                     f"width applies to plate fins only; got width {v.show(self.width)} with a "

@@ -276,7 +276,7 @@ def slab_on_ground(
     a, p = _area_perimeter(area, exposed_perimeter, outline)
     w = _non_negative_array("wall_thickness", wall_thickness, "m")
     if w.size:
-        _validate.within("wall_thickness", float(w.max()), "thickness")
+        _validate.within("wall_thickness", float(w.max()), "wall_thickness")
     rf = _non_negative_array("floor_resistance", floor_resistance, "m2 K/W")
     lam = _validate.positive("soil_conductivity", soil_conductivity, "W/(m K)")
 

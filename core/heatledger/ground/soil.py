@@ -133,6 +133,9 @@ def _area_perimeter(area, perimeter, outline: str):
             "exposed_perimeter must be greater than zero; got 0 m (a floor with no exposed "
             "edge is not a ground-floor heat loss of this method)"
         )
+    if p.size:
+        _validate.within("exposed_perimeter", float(p.min()), "perimeter")
+        _validate.within("exposed_perimeter", float(p.max()), "perimeter")
     if outline != "partial":
         try:
             _check_perimeter("exposed_perimeter", p, "area", a, outline)

@@ -46,7 +46,7 @@ from __future__ import annotations
 import difflib
 from dataclasses import dataclass, field
 
-from .._projectio import number, table, table_list, unknown
+from .._projectio import number, table, table_list, text, unknown
 from .._validate import choices_text, quote, show
 from ..errors import HeatLedgerError
 from ..ground import (
@@ -120,6 +120,12 @@ ELEMENT_METHODS = {
                                           "exposed_perimeter", "wall_thickness_mm", "depth"),
 }
 GROUND_METHODS = ("slab_on_ground", "suspended_floor", "heated_basement")
+#: The physical limit (heatledger._validate.LIMITS) of each window and floor input.
+_WINDOW_LIMITS = {"glazing_area": "area", "frame_area": "area", "panel_area": "area",
+                  "glazing_u": "u_value", "frame_u": "u_value", "panel_u": "u_value",
+                  "glazing_perimeter": "length", "panel_perimeter": "length"}
+_FLOOR_LIMITS = {"underfloor_height": "length", "underfloor_wall_u": "u_value",
+                 "vent_area_per_perimeter": "length", "wind_speed": "wind_speed"}
 EDGE_KEYS = ("orientation", "extent", "resistance", "thickness_mm")
 BRIDGE_KEYS = ("name", "psi", "length", "chi", "count", "notes") + _BOUNDARY_KEYS
 
@@ -281,7 +287,7 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
     settings = _building_settings(raw_b, problems)
     names = []
     for row in raw_rooms:
-        name = str(row.get("name") or "").strip() if isinstance(row, dict) else ""
+        name = text(row, "name", "", []) or ""
         names.append(name)
     seen: set[str] = set()
     for i, name in enumerate(names, 1):
@@ -331,7 +337,7 @@ class _Context:
 
 def _building_settings(raw, problems) -> dict:
     w = "building"
-    dd = number(raw, "degree_days", w, problems, non_negative=True)
+    dd = number(raw, "degree_days", w, problems, non_negative=True, limit="degree_days")
     base = number(raw, "degree_day_base", w, problems, limit="temperature")
     if dd is not None and base is None:
         problems.append(("building.degree_day_base", "state the base temperature of the "
@@ -372,7 +378,8 @@ def _soil(raw, where, problems, default):
         return lam, f"soil {quote(str(raw['soil']).strip().lower())}: lambda {lam:g} W/(m K) " \
                     "(EN ISO 13370 Table 7)"
     if has_lam:
-        lam = number(raw, "soil_conductivity", where, problems, positive=True)
+        lam = number(raw, "soil_conductivity", where, problems, positive=True,
+                     limit="conductivity")
         return default if lam is None else (lam, f"soil conductivity {lam:g} W/(m K) (input)")
     return default
 
@@ -383,9 +390,10 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
         return None
     start = len(problems)
     unknown(row, ROOM_KEYS, where, problems)
-    name = str(row.get("name") or "").strip()
-    if not name:
+    name = text(row, "name", where, problems)
+    if name == "":
         problems.append((f"{where}.name", "every room needs a name"))
+    if not name:
         name = where
     label = f"room {quote(name)}"
     ti = number(row, "temp_inside", where, problems, default=temp_inside, limit="temperature")
@@ -396,7 +404,8 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
                     limit="volume")
     floor_area = number(row, "floor_area", where, problems, non_negative=True, default=0.0,
                         limit="area")
-    reheat = number(row, "reheat_factor", where, problems, non_negative=True, default=0.0)
+    reheat = number(row, "reheat_factor", where, problems, non_negative=True, default=0.0,
+                    limit="area_load")
     vent = _ventilation(row.get("ventilation"), f"{where}.ventilation", label, problems)
     elements = []
     raw_el = table_list(row, "elements", problems, where=where, section="rooms.elements")
@@ -440,8 +449,9 @@ def _ventilation(raw, where, label, problems):
         problems.append((f"{where}.basis", f'{label}: must be "air_change" (1/h) or "flow" '
                          f'(m3/h); got {show(raw.get("basis"))}'))
         return None
-    unit = dict(non_negative=True, default=0.0)
-    vals = {k: number(raw, k, where, problems, **unit)
+    rate = "air_change" if basis == "air_change" else "air_flow"
+    vals = {k: number(raw, k, where, problems, non_negative=True, default=0.0,
+                      limit="air_change" if k == "minimum_air_change" else rate)
             for k in ("ventilation", "infiltration", "minimum_air_change")}
     eta = number(raw, "heat_recovery", where, problems, non_negative=True, default=0.0)
     if eta is not None and eta > 1.0:
@@ -491,7 +501,9 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
     if b == "adjacent":
         t = number(row, "temp_adjacent", where, problems, required=True, limit="temperature")
         return None if t is None else AdjacentRoom(temperature=t)
-    other = str(row.get("room", "") or "").strip()
+    other = text(row, "room", where, problems)
+    if other is None:
+        return None
     if not other:
         problems.append((f"{where}.room", f'{label}: boundary "room" needs the name of the '
                          "neighbouring room"))
@@ -512,10 +524,10 @@ def _element(row, where, room_label, room_name, ctx, problems):
                          "method, area and boundary"))
         return None
     start = len(problems)
-    name = str(row.get("name") or "").strip()
-    if not name:
+    name = text(row, "name", where, problems)
+    if name == "":
         problems.append((f"{where}.name", f"{room_label}: every element needs a name"))
-        name = where
+    name = name or where
     label = f"{room_label}, element {quote(name)}"
     method = str(row.get("method", "")).strip().lower()
     if method not in ELEMENT_METHODS:
@@ -538,6 +550,7 @@ def _element(row, where, room_label, room_name, ctx, problems):
         problems.append((f"{where}.boundary", f"{label}: an EN ISO 13370 ground element faces "
                          '"ground" (or "outside"); got ' + show(row.get("boundary"))))
     dutb = number(row, "thermal_bridge_allowance", where, problems, non_negative=True,
+                  limit="u_value",
                    default=0.0)
     area = number(row, "area", where, problems, positive=True,
                   required=method != "window", limit="area")
@@ -547,7 +560,8 @@ def _element(row, where, room_label, room_name, ctx, problems):
             u = _construction_name(row, "construction", where, label, ctx, problems,
                                    required=True)
         elif method == "declared":
-            uv = number(row, "u_value", where, problems, positive=True, required=True)
+            uv = number(row, "u_value", where, problems, positive=True, required=True,
+                        limit="u_value")
             src = str(row.get("u_source", "") or "").strip()
             if not src:
                 problems.append((f"{where}.u_source", f"{label}: a declared U-value needs "
@@ -578,7 +592,11 @@ def _construction_name(row, key, where, label, ctx, problems, *, required):
             problems.append((f"{where}.{key}", f"{label}: name a construction of this "
                              "project"))
         return None
-    ref = str(ref).strip()
+    if not isinstance(ref, str):
+        problems.append((f"{where}.{key}", f"{label}: must be text (the name of a "
+                         f"construction); got {show(ref)}"))
+        return None
+    ref = ref.strip()
     if ref in ctx.constructions and ctx.constructions[ref] is None:
         return None  # the construction's own problem is reported at its entry
     if ref not in ctx.constructions:
@@ -592,12 +610,13 @@ def _construction_name(row, key, where, label, ctx, problems, *, required):
 def _window(row, where, label, area, problems):
     req = ("glazing_area", "frame_area", "glazing_u", "frame_u", "glazing_perimeter")
     vals = {k: number(row, k, where, problems, non_negative=True, required=True,
-                      limit="area" if k.endswith("_area") else None) for k in req}
-    vals["psi_glazing"] = number(row, "psi_glazing", where, problems, required=True)
+                      limit=_WINDOW_LIMITS[k]) for k in req}
+    vals["psi_glazing"] = number(row, "psi_glazing", where, problems, required=True,
+                                 limit="psi")
     for k in ("panel_area", "panel_u", "panel_perimeter"):
         vals[k] = number(row, k, where, problems, non_negative=True, default=0.0,
-                         limit="area" if k == "panel_area" else None)
-    vals["psi_panel"] = number(row, "psi_panel", where, problems, default=0.0)
+                         limit=_WINDOW_LIMITS[k])
+    vals["psi_panel"] = number(row, "psi_panel", where, problems, default=0.0, limit="psi")
     if None in vals.values():
         return None
     shape = row.get("glazing_shape", "rectilinear")
@@ -621,7 +640,7 @@ def _resistance(row, con_key, r_key, where, label, ctx, problems):
                          "them"))
         return None, ""
     if has_r:
-        return number(row, r_key, where, problems, non_negative=True), ""
+        return number(row, r_key, where, problems, non_negative=True, limit="resistance"), ""
     name = _construction_name(row, con_key, where, label, ctx, problems, required=True)
     if name is None:
         return None, ""
@@ -635,9 +654,10 @@ def _ground(method, row, where, label, area, ctx, problems):
         soil = (DEFAULT_SOIL_CONDUCTIVITY, f"soil unknown: lambda {DEFAULT_SOIL_CONDUCTIVITY:g} "
                 "W/(m K), category 2 (EN ISO 13370 Table 7)")
     lam, soil_text = soil
-    p = number(row, "exposed_perimeter", where, problems, positive=True, required=True)
+    p = number(row, "exposed_perimeter", where, problems, positive=True, required=True,
+               limit="perimeter")
     w_mm = number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True,
-                  limit="thickness", unit="mm", scale=1e-3)
+                  limit="wall_thickness", unit="mm", scale=1e-3)
     outline = row.get("exposed_outline", "rectilinear")
     if area is None or p is None or w_mm is None:
         return None
@@ -659,12 +679,13 @@ def _ground(method, row, where, label, area, ctx, problems):
     if method == "suspended_floor":
         rd, cname = _resistance(row, "construction", "deck_resistance", where, label, ctx,
                                 problems)
-        kw = {k: number(row, k, where, problems, non_negative=True, required=True)
+        kw = {k: number(row, k, where, problems, non_negative=True, required=True,
+                        limit=_FLOOR_LIMITS[k])
               for k in ("underfloor_height", "underfloor_wall_u", "vent_area_per_perimeter",
                         "wind_speed")}
         kw["ground_insulation_resistance"] = number(
             row, "ground_insulation_resistance", where, problems, non_negative=True,
-            default=0.0)
+            default=0.0, limit="resistance")
         shield = row.get("wind_shielding")
         if shield in (None, ""):
             problems.append((f"{where}.wind_shielding", f'{label}: is required: "sheltered", '
@@ -681,7 +702,7 @@ def _ground(method, row, where, label, area, ctx, problems):
     rf, cname = _resistance(row, "construction", "floor_resistance", where, label, ctx, problems)
     rw, wname = _resistance(row, "wall_construction", "wall_resistance", where, label, ctx,
                             problems)
-    z = number(row, "depth", where, problems, positive=True, required=True)
+    z = number(row, "depth", where, problems, positive=True, required=True, limit="length")
     if rf is None or rw is None or z is None:
         return None
     res = heated_basement(area, p, w, rf, rw, z, soil_conductivity=lam,
@@ -696,8 +717,9 @@ def _edge(raw, where, label, problems):
                          "thickness_mm }"))
         return None
     unknown(raw, EDGE_KEYS, where, problems)
-    ext = number(raw, "extent", where, problems, positive=True, required=True)
-    rn = number(raw, "resistance", where, problems, non_negative=True, required=True)
+    ext = number(raw, "extent", where, problems, positive=True, required=True, limit="length")
+    rn = number(raw, "resistance", where, problems, non_negative=True, required=True,
+                limit="resistance")
     dn = number(raw, "thickness_mm", where, problems, positive=True, required=True,
                 limit="thickness", unit="mm", scale=1e-3)
     if None in (ext, rn, dn):
@@ -716,10 +738,10 @@ def _bridge(row, where, room_label, room_name, ctx, problems):
         return None
     start = len(problems)
     unknown(row, BRIDGE_KEYS, where, problems)
-    name = str(row.get("name") or "").strip()
-    if not name:
+    name = text(row, "name", where, problems)
+    if name == "":
         problems.append((f"{where}.name", f"{room_label}: every thermal bridge needs a name"))
-        name = where
+    name = name or where
     label = f"{room_label}, thermal bridge {quote(name)}"
     boundary = _boundary(row, where, label, room_name, ctx, problems)
     linear = "psi" in row or "length" in row
@@ -736,12 +758,13 @@ def _bridge_object(row, where, label, name, boundary, linear, start, problems):
                          "bridge, or chi (W/K) and count for point bridges"))
         return None
     if linear:
-        psi = number(row, "psi", where, problems, required=True)
-        length = number(row, "length", where, problems, positive=True, required=True)
+        psi = number(row, "psi", where, problems, required=True, limit="psi")
+        length = number(row, "length", where, problems, positive=True, required=True,
+                        limit="length")
         if len(problems) > start:
             return None
         return LinearBridge(name, psi, length, boundary)
-    chi = number(row, "chi", where, problems, required=True)
+    chi = number(row, "chi", where, problems, required=True, limit="chi")
     count = row.get("count", 1)
     if isinstance(count, bool) or not isinstance(count, int) or count < 1:
         problems.append((f"{where}.count", f"{label}: must be a whole number of at least 1; "
