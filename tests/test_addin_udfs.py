@@ -213,7 +213,7 @@ def test_material_lookup():
     assert udfs.HL_MATERIAL("steel", "vapour_resistance_factor") == "inf"
     assert "ISO 10456" in udfs.HL_MATERIAL("steel", "source")
     msg = udfs.HL_MATERIAL("stel")
-    assert msg.startswith("HL_MATERIAL: unknown material 'stel'") and "'steel'" in msg
+    assert msg.startswith('HL_MATERIAL: unknown material "stel"') and '"steel"' in msg
     listing = udfs.HL_MATERIALS(True)
     assert listing[0][0] == "material" and len(listing) > 20
     assert all(len(r) == len(listing[0]) for r in listing)
@@ -290,7 +290,7 @@ def test_declared_resistance_and_air_keywords():
     ([["a", 10, 1, None, 0.2]], "bridging_conductivity is blank"),
     ([["a", 10, 1, None, 1.2, 0.1]], "bridging_fraction must be at most 1"),
     ([["a", 10, 1, None, None, 0.1]], "bridging_fraction is blank"),
-    ([["unobtainium", 10]], "layers row 1 material: unknown material 'unobtainium'"),
+    ([["unobtainium", 10]], 'layers row 1 material: unknown material "unobtainium"'),
     ([[None, 10]], "give a material name, a conductivity or a declared resistance"),
     ([["air", 400]], "layers row 1: air layer thickness must be at most 300 mm"),
     ([["air:sideways", 40]], "write 'air', 'air:unventilated', 'air:well'"),
@@ -428,7 +428,7 @@ def test_small_corrections_are_not_applied_and_blank_means_none():
     ([["air_gaps", "roof", 1]], "corrections row 1 layer must be a layer number 1 to 4"),
     ([["air_gaps", 2, 1, 5]], "corrections row 1: column 4 must be blank for air_gaps"),
     ([["glue", 2, 1]], "corrections row 1 kind must be one of 'air_gaps'"),
-    ([["fasteners", 2, "unobtainium", 12, 4]], "unknown material 'unobtainium'"),
+    ([["fasteners", 2, "unobtainium", 12, 4]], 'unknown material "unobtainium"'),
     ([["fasteners", 2, 17, 12, 4, 200]], "corrections: fastener penetration 0.2 m exceeds"),
     ([["inverted_roof", 2, 2.0]], "corrections row 1 drainage_factor is blank"),
 ])

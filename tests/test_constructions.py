@@ -190,7 +190,7 @@ def test_layer_bad_input(kwargs, pattern):
 
 
 def test_layer_error_names_the_layer():
-    with pytest.raises(HeatLedgerError, match="layer 'brick' thickness"):
+    with pytest.raises(HeatLedgerError, match='layer "brick" thickness'):
         Layer(-1, 1.0, name="brick")
 
 
@@ -200,14 +200,14 @@ def test_area_fractions_must_sum_to_one():
 
 
 def test_unknown_material_suggests_names():
-    with pytest.raises(HeatLedgerError, match="unknown material 'mineral wol 035'; closest "
-                                              "known: 'mineral wool 035'"):
+    with pytest.raises(HeatLedgerError, match='unknown material "mineral wol 035"; closest '
+                                              'known: "mineral wool 035"'):
         Layer(0.1, material="mineral wol 035")
 
 
 def test_unknown_direction():
-    with pytest.raises(HeatLedgerError, match="heat_flow must be one of 'up', 'horizontal', "
-                                              "'down'; got 'sideways'"):
+    with pytest.raises(HeatLedgerError, match='heat_flow must be one of "up", "horizontal" '
+                                              'or "down"; got "sideways"'):
         Construction([Layer(0.1, 1.0)], "sideways")
 
 

@@ -132,7 +132,7 @@ def test_soil_conductivity_defaults():
     # from memory: Table 7 rho c 3.0e6 (category 1), 2.0e6 (categories 2, 3) J/(m3 K)
     assert ground_heat_capacity("clay") == 3.0e6
     assert ground_heat_capacity("rock") == 2.0e6
-    with pytest.raises(HeatLedgerError, match="'clay', 'silt', 'sand', 'gravel', 'rock'"):
+    with pytest.raises(HeatLedgerError, match='"clay", "silt", "sand", "gravel" or "rock"'):
         ground_conductivity("peat")
 
 
@@ -181,7 +181,7 @@ def test_edge_insulation_no_better_than_ground_has_no_effect_or_is_rejected():
     worse = EdgeInsulation("horizontal", 1.0, 0.01, 0.05)
     with pytest.raises(HeatLedgerError, match="R' = R_n - d_n/lambda must not be negative"):
         slab_on_ground(100, 40, 0.3, 0, edge_insulation=worse)
-    with pytest.raises(HeatLedgerError, match="'horizontal', 'vertical'"):
+    with pytest.raises(HeatLedgerError, match='"horizontal" or "vertical"'):
         EdgeInsulation("diagonal", 1.0, 1.0, 0.05)
 
 
@@ -227,7 +227,7 @@ def test_suspended_floor_out_of_scope_height_rejected():
     with pytest.raises(HeatLedgerError, match="underfloor_height must not exceed 0.5 m"):
         suspended_floor(100, 40, 0.3, 1.0, underfloor_height=0.8, underfloor_wall_u=1.0,
                         vent_area_per_perimeter=0.001, wind_speed=3, wind_shielding="average")
-    with pytest.raises(HeatLedgerError, match="'sheltered', 'average', 'exposed'"):
+    with pytest.raises(HeatLedgerError, match='"sheltered", "average" or "exposed"'):
         suspended_floor(100, 40, 0.3, 1.0, underfloor_height=0.3, underfloor_wall_u=1.0,
                         vent_area_per_perimeter=0.001, wind_speed=3, wind_shielding="windy")
 
@@ -279,7 +279,7 @@ def test_deeper_basement_floor_loses_less():
 
 def test_perimeter_that_cannot_bound_the_area():
     # a rectilinear 100 m2 outline needs P >= 4 sqrt(100) = 40 m
-    with pytest.raises(HeatLedgerError, match=r"4 sqrt\(A\) = 40 m.*exposed_outline='partial'"):
+    with pytest.raises(HeatLedgerError, match=r'4 sqrt\(A\) = 40 m.*exposed_outline "partial"'):
         slab_on_ground_u(100.0, 30.0, 0.3, 0.0)
     # with party walls the exposed perimeter may be shorter: allowed when said so
     assert slab_on_ground_u(100.0, 20.0, 0.3, 0.0, exposed_outline="partial") > 0

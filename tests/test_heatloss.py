@@ -217,7 +217,7 @@ def test_window_and_construction_objects_are_duck_typed():
     assert room.transmission_coefficient == pytest.approx(3.0 + 1.6 * w.u_value + 1.3 + 2.0)
     srcs = [ln.source for ln in room.heat_load(-3).lines[:4]]
     assert "stand-in construction" in srcs[0] and "10077-1" in srcs[1]
-    assert "declared" in srcs[2] and "'cavity'" in srcs[3]
+    assert "declared" in srcs[2] and '"cavity"' in srcs[3]
 
 
 def test_real_construction_object_works_as_u():
@@ -342,7 +342,7 @@ def test_annual_energy_from_degree_days():
 
 def test_negative_area_names_room_element_and_rule():
     with pytest.raises(HeatLedgerError,
-                       match=r"room 'Study', element 'north wall': area must be greater than "
+                       match=r'room "Study", element "north wall": area must be greater than '
                              r"zero; got -12"):
         simple_room(elements=[Element("north wall", -12.0, 0.25)])
 
@@ -350,7 +350,7 @@ def test_negative_area_names_room_element_and_rule():
 def test_frame_area_larger_than_window_element():
     w = window(0.3, 2.0, 1.1, 1.4, 2.4, 0.08)
     with pytest.raises(HeatLedgerError,
-                       match=r"room 'Study', element 'w': frame area 2 m2 is larger than the "
+                       match=r'room "Study", element "w": frame area 2 m2 is larger than the '
                              r"window area 1.5 m2"):
         simple_room(elements=[Element("w", 1.5, w, kind="window")])
     with pytest.raises(HeatLedgerError, match="differs from the area"):
@@ -359,8 +359,8 @@ def test_frame_area_larger_than_window_element():
 
 def test_unknown_construction_names_room_element_and_choices():
     with pytest.raises(HeatLedgerError,
-                       match=r"room 'Study', element 'wall': construction 'brick' does not "
-                             r"exist; known constructions: 'block'"):
+                       match=r'room "Study", element "wall": construction "brick" does not '
+                             r'exist; known constructions: "block"'):
         simple_room(elements=[Element("wall", 5.0, "brick")],
                     constructions={"block": 0.3}).heat_load(-3)
 
@@ -369,8 +369,8 @@ def test_unknown_room_name_in_building():
     a = Room("A", 20.0, 30.0, [Element("to B", 5.0, 1.0, AdjacentRoom(room="Bee"))],
              Ventilation("flow"))
     with pytest.raises(HeatLedgerError,
-                       match=r"room 'A', element 'to B': faces room 'Bee', which does not "
-                             r"exist in the building; rooms are 'A'"):
+                       match=r'room "A", element "to B": faces room "Bee", which does not '
+                             r'exist in the building; rooms are "A"'):
         Building("X", [a]).heat_load(-3)
     with pytest.raises(HeatLedgerError, match="only a Building can resolve"):
         a.heat_load(-3)
@@ -387,7 +387,7 @@ def test_temperature_boundary_needs_design_external_temperature():
 @pytest.mark.parametrize(
     "element,match",
     [
-        (Element("x", 5.0, 0.3, "ground"), "boundary 'ground' needs its data"),
+        (Element("x", 5.0, 0.3, "ground"), 'boundary "ground" needs its data'),
         (Element("x", 5.0, 0.3, Unheated()), "exactly one of temperature or adjustment"),
         (Element("x", 5.0, 0.3, Unheated(temperature=5, adjustment_factor=0.5)), "exactly one"),
         (Element("x", 5.0, 0.3, AdjacentRoom(room="B", temperature=18)), "exactly one of room"),
@@ -476,7 +476,7 @@ def test_constructions_resolved_through_the_building():
     b = Building("B", [a], constructions={"block": shared})
     assert b.transmission_coefficient == pytest.approx(3.5)
     line = b.heat_load(-5.0).lines[0]
-    assert "'block' (building mapping)" in line.source
+    assert '"block" (building mapping)' in line.source
     # the same name defined differently by the room and the building is ambiguous
     a2 = Room("A", 20.0, 30.0, [Element("wall", 10.0, "block")], Ventilation("flow"),
               constructions={"block": StandIn(0.5)})
@@ -486,5 +486,5 @@ def test_constructions_resolved_through_the_building():
 
 def test_ground_result_area_must_match_element_area():
     slab = slab_on_ground(20.0, 18.0, 0.3, 2.0)
-    with pytest.raises(HeatLedgerError, match=r"element 'floor': element area 25 m2 differs"):
+    with pytest.raises(HeatLedgerError, match=r'element "floor": element area 25 m2 differs'):
         simple_room(elements=[Element("floor", 25.0, slab, Ground(9.0), kind="floor")])

@@ -116,8 +116,8 @@ def test_unknown_construction_names_room_element_rule_and_closest_names():
     data["rooms"][0]["elements"][0]["construction"] = "WW"
     ((where, msg),) = _problems(data)
     assert where == "rooms[1].elements[1].construction"
-    assert "room 'A'" in msg and "element 'wall'" in msg and "does not exist" in msg
-    assert "'W'" in msg
+    assert 'room "A"' in msg and 'element "wall"' in msg and "does not exist" in msg
+    assert '"W"' in msg
 
 
 @pytest.mark.parametrize(("change", "path", "fragment"), [
@@ -126,9 +126,9 @@ def test_unknown_construction_names_room_element_rule_and_closest_names():
     (lambda d: d["rooms"][0]["elements"][0].pop("method"), "rooms[1].elements[1].method",
      "how the U-value is found"),
     (lambda d: d["rooms"][0]["elements"][0].update(boundary="sky"),
-     "rooms[1].elements[1].boundary", "'outside'"),
+     "rooms[1].elements[1].boundary", '"outside"'),
     (lambda d: d["rooms"][0]["elements"][0].update(area=-3.0), "rooms[1].elements[1].area",
-     "element 'wall'"),
+     'element "wall"'),
     (lambda d: d["rooms"][0]["elements"][2].update(room="C"), "rooms[1].elements[3].room",
      "does not exist"),
     (lambda d: d["building"].pop("annual_mean_external_temperature"),
@@ -149,7 +149,7 @@ def test_unknown_construction_names_room_element_rule_and_closest_names():
     (lambda d: d["rooms"][0]["elements"][1].update(exposed_perimeter=10.0),
      "rooms[1].elements[2]", "exposed_perimeter"),
     (lambda d: d["rooms"][0].update(elements={}), "rooms[1].elements",
-     "room 'A': must be a list of tables ([[rooms.elements]])"),
+     'room "A": must be a list of tables ([[rooms.elements]])'),
     (lambda d: d["rooms"][1].update(thermal_bridges=3), "rooms[2].thermal_bridges",
      "must be a list of tables ([[rooms.thermal_bridges]])"),
     (lambda d: d.update(building=[1]), "building", "must be a table ([building])"),
@@ -169,7 +169,7 @@ def test_window_parts_must_fit_the_window():
         "glazing_area": 1.2, "frame_area": 1.6, "glazing_u": 1.1, "frame_u": 1.4,
         "glazing_perimeter": 4.6, "psi_glazing": 0.08})
     ((where, msg),) = _problems(data)
-    assert where == "rooms[1].elements[4]" and "element 'win'" in msg and "frame_area" in msg
+    assert where == "rooms[1].elements[4]" and 'element "win"' in msg and "frame_area" in msg
 
 
 # --------------------------------------------------------------------------- template

@@ -35,7 +35,7 @@ def test_lookup_is_case_and_space_insensitive():
 
 
 def test_unknown_name_suggests_closest():
-    with pytest.raises(HeatLedgerError, match="closest known: 'steel'"):
+    with pytest.raises(HeatLedgerError, match='closest known: "steel"'):
         default_library().get("steal")
 
 
@@ -55,5 +55,5 @@ def test_add_and_override():
 
 
 def test_material_validates_conductivity():
-    with pytest.raises(HeatLedgerError, match="conductivity of material 'x' must be greater"):
+    with pytest.raises(HeatLedgerError, match='conductivity of material "x" must be greater'):
         Material("x", 0.0)

@@ -73,7 +73,7 @@ def test_all_problems_reported_with_key_paths(tmp_path):
     assert "constructions[2].colour" in where
     assert "constructions[2].layers" in where
     text = str(err.value)
-    assert "closest known: 'mineral wool 035'" in text
+    assert 'closest known: "mineral wool 035"' in text
     assert "must be greater than zero; got -5" in text
 
 
@@ -86,8 +86,8 @@ def test_unknown_direction_reported(tmp_path):
         conductivity = 1.0
         thickness_mm = 100
     """)
-    with pytest.raises(ProjectError, match=r"constructions\[1\].heat_flow: heat_flow must be "
-                                           "one of 'up', 'horizontal', 'down'"):
+    with pytest.raises(ProjectError, match=r'constructions\[1\].heat_flow: must be '
+                                           'one of "up", "horizontal" or "down"'):
         load_project(p)
 
 
@@ -124,9 +124,9 @@ def test_material_row_problems_name_the_key_without_repeating_it():
         project_from_dict(data)
     problems = err.value.problems
     assert ("materials[1].conductivity", "is required") in problems
-    assert ("materials[2].conductivity", "must be a number; got 'high'") in problems
+    assert ("materials[2].conductivity", 'must be a number; got "high" (text)') in problems
     ((where, msg),) = [(w, m) for w, m in problems if w.startswith("materials[3]")]
-    assert where == "materials[3]" and "conductivity of material 'm3'" in msg
+    assert where == "materials[3]" and 'conductivity of material "m3"' in msg
     assert not msg.startswith("materials[3]")
 
 

@@ -61,8 +61,8 @@ def test_low_emissivity_surface_has_higher_resistance():
 
 
 def test_unknown_direction_names_the_choices():
-    with pytest.raises(HeatLedgerError, match="heat_flow must be one of 'up', 'horizontal', "
-                                              "'down'; got 'sideways'"):
+    with pytest.raises(HeatLedgerError, match='heat_flow must be one of "up", "horizontal" '
+                                              'or "down"; got "sideways"'):
         surface_resistance("inside", "sideways")
 
 

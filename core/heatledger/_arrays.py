@@ -10,6 +10,7 @@ import math
 
 import numpy as np
 
+from ._validate import show
 from .errors import HeatLedgerError
 
 __all__ = ["check_perimeter", "finite_array", "non_negative_array", "out", "perimeter_bound",
@@ -35,7 +36,7 @@ def check_perimeter(pname, perimeter, aname, area, shape, *, context: str = "") 
             if shape == "rectilinear"
             else "any outline of area A needs a perimeter of at least 2 sqrt(pi A)"
         )
-        hint = " (pass glazing_shape='any' for a round or curved outline)" if (
+        hint = ' (give glazing_shape "any" for a round or curved outline)' if (
             shape == "rectilinear" and pname == "glazing_perimeter"
         ) else ""
         raise HeatLedgerError(
@@ -54,14 +55,15 @@ def non_negative_array(name: str, value, unit: str) -> np.ndarray:
 
 def finite_array(name: str, value) -> np.ndarray:
     if isinstance(value, bool):
-        raise HeatLedgerError(f"{name} must be a number; got {value!r}")
+        raise HeatLedgerError(f"{name} must be a number; got {show(value)}")
     try:
         arr = np.asarray(value, dtype=float)
     except (TypeError, ValueError):
         raise HeatLedgerError(f"{name} must be a number or an array of numbers; "
-                              f"got {value!r}") from None
+                              f"got {show(value)}") from None
     if not np.all(np.isfinite(arr)):
-        raise HeatLedgerError(f"{name} must be finite; got {value!r}")
+        bad = arr.ravel()[np.argmax(~np.isfinite(arr.ravel()))]
+        raise HeatLedgerError(f"{name} must be finite; got {show(bad)}")
     return arr
 
 

@@ -9,14 +9,13 @@ from __future__ import annotations
 
 import math
 
-__all__ = ["number", "table", "table_list", "unknown"]
+from ._validate import ABSOLUTE_ZERO, LIMITS, limit_rule, show
 
-#: Lowest temperature a temperature key may hold. [degC]
-ABSOLUTE_ZERO = -273.15
+__all__ = ["number", "text", "table", "table_list", "unknown", "ABSOLUTE_ZERO"]
 
 
 def number(row, key, where, problems, *, default=None, required=False, positive=False,
-           non_negative=False, above_absolute_zero=False):
+           non_negative=False, above_absolute_zero=False, limit=None, unit=None, scale=1.0):
     """Read one optional or required number from a table.
 
     Parameters
@@ -38,7 +37,13 @@ def number(row, key, where, problems, *, default=None, required=False, positive=
     non_negative : bool
         The value must not be negative. [-]
     above_absolute_zero : bool
-        The value is a temperature and must be at least -273.15. [-]
+        The value is a temperature: the same as ``limit="temperature"``. [-]
+    limit : str, optional
+        Key of :data:`heatledger._validate.LIMITS` the value must lie within. [-]
+    unit : str, optional
+        The key's unit, for the message (``"mm"``); default the limit's SI unit. [-]
+    scale : float
+        SI units per unit of the key (0.001 for a ``_mm`` key). [-]
 
     Returns
     -------
@@ -52,11 +57,12 @@ def number(row, key, where, problems, *, default=None, required=False, positive=
             problems.append((path, "is required"))
         return default
     if isinstance(value, bool) or not isinstance(value, (int, float)):
-        problems.append((path, f"must be a number; got {value!r}"))
+        kind = " (text)" if isinstance(value, str) else ""
+        problems.append((path, f"must be a number; got {show(value)}{kind}"))
         return None
     value = float(value)
     if not math.isfinite(value):
-        problems.append((path, f"must be a finite number; got {value!r}"))
+        problems.append((path, f"must be a finite number; got {show(value)}"))
         return None
     if positive and value <= 0.0:
         problems.append((path, f"must be greater than zero; got {value:g}"))
@@ -64,11 +70,49 @@ def number(row, key, where, problems, *, default=None, required=False, positive=
     if non_negative and value < 0.0:
         problems.append((path, f"must not be negative; got {value:g}"))
         return None
-    if above_absolute_zero and value < ABSOLUTE_ZERO:
-        problems.append((path, f"must be at least {ABSOLUTE_ZERO:g} (absolute zero); "
-                         f"got {value:g}"))
-        return None
+    if above_absolute_zero:
+        limit = "temperature"
+    if limit is not None:
+        rule = limit_rule(limit, value, scale=scale, unit=unit)
+        if rule is not None:
+            problems.append((path, f"must be {rule}; got {value:g} "
+                             f"{unit or LIMITS[limit].unit}"))
+            return None
     return value
+
+
+def text(row, key, where, problems, *, default=""):
+    """Read one optional text (a name, or a reference to a name) from a table.
+
+    Parameters
+    ----------
+    row : dict
+        The table; anything else reads as if the key were missing. [-]
+    key : str
+        The key to read. [-]
+    where : str
+        Key path of the table; empty for the top level. [-]
+    problems : list
+        A problem is appended as ``(key path, message)``. [-]
+    default : str
+        Returned when the key is missing. [-]
+
+    Returns
+    -------
+    str or None
+        The text, stripped (a whole number reads as its digits), ``default`` when missing,
+        None when it is not text.
+    """
+    value = row.get(key) if isinstance(row, dict) else None
+    if value is None:
+        return default
+    if isinstance(value, str):
+        return value.strip()
+    if isinstance(value, int) and not isinstance(value, bool):
+        return str(value)
+    path = f"{where}.{key}" if where else key
+    problems.append((path, f"must be text (a name); got {show(value)}"))
+    return None
 
 
 def table(data, key, problems) -> dict:

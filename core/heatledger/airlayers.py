@@ -16,7 +16,7 @@ import math
 
 import numpy as np
 
-from ._validate import choice, finite, fraction, non_negative, positive
+from ._validate import choice, finite, fraction, non_negative, positive, show
 from .errors import HeatLedgerError
 from .surfaces import HEAT_FLOWS, radiative_coefficient_black_body
 
@@ -98,8 +98,7 @@ def air_layer_resistance(
     plain = isinstance(thickness, (int, float)) and not isinstance(thickness, bool)
     if plain:  # fast path: math on one number (numpy costs ~15 us on a scalar)
         d = float(thickness)
-        _check_thickness(math.isfinite(d), d < 0.0, d > MAX_AIR_LAYER_THICKNESS + 1e-12,
-                         thickness)
+        _check_thickness(math.isfinite(d), d < 0.0, d > MAX_AIR_LAYER_THICKNESS + 1e-12, d)
     else:
         d = _thickness_array(thickness)
     h_r0 = radiative_coefficient_black_body(finite("temp_mean", temp_mean))
@@ -205,22 +204,31 @@ def _scalar_resistance(d: float, heat_flow: str, radiative: float) -> float:
 
 
 def _check_thickness(finite_, negative, too_thick, thickness) -> None:
+    """Raise for a bad air-layer thickness; ``thickness`` is the first offending value. [m]"""
     if not finite_:
-        raise HeatLedgerError(f"air layer thickness must be a finite number; got {thickness!r}")
+        raise HeatLedgerError(f"air layer thickness must be a finite number; got "
+                              f"{show(thickness)}")
     if negative:
-        raise HeatLedgerError(f"air layer thickness must not be negative; got {thickness!r}")
+        raise HeatLedgerError(f"air layer thickness must not be negative; got "
+                              f"{thickness:g} m")
     if too_thick:
         raise HeatLedgerError(
-            f"air layer thickness must be at most {MAX_AIR_LAYER_THICKNESS} m for the ISO 6946 "
-            f"Annex D method; got {thickness!r} (treat a larger space as a room or use "
-            "ISO 13789)"
+            f"air layer thickness must be at most {MAX_AIR_LAYER_THICKNESS * 1000:g} mm for "
+            f"the ISO 6946 Annex D method; got {thickness * 1000:g} mm (treat a larger space "
+            "as a room or use ISO 13789)"
         )
 
 
 def _thickness_array(thickness):
-    d = np.asarray(thickness, dtype=float)
+    try:
+        d = np.asarray(thickness, dtype=float)
+    except (TypeError, ValueError):
+        raise HeatLedgerError(f"air layer thickness must be a number; got "
+                              f"{show(thickness)}") from None
+    bad = ~np.isfinite(d) | (d < 0.0) | (d > MAX_AIR_LAYER_THICKNESS + 1e-12)
+    first = float(d.ravel()[np.argmax(bad.ravel())]) if bad.any() else 0.0
     _check_thickness(np.isfinite(d).all(), (d < 0.0).any(),
-                     (d > MAX_AIR_LAYER_THICKNESS + 1e-12).any(), thickness)
+                     (d > MAX_AIR_LAYER_THICKNESS + 1e-12).any(), first)
     if math.isnan(float(d.max(initial=0.0))):
         raise HeatLedgerError("air layer thickness must not be NaN")
     return d

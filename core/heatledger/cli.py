@@ -78,7 +78,8 @@ def project_results(project: Project) -> dict:
     dict
         ``{"project": ..., "design": ..., "constructions": [...]}`` with, per construction,
         ``total_resistance`` [m2 K/W], ``u_value`` and ``u_value_reported`` [W/(m2 K)],
-        ``interface_temperatures`` [degC], ``heat_flux`` [W/m2] and ``energy_residual`` [-].
+        ``interface_temperatures`` [degC], ``heat_flux`` [W/m2] and ``energy_residual`` [-];
+        ``input_warnings``: input that is probably a slip, each ``{"where", "message"}``.
     """
     from . import __version__
     from .cautions import caution_lines
@@ -131,6 +132,8 @@ def project_results(project: Project) -> dict:
         "design": {"temp_inside": project.temp_inside, "temp_outside": project.temp_outside},
         "source_sha256": project.sha256,
         "tool_version": __version__,
+        "input_warnings": [{"where": where, "message": text}
+                           for where, text in getattr(project, "warnings", [])],
         "constructions": out,
         **_building_results(project),
         **_fin_results(project),
@@ -148,6 +151,13 @@ def _print_table(results: dict, stream=None) -> None:
     w(f"{info.get('name') or 'heatledger project'}\n")
     w(f"design temperatures: inside {des['temp_inside']:g} degC, outside "
       f"{des['temp_outside']:g} degC\n\n")
+    slips = results.get("input_warnings") or []
+    if slips:
+        w("Input warnings (probably slips: check these inputs before using the results):\n")
+        for item in slips:
+            w(f"  - {item['where']}: {item['message']}\n")
+        w("\n")
+    shown = {item["message"] for item in slips}
     head = (f"{'construction':<36} {'flow':<10} {'R_T m2K/W':>10} {'U W/m2K':>9} "
             f"{'U (2 s.f.)':>10} {'target':>7} {'met':>4}")
     w(head + "\n" + "-" * len(head) + "\n")
@@ -170,7 +180,8 @@ def _print_table(results: dict, stream=None) -> None:
             else:
                 w(f"  sizing {sz['layer']}: {sz['message']}\n")
         for warning in c["warnings"]:
-            w(f"  warning: {warning}\n")
+            if warning not in shown:  # input warnings are listed once, at the top
+                w(f"  warning: {warning}\n")
     if results.get("building"):
         _print_building(dict(results["building"], rooms_table=results["rooms"]), w)
     if results.get("fins"):

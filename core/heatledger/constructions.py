@@ -24,8 +24,22 @@ from itertools import product
 import numpy as np
 
 from . import fv1d
-from ._validate import choice, finite, non_negative, positive
+from ._validate import (
+    MAX_CELLS,
+    MAX_CELLS_PER_LAYER,
+    choice,
+    conductivity_warning,
+    finite,
+    fraction,
+    non_negative,
+    positive,
+    quote,
+    show,
+    thin_layer_warning,
+    within,
+)
 from .airlayers import (
+    MAX_AIR_LAYER_THICKNESS,
     VENT_AREA_UNVENTILATED_MM2,
     VENT_AREA_WELL_VENTILATED_MM2,
     VENTILATION_CLASSES,
@@ -68,6 +82,17 @@ DEFAULT_NODES_PER_LAYER = 4
 # Layers
 
 
+def _thickness(label: str, thickness) -> float:
+    """A layer thickness [m]: greater than zero and within the physical limit."""
+    return within(f"{label} thickness", positive(f"{label} thickness", thickness, "m"),
+                  "thickness")
+
+
+def _conductivity(name: str, conductivity) -> float:
+    """A conductivity [W/(m K)]: greater than zero and within the physical limits."""
+    return within(name, positive(name, conductivity, "W/(m K)"), "conductivity")
+
+
 class Layer:
     """A homogeneous layer: thickness and conductivity, or a declared thermal resistance.
 
@@ -100,8 +125,8 @@ class Layer:
 
     def __init__(self, thickness, conductivity=None, *, resistance=None, name: str = "",
                  material=None) -> None:
-        label = f"layer {name!r}" if name else "layer"
-        self.thickness = positive(f"{label} thickness", thickness, "m")
+        label = f"layer {quote(name)}" if name else "layer"
+        self.thickness = _thickness(label, thickness)
         if isinstance(material, str):
             material = _load_default().get(material)  # cached library, read only
         if material is not None and not isinstance(material, Material):
@@ -118,13 +143,17 @@ class Layer:
         self.name = str(name) or (material.name if material is not None else "")
         if resistance is not None:
             self.conductivity = None
-            self.declared_resistance = positive(f"{label} resistance", resistance, "m2 K/W")
+            self.declared_resistance = within(
+                f"{label} resistance", positive(f"{label} resistance", resistance, "m2 K/W"),
+                "layer_resistance")
             self.resistance_value = self.declared_resistance
             self.kind = "declared"
         else:
-            self.conductivity = positive(f"{label} conductivity", conductivity, "W/(m K)")
+            self.conductivity = _conductivity(f"{label} conductivity", conductivity)
             self.declared_resistance = None
-            self.resistance_value = self.thickness / self.conductivity
+            self.resistance_value = within(
+                f"{label} resistance thickness/conductivity",
+                self.thickness / self.conductivity, "layer_resistance")
             self.kind = "material"
 
     def with_thickness(self, thickness) -> Layer:
@@ -171,31 +200,37 @@ class AirLayer:
 
     def __init__(self, thickness, *, ventilation: str = "unventilated", emissivity_1=0.9,
                  emissivity_2=0.9, vent_area=None, name: str = "") -> None:
-        label = f"air layer {name!r}" if name else "air layer"
+        label = f"air layer {quote(name)}" if name else "air layer"
         self.thickness = positive(f"{label} thickness", thickness, "m")
+        if self.thickness > MAX_AIR_LAYER_THICKNESS + 1e-12:
+            raise HeatLedgerError(
+                f"{label} is {self.thickness * 1000.0:g} mm thick; the ISO 6946 Annex D "
+                f"method covers air layers up to {MAX_AIR_LAYER_THICKNESS * 1000.0:g} mm: "
+                "treat a larger space as an unheated space or a room (ISO 13789)")
         self.ventilation = choice(f"{label} ventilation", ventilation, VENTILATION_CLASSES)
-        self.emissivity_1 = float(emissivity_1)
-        self.emissivity_2 = float(emissivity_2)
+        self.emissivity_1 = fraction(f"{label} emissivity_1", emissivity_1, allow_zero=False)
+        self.emissivity_2 = fraction(f"{label} emissivity_2", emissivity_2, allow_zero=False)
         self.name = str(name) or "air layer"
         self.vent_area = None if vent_area is None else non_negative(
             f"{label} vent_area", vent_area, "mm2")
         a = self.vent_area
         if self.ventilation == "slightly":
             if a is None or not (VENT_AREA_UNVENTILATED_MM2 < a < VENT_AREA_WELL_VENTILATED_MM2):
+                got = "it is not given" if a is None else f"got {a:g} mm2"
                 raise HeatLedgerError(
                     f"{label}: a slightly ventilated layer needs vent_area between 500 and "
-                    f"1500 mm2 (per m or per m2); got {a!r}"
+                    f"1500 mm2 (per m or per m2); {got}"
                 )
         elif self.ventilation == "unventilated" and a is not None and (
                 a > VENT_AREA_UNVENTILATED_MM2):
             raise HeatLedgerError(
                 f"{label}: vent_area {a:g} mm2 is above 500 mm2, so the layer is not "
-                "unventilated (ISO 6946 6.9); choose 'slightly' or 'well'"
+                'unventilated (ISO 6946 6.9); choose "slightly" or "well"'
             )
         elif self.ventilation == "well" and a is not None and a < VENT_AREA_WELL_VENTILATED_MM2:
             raise HeatLedgerError(
                 f"{label}: vent_area {a:g} mm2 is below 1500 mm2, so the layer is not well "
-                "ventilated (ISO 6946 6.9); choose 'slightly' or 'unventilated'"
+                'ventilated (ISO 6946 6.9); choose "slightly" or "unventilated"'
             )
 
     def resistance_for(self, heat_flow: str) -> float:
@@ -236,8 +271,8 @@ class BridgedLayer:
     __slots__ = ("thickness", "parts", "name")
 
     def __init__(self, thickness, parts, *, name: str = "") -> None:
-        label = f"bridged layer {name!r}" if name else "bridged layer"
-        self.thickness = positive(f"{label} thickness", thickness, "m")
+        label = f"bridged layer {quote(name)}" if name else "bridged layer"
+        self.thickness = _thickness(label, thickness)
         self.name = str(name) or "bridged layer"
         cleaned = []
         try:
@@ -255,7 +290,7 @@ class BridgedLayer:
                                       "area_fraction) pair") from None
             if isinstance(lam, Material):
                 lam = lam.conductivity
-            lam = positive(f"{label} part {i} conductivity", lam, "W/(m K)")
+            lam = _conductivity(f"{label} part {i} conductivity", lam)
             frac = finite(f"{label} part {i} area_fraction", frac)
             if not 0.0 < frac <= 1.0:
                 raise HeatLedgerError(
@@ -266,6 +301,8 @@ class BridgedLayer:
             raise HeatLedgerError(
                 f"{label}: area fractions must sum to 1; they sum to {total:.6g}")
         self.parts = tuple(cleaned)
+        within(f"{label} lower-limit resistance thickness/(sum of fraction x conductivity)",
+               self.lower_limit_resistance, "layer_resistance")
 
     @property
     def lower_limit_resistance(self) -> float:
@@ -303,8 +340,8 @@ class AirGapCorrection:
     def delta_u(self, r_layer: float, r_total: float, layer_obj) -> float:
         levels = {0: 0.0, 1: 0.01, 2: 0.04}
         if self.level not in levels:
-            raise HeatLedgerError(f"air-gap correction level must be one of 0, 1, 2; got "
-                                  f"{self.level!r}")
+            raise HeatLedgerError(f"air-gap correction level must be 0, 1 or 2; got "
+                                  f"{show(self.level)}")
         return levels[self.level] * (r_layer / r_total) ** 2
 
     @property
@@ -580,7 +617,7 @@ class Construction:
         self.name = str(name)
         self.heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
         self.layers = tuple(layers)
-        label = f"construction {self.name!r}" if self.name else "construction"
+        label = f"construction {quote(self.name)}" if self.name else "construction"
         if not self.layers:
             raise HeatLedgerError(f"{label} has no layers; list at least one, inside to outside")
         for i, lay in enumerate(self.layers):
@@ -588,15 +625,19 @@ class Construction:
                 raise HeatLedgerError(f"{label} layer {i + 1} must be a Layer, AirLayer or "
                                       f"BridgedLayer; got {type(lay).__name__}")
         self.rsi = (surface_resistance("inside", self.heat_flow) if rsi is None
-                    else non_negative(f"{label} rsi", rsi, "m2 K/W"))
+                    else _surface_resistance(f"{label} rsi", rsi))
         rse_given = rse is not None
         self._rse_given = rse_given
         self.rse = (surface_resistance("outside", self.heat_flow) if rse is None
-                    else non_negative(f"{label} rse", rse, "m2 K/W"))
+                    else _surface_resistance(f"{label} rse", rse))
         self.corrections_input = tuple(corrections)
         self.apply_small_corrections = bool(apply_small_corrections)
         self.warnings: list[str] = []
         self._compute(label, rse_given)
+        #: Input that is probably a slip (a thickness in metres in a millimetre field, a
+        #: conductivity far outside its material class); also at the head of ``warnings``.
+        self.input_warnings: list[str] = _input_slips(self.layers)
+        self.warnings[:0] = self.input_warnings
 
     # ---- results --------------------------------------------------------------------
     @property
@@ -650,8 +691,8 @@ class Construction:
         ndarray
             Temperatures. [degC]
         """
-        t_i = finite("inside", inside)
-        t_e = finite("outside", outside)
+        t_i = within("inside", inside, "temperature")
+        t_e = within("outside", outside, "temperature")
         q = (t_i - t_e) / self._r_total
         r = [self.rsi] + [row.resistance for row in self._rows if row.counted]
         return t_i - q * np.cumsum(r)
@@ -683,27 +724,11 @@ class Construction:
         ConstructionTemperatures
         """
         counted = [row for row in self._rows if row.counted]
-        if nodes_per_layer is not None and max_spacing is not None:
-            raise HeatLedgerError("give nodes_per_layer or max_spacing, not both")
-        if max_spacing is not None:
-            h = positive("max_spacing", max_spacing, "m")
-            counts = [max(1, math.ceil(row.thickness / h - 1e-9)) for row in counted]
-        elif nodes_per_layer is None:
-            counts = [DEFAULT_NODES_PER_LAYER] * len(counted)
-        elif isinstance(nodes_per_layer, (int, np.integer)) and not isinstance(
-                nodes_per_layer, bool):
-            counts = [int(nodes_per_layer)] * len(counted)
-        else:
-            counts = [int(n) for n in nodes_per_layer]
-            if len(counts) != len(counted):
-                raise HeatLedgerError(
-                    f"nodes_per_layer lists {len(counts)} counts for {len(counted)} layers")
-        if any(n < 1 for n in counts):
-            raise HeatLedgerError("nodes_per_layer must be at least 1 in every layer")
+        counts = _cell_counts(counted, nodes_per_layer, max_spacing)
         left = inside if isinstance(inside, fv1d.Boundary) else fv1d.surface_to_ambient(
-            finite("inside", inside), self.rsi)
+            within("inside", inside, "temperature"), self.rsi)
         right = outside if isinstance(outside, fv1d.Boundary) else fv1d.surface_to_ambient(
-            finite("outside", outside), self._rse_used)
+            within("outside", outside, "temperature"), self._rse_used)
         coarse = self._solve_fv(counted, counts, left, right, layer_sources, interface_fluxes)
         fine = self._solve_fv(counted, [2 * n for n in counts], left, right, layer_sources,
                               interface_fluxes)
@@ -735,8 +760,8 @@ class Construction:
             for idx, q_vol in (layer_sources or {}).items():
                 mask = layer_of_node == int(idx)
                 if not mask.any():
-                    raise HeatLedgerError(f"layer_sources names layer {idx!r}, which is not a "
-                                          "counted layer of this construction")
+                    raise HeatLedgerError(f"layer_sources names layer {show(idx)}, which is "
+                                          "not a counted layer of this construction")
                 source[mask] += finite(f"layer_sources[{idx}]", q_vol) * widths[mask]
             for k, q_s in (interface_fluxes or {}).items():
                 k = int(k)
@@ -870,7 +895,7 @@ class Construction:
             idx = getattr(c, "layer", None)
             if not isinstance(idx, (int, np.integer)) or not 0 <= idx < len(self.layers):
                 raise HeatLedgerError(f"{label}: correction {type(c).__name__} names layer "
-                                      f"{idx!r}; layers are numbered 0 to "
+                                      f"{show(idx)}; layers are numbered 0 to "
                                       f"{len(self.layers) - 1}")
             items.append((c.label, int(idx), c.delta_u(own[idx], self._r_total,
                                                         self.layers[idx])))
@@ -913,6 +938,59 @@ class Construction:
                 f"U={self.u_value:.4g} W/(m2 K))")
 
 
+def _surface_resistance(name: str, value) -> float:
+    """A given surface resistance [m2 K/W]: not negative, within the physical limit."""
+    return within(name, non_negative(name, value, "m2 K/W"), "surface_resistance")
+
+
+def _cell_counts(counted, nodes_per_layer, max_spacing) -> list:
+    """Finite-volume cells of each counted layer, within the engine's memory bound."""
+    if nodes_per_layer is not None and max_spacing is not None:
+        raise HeatLedgerError("give nodes_per_layer or max_spacing, not both")
+    if max_spacing is not None:
+        h = positive("max_spacing", max_spacing, "m")
+        ratios = [row.thickness / h for row in counted]
+        counts = [max(1, math.ceil(r - 1e-9)) if r <= MAX_CELLS else MAX_CELLS + 1
+                  for r in ratios]
+        what = f"max_spacing {h:g} m"
+    elif nodes_per_layer is None:
+        return [DEFAULT_NODES_PER_LAYER] * len(counted)
+    else:
+        items = ([nodes_per_layer] * len(counted)
+                 if isinstance(nodes_per_layer, (int, np.integer, float, str, bool))
+                 else list(nodes_per_layer))
+        if len(items) != len(counted):
+            raise HeatLedgerError(
+                f"nodes_per_layer lists {len(items)} counts for {len(counted)} layers")
+        for n in items:
+            if isinstance(n, bool) or not isinstance(n, (int, np.integer)) or n < 1:
+                raise HeatLedgerError(f"nodes_per_layer must be a whole number of at least 1 "
+                                      f"in every layer; got {show(n)}")
+        counts = [int(n) for n in items]
+        what = "nodes_per_layer"
+    if max(counts) > MAX_CELLS_PER_LAYER or sum(counts) > MAX_CELLS:
+        raise HeatLedgerError(
+            f"{what} asks for more cells than the engine takes: at most "
+            f"{MAX_CELLS_PER_LAYER} per layer and {MAX_CELLS} in a construction (about 25 MB "
+            "of memory; the solve converges as 1/n^2, so far fewer are enough)")
+    return counts
+
+
+def _input_slips(layers) -> list:
+    """Warnings for layer input that is probably a slip (see heatledger._validate)."""
+    out = []
+    for i, lay in enumerate(layers, 1):
+        label = f"layer {i} {quote(lay.name)}" if lay.name else f"layer {i}"
+        mat = getattr(lay, "material", None)
+        names = (lay.name, mat.name if mat is not None else "")
+        lam = getattr(lay, "conductivity", None)
+        out.append(thin_layer_warning(label, lay.thickness, *names,
+                                      metal=lam is not None and lam >= 10.0))
+        if lam is not None:
+            out.append(conductivity_warning(label, lam, *names))
+    return [w for w in out if w]
+
+
 def required_thickness(construction: Construction, layer_index: int, target_u: float, *,
                        max_thickness: float = 2.0) -> float:
     """Thickness of one layer that makes the construction reach a target U-value.
@@ -952,7 +1030,7 @@ def required_thickness(construction: Construction, layer_index: int, target_u: f
     target = positive("target_u", target_u, "W/(m2 K)")
     n = len(construction.layers)
     if not isinstance(layer_index, (int, np.integer)) or not 0 <= layer_index < n:
-        raise HeatLedgerError(f"layer_index must be 0 to {n - 1}; got {layer_index!r}")
+        raise HeatLedgerError(f"layer_index must be 0 to {n - 1}; got {show(layer_index)}")
     layer = construction.layers[layer_index]
     if layer.kind == "air":
         raise HeatLedgerError("layer_index points to an air layer; choose an insulation layer")
@@ -972,12 +1050,12 @@ def required_thickness(construction: Construction, layer_index: int, target_u: f
     if u_at(d_min) <= 0.0:
         raise HeatLedgerError(
             f"target_u {target:g} W/(m2 K) is met even without layer "
-            f"{layer_index} ({layer.name!r}); no thickness is needed")
+            f"{layer_index} ({quote(layer.name)}); no thickness is needed")
     if u_at(d_max) > 0.0:
         best = u_at(d_max) + target
         raise HeatLedgerError(
             f"target_u {target:g} W/(m2 K) cannot be reached: with {d_max:g} m of layer "
-            f"{layer_index} ({layer.name!r}) U is still {best:.4g} W/(m2 K); improve another "
+            f"{layer_index} ({quote(layer.name)}) U is still {best:.4g} W/(m2 K); improve another "
             "layer or relax the target")
     if linear:
         return float((1.0 / target - r_rest) * m_per_r)

@@ -22,10 +22,18 @@ from dataclasses import dataclass
 from functools import lru_cache
 from importlib import resources
 
-from ._validate import positive
+from ._validate import positive, quote, within
 from .errors import HeatLedgerError
 
-__all__ = ["Material", "MaterialLibrary", "default_library"]
+__all__ = ["Material", "MaterialLibrary", "MaterialWithheld", "default_library"]
+
+
+class MaterialWithheld(HeatLedgerError):
+    """A material whose own entry in the project has a problem, reported there already.
+
+    :meth:`MaterialLibrary.get` raises it for a withheld name, so that references to the
+    material do not add "unknown material" lines that hide the real cause.
+    """
 
 
 @dataclass(frozen=True)
@@ -64,11 +72,12 @@ class Material:
     def __post_init__(self) -> None:
         if not str(self.name).strip():
             raise HeatLedgerError("material name must not be empty")
-        positive(f"conductivity of material {self.name!r}", self.conductivity, "W/(m K)")
+        label = f"conductivity of material {quote(self.name)}"
+        within(label, positive(label, self.conductivity, "W/(m K)"), "conductivity")
         for label in ("density", "specific_heat"):
             value = getattr(self, label)
             if value is not None:
-                positive(f"{label} of material {self.name!r}", value)
+                positive(f"{label} of material {quote(self.name)}", value)
 
 
 class MaterialLibrary:
@@ -82,6 +91,7 @@ class MaterialLibrary:
 
     def __init__(self, materials: Iterable[Material] = ()) -> None:
         self._rows: dict[str, Material] = {}
+        self._withheld: set[str] = set()
         for m in materials:
             self.add(m)
 
@@ -96,7 +106,7 @@ class MaterialLibrary:
         key = _key(material.name)
         if key in self._rows and not override:
             raise HeatLedgerError(
-                f"material {material.name!r} is already in the library; give it another name "
+                f"material {quote(material.name)} is already in the library; give it another name "
                 "or ask to override the library row"
             )
         self._rows[key] = material
@@ -109,20 +119,36 @@ class MaterialLibrary:
         HeatLedgerError
             If no material has that name; the message lists the closest names.
         """
+        if self._withheld and _key(str(name)) in self._withheld:
+            raise MaterialWithheld(f"material {quote(name)} has a problem in its own entry")
         try:
             return self._rows[_key(name)]
         except (KeyError, AttributeError):
             pass
         close = difflib.get_close_matches(_key(str(name)), list(self._rows), n=3, cutoff=0.4)
         hint = (
-            "; closest known: " + ", ".join(repr(self._rows[c].name) for c in close)
+            "; closest known: " + ", ".join(quote(self._rows[c].name) for c in close)
             if close
-            else "; run 'heatledger materials' to list the library"
+            else '; run "heatledger materials" to list the library'
         )
-        raise HeatLedgerError(f"unknown material {name!r}{hint}")
+        raise HeatLedgerError(f"unknown material {quote(name)}{hint}")
+
+    def withhold(self, name: str) -> None:
+        """Mark ``name`` as a material whose own entry has a problem (already reported):
+        :meth:`get` then raises :class:`MaterialWithheld` for it, not "unknown material".
+
+        Parameters
+        ----------
+        name : str
+            The material's name. [-]
+        """
+        key = _key(str(name))
+        if key:
+            self._withheld.add(key)
 
     def __contains__(self, name: object) -> bool:
-        return isinstance(name, str) and _key(name) in self._rows
+        return isinstance(name, str) and _key(name) in self._rows and (
+            _key(name) not in self._withheld)
 
     def __iter__(self) -> Iterator[Material]:
         return iter(self._rows.values())

@@ -14,8 +14,9 @@ import sys
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from ._projectio import number, table, table_list, unknown
-from ._validate import finite
+from ._projectio import number, table, table_list, text, unknown
+from ._validate import MAX_PROJECT_CELLS_PER_LAYER, choices_text, quote, show
+from .airlayers import MAX_AIR_LAYER_THICKNESS, VENTILATION_CLASSES
 from .constructions import (
     AirGapCorrection,
     AirLayer,
@@ -27,7 +28,8 @@ from .constructions import (
 )
 from .errors import HeatLedgerError, ProjectError
 from .fileio import read_bytes_limited
-from .materials import Material, MaterialLibrary, default_library
+from .materials import Material, MaterialLibrary, MaterialWithheld, default_library
+from .surfaces import HEAT_FLOWS
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -106,6 +108,8 @@ class Project:
     raw: dict = field(default_factory=dict)
     source_bytes: bytes = b""
     source_name: str = ""
+    #: Input that is probably a slip, as ``(key path, message)``: shown beside the results.
+    warnings: list = field(default_factory=list)
 
     @property
     def sha256(self) -> str:
@@ -190,8 +194,9 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
     info = {k: "" if info_in.get(k) is None else str(info_in.get(k)) for k in PROJECT_KEYS}
     design = table(data, "design", problems)
     unknown(design, DESIGN_KEYS, "design", problems)
-    t_i = number(design, "temp_inside", "design", problems, default=20.0)
-    t_e = number(design, "temp_outside", "design", problems, default=-5.0)
+    t_i = number(design, "temp_inside", "design", problems, default=20.0, limit="temperature")
+    t_e = number(design, "temp_outside", "design", problems, default=-5.0,
+                 limit="temperature")
     if t_i is not None and t_e is not None and not t_i > t_e:
         problems.append(("design.temp_outside", f"must be below temp_inside ({t_i:g} degC) for "
                          f"a heating case; got {t_e:g} degC"))
@@ -204,41 +209,52 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
             problems.append((where, "must be a table with name and conductivity"))
             continue
         unknown(row, MATERIAL_KEYS, where, problems)
+        mat_start = len(problems)
+        mat_name = text(row, "name", where, problems)
         try:
+            if mat_name is None:
+                raise HeatLedgerError("material name must be text")
             mat = Material(
-                name=str(row.get("name", "")).strip(),
+                name=mat_name,
                 conductivity=_req(row, "conductivity", where),
                 density=row.get("density"),
                 specific_heat=row.get("specific_heat"),
                 vapour_resistance_factor=row.get("vapour_resistance_factor"),
-                source=str(row.get("source", "")) or "user input",
+                source=str(row.get("source") or "") or "user input",
                 confidence="user",
             )
             library.add(mat, override=True)
             user_materials.append(mat)
         except HeatLedgerError as exc:
-            problems.append((exc.where or where, _msg(exc)))
+            if mat_name is not None:
+                problems.append((exc.where or where, _msg(exc)))
+        if len(problems) > mat_start and mat_name:  # references must not add "unknown"
+            library.withhold(mat_name)
 
     entries = []
     names_seen: set[str] = set()
+    broken: set[str] = set()
     for i, row in enumerate(table_list(data, "constructions", problems), 1):
         where = f"constructions[{i}]"
         entry = _construction(row, where, library, problems)
-        if entry is None:
+        if entry is None:  # keep the name known: its references are not "unknown"
+            broken.add(text(row, "name", where, []) or "")
             continue
         if entry.name.lower() in names_seen:
-            problems.append((f"{where}.name", f"construction name {entry.name!r} is used twice; "
-                             "names must be unique"))
+            problems.append((f"{where}.name", f"construction name {quote(entry.name)} is used "
+                             "twice; names must be unique"))
         names_seen.add(entry.name.lower())
         entries.append(entry)
     fins = _parse_fins(data, library, problems)
-    building = _parse_building(data, entries, library, t_i, t_e, problems)
+    building = _parse_building(data, entries, library, t_i, t_e, problems, broken)
     if problems:
         raise ProjectError(problems, source=source_name)
+    warnings = [(e.where, text) for e in entries for text in e.construction.input_warnings]
+    warnings += list(getattr(building, "warnings", []) or [])
     return Project(info=info, temp_inside=t_i, temp_outside=t_e, materials=library,
                    constructions=entries, user_materials=user_materials, fins=fins,
                    building=building, raw=data, source_bytes=source_bytes,
-                   source_name=source_name)
+                   source_name=source_name, warnings=warnings)
 
 
 # Hooks for the other method families: each parses its own section(s), appends every
@@ -256,7 +272,8 @@ def _parse_fins(data, library, problems) -> list:
     return fins_from_dict(data["fins"], library, problems)
 
 
-def _parse_building(data, entries, library, temp_inside, temp_outside, problems):
+def _parse_building(data, entries, library, temp_inside, temp_outside, problems,
+                    broken=()):
     if "rooms" not in data and "building" not in data:
         return None
     try:
@@ -264,7 +281,9 @@ def _parse_building(data, entries, library, temp_inside, temp_outside, problems)
     except ImportError:  # pragma: no cover - until the rooms section is wired
         problems.append(("rooms", "the rooms section is not supported by this version yet"))
         return None
-    constructions = {e.name: e.construction for e in entries}
+    # a construction with a problem of its own stands as None: known, but not usable
+    constructions = {name: None for name in broken if name}
+    constructions.update({e.name: e.construction for e in entries})
     return building_from_dict(data, constructions, library, temp_inside, temp_outside,
                               problems)
 
@@ -302,19 +321,23 @@ def _construction(row, where, library, problems) -> ConstructionEntry | None:
         return None
     start = len(problems)
     unknown(row, CONSTRUCTION_KEYS, where, problems)
-    name = str(row.get("name", "")).strip()
-    if not name:
+    name = text(row, "name", where, problems)
+    if name == "":
         problems.append((f"{where}.name", "every construction needs a name"))
     heat_flow = row.get("heat_flow", "horizontal")
-    area = number(row, "area", where, problems, positive=True)
-    target = number(row, "target_u", where, problems, positive=True)
-    rsi = number(row, "rsi", where, problems, non_negative=True)
-    rse = number(row, "rse", where, problems, non_negative=True)
+    if not isinstance(heat_flow, str) or heat_flow.strip().lower() not in HEAT_FLOWS:
+        problems.append((f"{where}.heat_flow", f"must be one of {choices_text(HEAT_FLOWS)} "
+                         f"(roofs up, walls horizontal, floors down); got {show(heat_flow)}"))
+    area = number(row, "area", where, problems, positive=True, limit="area")
+    target = number(row, "target_u", where, problems, positive=True, limit="u_value")
+    rsi = number(row, "rsi", where, problems, non_negative=True, limit="surface_resistance")
+    rse = number(row, "rse", where, problems, non_negative=True, limit="surface_resistance")
     nodes = row.get("nodes_per_layer")
     if nodes is not None and (isinstance(nodes, bool) or not isinstance(nodes, int)
-                              or nodes < 1):
-        problems.append((f"{where}.nodes_per_layer", f"must be a whole number >= 1; got "
-                         f"{nodes!r}"))
+                              or not 1 <= nodes <= MAX_PROJECT_CELLS_PER_LAYER):
+        problems.append((f"{where}.nodes_per_layer", f"must be a whole number from 1 to "
+                         f"{MAX_PROJECT_CELLS_PER_LAYER} (each cell is a row of the audit "
+                         f"sheet); got {show(nodes)}"))
         nodes = None
     layers_in = row.get("layers")
     if not isinstance(layers_in, list) or not layers_in:
@@ -349,26 +372,33 @@ def _construction(row, where, library, problems) -> ConstructionEntry | None:
                            apply_small_corrections=bool(row.get("apply_small_corrections",
                                                                 False)))
     except HeatLedgerError as exc:
-        key = ".heat_flow" if "heat_flow" in str(exc) else ""
-        problems.append((f"{where}{key}", _msg(exc)))
+        problems.append((where, _msg(exc)))
         return None
     return ConstructionEntry(name, con, area, target, nodes, list(layers_in), where,
-                             str(row.get("notes", "")), size_layer)
+                             str(row.get("notes") or ""), size_layer)
 
 
 def _layer(row, where, library, problems):
     if not isinstance(row, dict):
         problems.append((where, "must be a table with kind, thickness_mm and a material"))
         return None
-    kind = str(row.get("kind", "material")).strip().lower()
+    kind = row.get("kind", "material")
+    kind = kind.strip().lower() if isinstance(kind, str) else kind
     if kind not in LAYER_KINDS:
-        problems.append((f"{where}.kind", f"must be one of {', '.join(map(repr, LAYER_KINDS))}; "
-                         f"got {row.get('kind')!r}"))
+        problems.append((f"{where}.kind", f"must be one of {choices_text(LAYER_KINDS)}; "
+                         f"got {show(row.get('kind'))}"))
         return None
     start = len(problems)
     unknown(row, LAYER_KEYS[kind], where, problems)
-    d_mm = number(row, "thickness_mm", where, problems, positive=True, required=True)
-    name = str(row.get("name", "") or "")
+    d_mm = number(row, "thickness_mm", where, problems, positive=True, required=True,
+                  limit="thickness", unit="mm", scale=1e-3)
+    name = text(row, "name", where, problems) or ""
+    if kind == "air" and d_mm is not None and d_mm > MAX_AIR_LAYER_THICKNESS * 1000.0:
+        label = f"air layer {quote(name)}" if name else "the air layer"
+        problems.append((f"{where}.thickness_mm", f"{label} is {d_mm:g} mm thick; the ISO 6946 "
+                         f"Annex D method covers air layers up to "
+                         f"{MAX_AIR_LAYER_THICKNESS * 1000.0:g} mm: treat a larger space as an "
+                         "unheated space or a room"))
     if len(problems) > start:
         return None
     d = d_mm / 1000.0
@@ -379,16 +409,11 @@ def _layer(row, where, library, problems):
             return None
         return Layer(d, lam, name=name or (mat.name if mat else ""), material=mat)
     if kind == "declared":
-        r = number(row, "resistance", where, problems, positive=True, required=True)
+        r = number(row, "resistance", where, problems, positive=True, required=True,
+                   limit="layer_resistance")
         return None if r is None else Layer(d, resistance=r, name=name)
     if kind == "air":
-        vent = row.get("vent_area_mm2")
-        return AirLayer(d, ventilation=str(row.get("ventilation", "unventilated")),
-                        emissivity_1=number(row, "emissivity_1", where, problems, default=0.9),
-                        emissivity_2=number(row, "emissivity_2", where, problems, default=0.9),
-                        vent_area=None if vent is None else finite(f"{where}.vent_area_mm2",
-                                                                   vent),
-                        name=name)
+        return _air_layer(row, d, name, where, problems)
     mat, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
                                          problems)
     bmat, blam = _material_or_conductivity(row, "bridging_material", "bridging_conductivity",
@@ -404,14 +429,34 @@ def _layer(row, where, library, problems):
     return BridgedLayer(d, [(lam, 1.0 - frac), (blam, frac)], name=label)
 
 
+def _air_layer(row, d, name, where, problems):
+    start = len(problems)
+    eps = [number(row, key, where, problems, default=0.9) for key in ("emissivity_1",
+                                                                       "emissivity_2")]
+    for key, e in zip(("emissivity_1", "emissivity_2"), eps, strict=True):
+        if e is not None and not 0.0 < e <= 1.0:
+            problems.append((f"{where}.{key}", f"must be above 0 and at most 1; got {e:g}"))
+    vent = number(row, "vent_area_mm2", where, problems, non_negative=True)
+    ventilation = row.get("ventilation", "unventilated")
+    if not isinstance(ventilation, str) or ventilation.strip().lower() not in \
+            VENTILATION_CLASSES:
+        problems.append((f"{where}.ventilation", f"must be one of "
+                         f"{choices_text(VENTILATION_CLASSES)}; got {show(ventilation)}"))
+    if len(problems) > start:
+        return None
+    return AirLayer(d, ventilation=ventilation, emissivity_1=eps[0], emissivity_2=eps[1],
+                    vent_area=vent, name=name)
+
+
 def _correction(row, where, layers_in, library, problems):
     if not isinstance(row, dict):
         problems.append((where, "must be a table with kind and layer"))
         return None
-    kind = str(row.get("kind", "")).strip().lower()
+    kind = row.get("kind", "")
+    kind = kind.strip().lower() if isinstance(kind, str) else kind
     if kind not in CORRECTION_KINDS:
         problems.append((f"{where}.kind", f"must be one of "
-                         f"{', '.join(map(repr, CORRECTION_KINDS))}; got {row.get('kind')!r}"))
+                         f"{choices_text(CORRECTION_KINDS)}; got {show(row.get('kind'))}"))
         return None
     unknown(row, CORRECTION_KEYS[kind], where, problems)
     idx = _layer_index(row.get("layer"), layers_in, f"{where}.layer", problems)
@@ -420,15 +465,18 @@ def _correction(row, where, layers_in, library, problems):
     if kind == "air_gaps":
         level = row.get("level")
         if level not in (0, 1, 2) or isinstance(level, bool):
-            problems.append((f"{where}.level", f"must be 0, 1 or 2; got {level!r}"))
+            problems.append((f"{where}.level", f"must be 0, 1 or 2; got {show(level)}"))
             return None
         return AirGapCorrection(idx, int(level))
     if kind == "fasteners":
         _, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
                                            problems)
-        area = number(row, "cross_section_mm2", where, problems, positive=True, required=True)
-        n = number(row, "count_per_m2", where, problems, non_negative=True, required=True)
-        pen = number(row, "penetration_mm", where, problems, positive=True)
+        area = number(row, "cross_section_mm2", where, problems, positive=True, required=True,
+                      limit="area", unit="mm2", scale=1e-6)
+        n = number(row, "count_per_m2", where, problems, non_negative=True, required=True,
+                   limit="count_per_m2")
+        pen = number(row, "penetration_mm", where, problems, positive=True,
+                     limit="thickness", unit="mm", scale=1e-3)
         if lam is None or area is None or n is None:
             return None
         return FastenerCorrection(idx, lam, area * 1e-6, n,
@@ -436,10 +484,15 @@ def _correction(row, where, layers_in, library, problems):
                                   edition=str(row.get("edition", "2017")),
                                   application=str(row.get("application", "wall")))
     p = number(row, "precipitation_mm_per_day", where, problems, non_negative=True,
-                required=True)
+               required=True, limit="precipitation")
     f = number(row, "drainage_factor", where, problems, non_negative=True, required=True)
-    x = number(row, "factor_x", where, problems, non_negative=True, default=0.04)
-    if p is None or f is None:
+    x = number(row, "factor_x", where, problems, non_negative=True, default=0.04,
+               limit="factor_x")
+    if f is not None and f > 1.0:
+        problems.append((f"{where}.drainage_factor", f"must be between 0 and 1 (the share of "
+                         f"the rain that reaches the membrane); got {f:g}"))
+        return None
+    if p is None or f is None or x is None:
         return None
     return InvertedRoofCorrection(idx, p, f, x)
 
@@ -455,22 +508,26 @@ def _layer_index(ref, layers_in, where, problems):
     if isinstance(ref, str) and ref.strip().lower() in names:
         return names.index(ref.strip().lower())
     problems.append((where, f"must name a layer of this construction (its name or number 1 to "
-                     f"{len(layers_in)}); got {ref!r}"))
+                     f"{len(layers_in)}); got {show(ref)}"))
     return None
 
 
 def _material_or_conductivity(row, mat_key, lam_key, where, library, problems):
-    name = row.get(mat_key)
+    name = text(row, mat_key, where, problems)
     lam = row.get(lam_key)
     mat = None
-    if name not in (None, ""):
+    if name is None:
+        return None, None
+    if name:
         try:
             mat = library.get(str(name))
+        except MaterialWithheld:  # its own entry's problem is reported there
+            return None, None
         except HeatLedgerError as exc:
             problems.append((f"{where}.{mat_key}", str(exc)))
             return None, None
     if lam is not None:
-        value = number(row, lam_key, where, problems, positive=True)
+        value = number(row, lam_key, where, problems, positive=True, limit="conductivity")
         return mat, value
     if mat is None:
         problems.append((f"{where}.{mat_key}", f"give {mat_key} (a library name) or {lam_key} "
@@ -484,7 +541,9 @@ def _req(row, key, where):
     if value is None:
         raise HeatLedgerError("is required", where=f"{where}.{key}")
     if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise HeatLedgerError(f"must be a number; got {value!r}", where=f"{where}.{key}")
+        kind = " (text)" if isinstance(value, str) else ""
+        raise HeatLedgerError(f"must be a number; got {show(value)}{kind}",
+                              where=f"{where}.{key}")
     return value
 
 

@@ -15,7 +15,7 @@ from __future__ import annotations
 
 from ._constants import STEFAN_BOLTZMANN as Stefan_Boltzmann
 from ._constants import ZERO_CELSIUS as zero_Celsius
-from ._validate import choice, finite, fraction, non_negative
+from ._validate import choice, fraction, non_negative, within
 
 __all__ = [
     "HEAT_FLOWS",
@@ -124,7 +124,7 @@ def surface_resistance_calc(
     heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
     eps = fraction("emissivity", emissivity)
     default_t = 20.0 if side == "inside" else 0.0
-    t_m = default_t if temp_mean is None else finite("temp_mean", temp_mean)
+    t_m = default_t if temp_mean is None else within("temp_mean", temp_mean, "temperature")
     h_r = eps * radiative_coefficient_black_body(t_m)
     if side == "inside":
         h_c = _HCI[heat_flow]
@@ -155,7 +155,5 @@ def radiative_coefficient_black_body(temp_mean: float) -> float:
     >>> round(radiative_coefficient_black_body(10.0), 2)
     5.15
     """
-    t_k = finite("temp_mean", temp_mean) + zero_Celsius
-    if t_k <= 0.0:
-        raise ValueError("temp_mean must be above absolute zero")
+    t_k = within("temp_mean", temp_mean, "temperature") + zero_Celsius
     return 4.0 * Stefan_Boltzmann * t_k**3

@@ -189,6 +189,9 @@ class WindowResult:
         Whole-window thermal transmittance ``U_w``, unrounded. [W/(m2 K)]
     method : str
         What ran, for the audit trail. [-]
+    warnings : tuple of str
+        Input that is probably a slip: a frame area larger than the glazing area, or a
+        U-value above 7 W/(m2 K). [-]
     """
 
     glazing_area: float
@@ -211,6 +214,7 @@ class WindowResult:
     frame_fraction: float
     u_value: float
     method: str = "EN ISO 10077-1:2017 clause 6, whole window from glazing, frame and edge [M]"
+    warnings: tuple = ()
 
 
 def window(
@@ -276,9 +280,9 @@ def window(
     EN ISO 10077-1:2017, clause 6 [M: recalled].
     """
     shape = _validate.choice("glazing_shape", glazing_shape, PERIMETER_SHAPES)
-    ag = _non_negative_array("glazing_area", glazing_area, "m2")
-    af = _non_negative_array("frame_area", frame_area, "m2")
-    ap = _non_negative_array("panel_area", panel_area, "m2")
+    ag = _area_array("glazing_area", glazing_area)
+    af = _area_array("frame_area", frame_area)
+    ap = _area_array("panel_area", panel_area)
     ug = _non_negative_array("glazing_u", glazing_u, "W/(m2 K)")
     uf = _non_negative_array("frame_u", frame_u, "W/(m2 K)")
     up = _non_negative_array("panel_u", panel_u, "W/(m2 K)")
@@ -295,7 +299,7 @@ def window(
     _check_perimeter("glazing_perimeter", lg, "glazing_area", ag, shape)
     _check_perimeter("panel_perimeter", lp, "panel_area", ap, shape)
     if window_area is not None:
-        aw = _non_negative_array("window_area", window_area, "m2")
+        aw = _area_array("window_area", window_area)
         too_big = af > aw
         if np.any(too_big):
             i = int(np.argmax(np.broadcast_to(too_big, np.broadcast(af, aw).shape).ravel()))
@@ -341,6 +345,7 @@ def window(
         heat_loss_coefficient=_out(h),
         frame_fraction=_out(af / total),
         u_value=_out(uw),
+        warnings=_window_warnings(ag, af, uw),
     )
 
 
@@ -358,12 +363,15 @@ class DeclaredWindow:
         Overall window area the declaration refers to, if stated. [m2]
     method : str
         Recorded method text. [-]
+    warnings : tuple of str
+        Input that is probably a slip (a U-value above 7 W/(m2 K)). [-]
     """
 
     u_value: float
     source: str
     area: float | None = None
     method: str = field(default="declared whole-window U-value (not calculated here)")
+    warnings: tuple = ()
 
 
 def declared_window(u_value, *, source: str, area=None) -> DeclaredWindow:
@@ -400,10 +408,13 @@ def declared_window(u_value, *, source: str, area=None) -> DeclaredWindow:
     if not isinstance(source, str) or not source.strip():
         raise HeatLedgerError(
             "source of a declared window U-value must be a non-empty text naming the "
-            f"declaration; got {source!r}"
+            f"declaration; got {_validate.show(source)}"
         )
-    a = None if area is None else _validate.positive("area", area, "m2")
-    return DeclaredWindow(u_value=u, source=source.strip(), area=a)
+    a = None if area is None else _validate.within(
+        "area", _validate.positive("area", area, "m2"), "area")
+    warn = _validate.opening_u_warning("declared", u)
+    return DeclaredWindow(u_value=u, source=source.strip(), area=a,
+                          warnings=(warn,) if warn else ())
 
 
 def window_with_shutter_u(window_u_value, shutter_resistance):
@@ -508,8 +519,8 @@ def psi_glazing_table(path=None) -> tuple[PsiGlazingRow, ...]:
     needed = {"frame", "glazing", "spacer", "psi_glazing", "source"}
     if reader.fieldnames is None or not needed <= set(reader.fieldnames):
         raise HeatLedgerError(
-            f"{where}: the psi_g table needs the columns {sorted(needed)}; "
-            f"got {reader.fieldnames}"
+            f"{where}: the psi_g table needs the columns {', '.join(sorted(needed))}; "
+            f"got {', '.join(reader.fieldnames or []) or 'none'}"
         )
     rows: list[PsiGlazingRow] = []
     seen: set[tuple[str, str, str]] = set()
@@ -519,11 +530,13 @@ def psi_glazing_table(path=None) -> tuple[PsiGlazingRow, ...]:
         if not all(key) or not source:
             raise HeatLedgerError(
                 f"{where}, data row {n - 1}: frame, glazing, spacer and source must all be "
-                f"filled in; got {dict(rec)}"
+                "filled in; got " + ", ".join(f"{k} {_validate.show(v or '')}"
+                                             for k, v in rec.items() if k is not None)
             )
         psi = _validate.finite(f"{where}, data row {n - 1}: psi_glazing", rec["psi_glazing"])
         if key in seen:
-            raise HeatLedgerError(f"{where}, data row {n - 1}: the key {key} appears twice")
+            raise HeatLedgerError(f"{where}, data row {n - 1}: the combination of frame, "
+                                  f"glazing, spacer {', '.join(key)} appears twice")
         seen.add(key)  # type: ignore[arg-type]
         rows.append(PsiGlazingRow(*key, psi_glazing=psi, source=source))
     return tuple(rows)
@@ -573,11 +586,36 @@ def psi_glazing_default(frame: str, glazing: str, *, spacer: str = "conventional
     for row in rows:
         if (row.frame, row.glazing, row.spacer) == key:
             return row.psi_glazing
-    listed = "; ".join(f"({r.frame!r}, {r.glazing!r}, spacer={r.spacer!r})" for r in rows)
+    listed = "; ".join(f"{r.frame}, {r.glazing}, {r.spacer}" for r in rows)
     raise HeatLedgerError(
-        f"no default psi_g for frame={frame!r}, glazing={glazing!r}, spacer={spacer!r}; "
-        f"the table has: {listed}"
+        f"no default psi_g for frame {_validate.show(frame)}, glazing "
+        f"{_validate.show(glazing)}, spacer {_validate.show(spacer)}; the table has: {listed} "
+        "(frame, glazing, spacer)"
     )
+
+
+def _area_array(name: str, value) -> np.ndarray:
+    """An area input [m2]: finite, not negative, within the physical limit."""
+    arr = _non_negative_array(name, value, "m2")
+    if arr.size and float(arr.max()) > _validate.LIMITS["area"].high:
+        _validate.within(name, float(arr.max()), "area")
+    return arr
+
+
+def _window_warnings(ag, af, uw) -> tuple:
+    """Slips in a window's input: frame larger than glazing, U above 7 W/(m2 K)."""
+    ag, af, uw = np.broadcast_arrays(ag, af, uw)
+    out = []
+    many = ag.size > 1
+    for bad, text in ((af > ag, lambda i: _validate.frame_glazing_warning(
+            "", float(af.flat[i]), float(ag.flat[i]))),
+                      (uw > _validate.OPENING_U_HIGH, lambda i: _validate.opening_u_warning(
+                          "", float(uw.flat[i])))):
+        if np.any(bad):
+            i = int(np.argmax(bad.ravel()))
+            where = f" (first at item {i + 1} of {ag.size})" if many else ""
+            out.append(text(i) + where)
+    return tuple(out)
 
 
 def perimeter_lower_bound(area, shape: str = "rectilinear"):

@@ -95,8 +95,8 @@ class FinBase:
         -------
         FinResult
         """
-        t_b = v.finite("base_temperature", base_temperature)
-        t_inf = v.finite("ambient", ambient)
+        t_b = v.within("base_temperature", base_temperature, "temperature")
+        t_inf = v.within("ambient", ambient, "temperature")
         theta_b = t_b - t_inf
         g_b, g_l = self._conductances()
         theta_l = (self.tip_temperature - t_inf) if g_l else 0.0
@@ -137,8 +137,8 @@ class FinBase:
         -------
         FinTemperatures
         """
-        t_b = v.finite("base_temperature", base_temperature)
-        t_inf = v.finite("ambient", ambient)
+        t_b = v.within("base_temperature", base_temperature, "temperature")
+        t_inf = v.within("ambient", ambient, "temperature")
         if nodes is not None:
             fv = self.finite_volume(t_b, t_inf, nodes=nodes)
             tip = self._length_axis()[1]
@@ -148,8 +148,10 @@ class FinBase:
                                    method=f"finite volume: {fv.settings['cells']} cells",
                                    fv=fv, warnings=tuple(dict.fromkeys(
                                        self._warnings_notes(None)[0] + fv.warnings)))
-        if isinstance(points, bool) or not isinstance(points, (int, np.integer)) or points < 2:
-            raise HeatLedgerError(f"points must be a whole number >= 2; got {points!r}")
+        if isinstance(points, bool) or not isinstance(points, (int, np.integer)) or not (
+                2 <= points <= v.MAX_CELLS):
+            raise HeatLedgerError(f"points must be a whole number from 2 to {v.MAX_CELLS}; got "
+                                  f"{v.show(points)}")
         start, tip = self._length_axis()
         x = np.linspace(start, tip, int(points))
         theta_b = t_b - t_inf
@@ -195,9 +197,12 @@ class FinBase:
         -------
         FinFVResult
         """
+        if isinstance(nodes, (int, np.integer)) and nodes > v.MAX_CELLS:
+            raise HeatLedgerError(f"nodes must be at most {v.MAX_CELLS} (the engine's memory "
+                                  f"bound; a fin needs far fewer); got {nodes}")
         setup = self._fv_setup()
         if h is not None and setup["tip"] == "infinite":
-            raise HeatLedgerError("tip='infinite' takes only the fin's constant h")
+            raise HeatLedgerError('tip "infinite" takes only the fin\'s constant h')
         return solve_fin_fv(
             setup.pop("length"), self.conductivity, self.h if h is None else h,
             base_temperature=base_temperature, ambient=ambient, nodes=nodes,
@@ -210,7 +215,7 @@ class FinBase:
     def _need_linear_tip(self, what: str) -> None:
         if getattr(self, "tip", None) == "temperature":
             raise HeatLedgerError(
-                f"{what} of a fin with tip='temperature' depends on the base and ambient "
+                f'{what} of a fin with tip "temperature" depends on the base and ambient '
                 "temperatures; use evaluate(base_temperature, ambient)"
             )
 

@@ -95,17 +95,18 @@ class AnnularFin(FinBase):
                 f"inner_radius must be below outer_radius; got inner_radius="
                 f"{self.inner_radius:g} m, outer_radius={self.outer_radius:g} m"
             )
-        _set(self, "thickness", v.positive("thickness", self.thickness, "m"))
-        _set(self, "conductivity", v.positive("conductivity", self.conductivity, "W/(m K)"))
-        _set(self, "h", v.positive("h", self.h, "W/(m2 K)"))
+        _set(self, "thickness", v.positive_within("thickness", self.thickness, "thickness", "m"))
+        _set(self, "conductivity", v.positive_within("conductivity", self.conductivity,
+                                                     "conductivity", "W/(m K)"))
+        _set(self, "h", v.positive_within("h", self.h, "h", "W/(m2 K)"))
         _set(self, "tip", v.choice("tip", self.tip, ANNULAR_TIPS))
         if not isinstance(self.corrected_length, (bool, np.bool_)):
             raise HeatLedgerError(
-                f"corrected_length must be True or False; got {self.corrected_length!r}"
+                f"corrected_length must be true or false; got {v.show(self.corrected_length)}"
             )
         if self.corrected_length and self.tip != "convective":
             raise HeatLedgerError(
-                f"corrected_length applies to tip='convective'; got tip={self.tip!r}"
+                f'corrected_length applies to tip "convective"; got tip {v.show(self.tip)}'
             )
 
     tip_temperature = None  # no prescribed-temperature rim for annular fins

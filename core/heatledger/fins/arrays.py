@@ -71,12 +71,12 @@ class FinArray:
             )
         if getattr(self.fin, "tip", None) == "temperature":
             raise HeatLedgerError(
-                "a fin array needs a fin with tip 'convective', 'adiabatic' or 'infinite'; "
-                "got tip='temperature'"
+                'a fin array needs a fin with tip "convective", "adiabatic" or "infinite"; '
+                'got tip "temperature"'
             )
         c = self.count
         if isinstance(c, bool) or not isinstance(c, (int, np.integer)) or c < 0:
-            raise HeatLedgerError(f"count must be a whole number >= 0; got {c!r}")
+            raise HeatLedgerError(f"count must be a whole number >= 0; got {v.show(c)}")
         _set(self, "count", int(c))
         _set(self, "base_area", v.positive("base_area", self.base_area, "m2"))
         _set(self, "contact_resistance",
@@ -156,8 +156,8 @@ class FinArray:
         -------
         FinArrayResult
         """
-        t_b = v.finite("base_temperature", base_temperature)
-        t_inf = v.finite("ambient", ambient)
+        t_b = v.within("base_temperature", base_temperature, "temperature")
+        t_inf = v.within("ambient", ambient, "temperature")
         theta = t_b - t_inf
         f = self.fin
         c1 = self.contact_factor
@@ -219,8 +219,8 @@ class FinArray:
             raise HeatLedgerError("count is 0: fin length cannot change the heat rate")
         if getattr(self.fin, "tip", None) == "infinite":
             raise HeatLedgerError(
-                "a fin with tip='infinite' has no length to size; use tip='adiabatic' or "
-                "'convective'"
+                'a fin with tip "infinite" has no length to size; use tip "adiabatic" or '
+                '"convective"'
             )
         long = _ML_LONG / self.fin.m
         lo = 1e-9 * long
@@ -296,7 +296,7 @@ class FinArray:
             if isinstance(max_count, bool) or not isinstance(max_count, (int, np.integer)) \
                     or max_count < 0:
                 raise HeatLedgerError(f"max_count must be a whole number >= 0; got "
-                                      f"{max_count!r}")
+                                      f"{v.show(max_count)}")
             limit = min(limit, int(max_count))
         per_fin = f.h * (f.efficiency / self.contact_factor * f.fin_area - f.cross_section_area)
         bare = f.h * self.base_area
@@ -332,7 +332,8 @@ class FinArray:
     # ---------------------------------------------------------------- internals
     def _target(self, target, t_b, t_inf):
         target = v.finite("target_heat_rate", target)
-        theta = v.finite("base_temperature", t_b) - v.finite("ambient", t_inf)
+        theta = (v.within("base_temperature", t_b, "temperature")
+                 - v.within("ambient", t_inf, "temperature"))
         if theta == 0.0 or target == 0.0 or math.copysign(1.0, target) != math.copysign(
                 1.0, theta):
             raise HeatLedgerError(

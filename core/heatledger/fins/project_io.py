@@ -54,7 +54,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .._projectio import number, unknown
+from .._validate import choices_text, show
 from ..errors import HeatLedgerError
+from ..materials import MaterialWithheld
 from .annular import ANNULAR_TIPS, AnnularFin
 from .arrays import FinArray
 from .fv import PowerLawCoefficient
@@ -77,6 +79,9 @@ FV_KEYS = ("cells", "emissivity", "temp_surroundings", "h_coefficient", "h_expon
 DEFAULT_FV_CELLS = 40
 #: Most control volumes a project may ask for (each is a row of the calculation sheet). [-]
 MAX_FV_CELLS = 500
+
+#: A fin dimension in mm, within the physical limit of a thickness (10 m).
+_MM = {"limit": "thickness", "unit": "mm", "scale": 1e-3}
 
 
 @dataclass(frozen=True)
@@ -211,7 +216,7 @@ def fins_from_dict(rows, library, problems) -> list:
         if entry is None:
             continue
         if entry.name.lower() in seen:
-            problems.append((f"{where}.name", f"fin name {entry.name!r} is used twice; names "
+            problems.append((f"{where}.name", f"fin name {show(entry.name)} is used twice; names "
                              "must be unique"))
             continue
         seen.add(entry.name.lower())
@@ -284,23 +289,23 @@ def _entry(row, where, library, problems):
         name = ""
     kind = row.get("kind")
     if kind not in FIN_KINDS:
-        problems.append((f"{where}.kind", f"must be one of {', '.join(map(repr, FIN_KINDS))}; "
-                         f"got {kind!r}"))
+        problems.append((f"{where}.kind", f"must be one of {choices_text(FIN_KINDS)}; "
+                         f"got {show(kind)}"))
         unknown(row, sorted(set(FIN_KEYS["straight"]) | set(FIN_KEYS["annular"])), where,
                  problems)
         return None
     unknown(row, FIN_KEYS[kind], where, problems)
     material, k = _conductivity(row, where, library, problems)
-    h = number(row, "h", where, problems, required=True, positive=True)
+    h = number(row, "h", where, problems, required=True, positive=True, limit="h")
     t_b = number(row, "base_temperature", where, problems, required=True, above_absolute_zero=True)
     t_inf = number(row, "ambient", where, problems, required=True, above_absolute_zero=True)
     corrected = row.get("corrected_length", False)
     if not isinstance(corrected, bool):
         problems.append((f"{where}.corrected_length", f"must be true or false; got "
-                         f"{corrected!r}"))
+                         f"{show(corrected)}"))
     notes = row.get("notes", "")
     if not isinstance(notes, str):
-        problems.append((f"{where}.notes", f"must be text; got {notes!r}"))
+        problems.append((f"{where}.notes", f"must be text; got {show(notes)}"))
     if kind == "straight":
         dims = _straight_inputs(row, where, problems)
     else:
@@ -309,7 +314,7 @@ def _entry(row, where, library, problems):
     array_values = None if array_in is None else _array_inputs(array_in, f"{where}.array",
                                                                   problems)
     fv = _fv(row, where, problems)
-    if len(problems) > start:
+    if len(problems) > start or k is None:  # no k: its material's problem is reported
         return None
     try:
         if kind == "straight":
@@ -327,7 +332,7 @@ def _entry(row, where, library, problems):
         if array is None:
             return None
     if fv.h_law is not None and getattr(fin, "tip", None) == "infinite":
-        problems.append((f"{where}.fv.h_coefficient", "tip = 'infinite' takes only the fin's "
+        problems.append((f"{where}.fv.h_coefficient", 'tip = "infinite" takes only the fin\'s '
                          "constant h; use a finite tip with h_coefficient"))
         return None
     return FinEntry(name=name.strip(), fin=fin, array=array, base_temperature=t_b,
@@ -336,10 +341,10 @@ def _entry(row, where, library, problems):
 
 
 def _straight_inputs(row, where, problems) -> dict:
-    length = number(row, "length_mm", where, problems, required=True, positive=True)
-    t = number(row, "thickness_mm", where, problems, positive=True)
-    d = number(row, "diameter_mm", where, problems, positive=True)
-    w = number(row, "width_mm", where, problems, positive=True)
+    length = number(row, "length_mm", where, problems, required=True, positive=True, **_MM)
+    t = number(row, "thickness_mm", where, problems, positive=True, **_MM)
+    d = number(row, "diameter_mm", where, problems, positive=True, **_MM)
+    w = number(row, "width_mm", where, problems, positive=True, **_MM)
     if (row.get("thickness_mm") is None) == (row.get("diameter_mm") is None):
         got = "both" if row.get("thickness_mm") is not None else "neither"
         problems.append((f"{where}.thickness_mm", "give exactly one of thickness_mm (a plate "
@@ -351,11 +356,11 @@ def _straight_inputs(row, where, problems) -> dict:
     profile = _choice(row, "profile", STRAIGHT_PROFILES, "rectangular", where, problems)
     t_l = number(row, "tip_temperature", where, problems, above_absolute_zero=True)
     if tip == "temperature" and row.get("tip_temperature") is None:
-        problems.append((f"{where}.tip_temperature", "tip = 'temperature' needs "
+        problems.append((f"{where}.tip_temperature", 'tip = "temperature" needs '
                          "tip_temperature (degC)"))
     if tip != "temperature" and row.get("tip_temperature") is not None:
-        problems.append((f"{where}.tip_temperature", f"is used only with tip = 'temperature'; "
-                         f"got tip = {tip!r}"))
+        problems.append((f"{where}.tip_temperature", f'is used only with tip = "temperature"; '
+                         f"got tip = {show(tip)}"))
     out = {"length": None if length is None else length / 1000.0, "tip": tip,
            "profile": profile, "tip_temperature": t_l}
     if t is not None:
@@ -367,9 +372,9 @@ def _straight_inputs(row, where, problems) -> dict:
 
 
 def _annular_inputs(row, where, problems) -> dict:
-    d1 = number(row, "tube_diameter_mm", where, problems, required=True, positive=True)
-    d2 = number(row, "fin_diameter_mm", where, problems, required=True, positive=True)
-    t = number(row, "thickness_mm", where, problems, required=True, positive=True)
+    d1 = number(row, "tube_diameter_mm", where, problems, required=True, positive=True, **_MM)
+    d2 = number(row, "fin_diameter_mm", where, problems, required=True, positive=True, **_MM)
+    t = number(row, "thickness_mm", where, problems, required=True, positive=True, **_MM)
     if d1 is not None and d2 is not None and not d1 < d2:
         problems.append((f"{where}.fin_diameter_mm", f"must exceed tube_diameter_mm "
                          f"({d1:g} mm); got {d2:g} mm"))
@@ -384,9 +389,11 @@ def _array_inputs(data, where, problems):
     start = len(problems)
     count = data.get("count")
     if isinstance(count, bool) or not isinstance(count, int) or count < 0:
-        problems.append((f"{where}.count", f"must be a whole number >= 0; got {count!r}"))
-    area = number(data, "base_area", where, problems, required=True, positive=True)
-    rc = number(data, "contact_resistance", where, problems, non_negative=True, default=0.0)
+        problems.append((f"{where}.count", f"must be a whole number >= 0; got {show(count)}"))
+    area = number(data, "base_area", where, problems, required=True, positive=True,
+                  limit="area")
+    rc = number(data, "contact_resistance", where, problems, non_negative=True, default=0.0,
+                limit="resistance")
     target = number(data, "target_heat_rate", where, problems)
     if target is not None and target == 0.0:
         problems.append((f"{where}.target_heat_rate", "must not be zero (leave it out for no "
@@ -411,14 +418,14 @@ def _fv(row, where, problems) -> FinFVSettings:
     cells = data.get("cells", DEFAULT_FV_CELLS)
     if isinstance(cells, bool) or not isinstance(cells, int) or not 2 <= cells <= MAX_FV_CELLS:
         problems.append((f"{sub}.cells", f"must be a whole number from 2 to {MAX_FV_CELLS}; "
-                         f"got {cells!r}"))
+                         f"got {show(cells)}"))
         cells = DEFAULT_FV_CELLS
     eps = number(data, "emissivity", sub, problems, non_negative=True, default=0.0)
     if eps is not None and eps > 1.0:
         problems.append((f"{sub}.emissivity", f"must be between 0 and 1; got {eps:g}"))
         eps = 0.0
     t_sur = number(data, "temp_surroundings", sub, problems, above_absolute_zero=True)
-    c = number(data, "h_coefficient", sub, problems, positive=True)
+    c = number(data, "h_coefficient", sub, problems, positive=True, limit="h")
     n = number(data, "h_exponent", sub, problems, non_negative=True)
     law = None
     if (data.get("h_coefficient") is None) != (data.get("h_exponent") is None):
@@ -436,6 +443,10 @@ def _fv(row, where, problems) -> FinFVSettings:
 def _conductivity(row, where, library, problems):
     name = row.get("material")
     lam = row.get("conductivity")
+    if name not in (None, "") and not isinstance(name, str):
+        problems.append((f"{where}.material", f"must be text (a library name); got "
+                         f"{show(name)}"))
+        return None, None
     if name not in (None, "") and lam is not None:
         problems.append((f"{where}.conductivity", "give material (a library name) or "
                          "conductivity (W/(m K)), not both"))
@@ -443,6 +454,8 @@ def _conductivity(row, where, library, problems):
     if name not in (None, ""):
         try:
             mat = library.get(str(name))
+        except MaterialWithheld:  # its own entry's problem is reported there
+            return None, None
         except HeatLedgerError as exc:
             problems.append((f"{where}.material", str(exc)))
             return None, None
@@ -451,7 +464,8 @@ def _conductivity(row, where, library, problems):
         problems.append((f"{where}.material", "give material (a library name) or "
                          "conductivity (W/(m K))"))
         return None, None
-    return None, number(row, "conductivity", where, problems, positive=True)
+    return None, number(row, "conductivity", where, problems, positive=True,
+                        limit="conductivity")
 
 
 def _sub(row, key, allowed, where, problems):
@@ -468,8 +482,8 @@ def _sub(row, key, allowed, where, problems):
 def _choice(row, key, choices, default, where, problems):
     value = row.get(key, default)
     if value not in choices:
-        problems.append((f"{where}.{key}", f"must be one of {', '.join(map(repr, choices))}; "
-                         f"got {value!r}"))
+        problems.append((f"{where}.{key}", f"must be one of {choices_text(choices)}; "
+                         f"got {show(value)}"))
         return default
     return value
 

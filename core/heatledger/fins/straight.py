@@ -130,8 +130,9 @@ class StraightFin(FinBase):
     def __post_init__(self) -> None:
         _set = object.__setattr__
         _set(self, "length", v.positive("length", self.length, "m"))
-        _set(self, "conductivity", v.positive("conductivity", self.conductivity, "W/(m K)"))
-        _set(self, "h", v.positive("h", self.h, "W/(m2 K)"))
+        _set(self, "conductivity", v.positive_within("conductivity", self.conductivity,
+                                                     "conductivity", "W/(m K)"))
+        _set(self, "h", v.positive_within("h", self.h, "h", "W/(m2 K)"))
         if (self.thickness is None) == (self.diameter is None):
             got = "both" if self.thickness is not None else "neither"
             raise HeatLedgerError(
@@ -139,13 +140,15 @@ class StraightFin(FinBase):
                 f"got {got}"
             )
         if self.thickness is not None:
-            _set(self, "thickness", v.positive("thickness", self.thickness, "m"))
-            _set(self, "width", v.positive("width", self.width, "m"))
+            _set(self, "thickness", v.positive_within("thickness", self.thickness, "thickness",
+                                                      "m"))
+            _set(self, "width", v.positive_within("width", self.width, "thickness", "m"))
         else:
-            _set(self, "diameter", v.positive("diameter", self.diameter, "m"))
+            _set(self, "diameter", v.positive_within("diameter", self.diameter, "thickness",
+                                                     "m"))
             if float(self.width) != 1.0:
                 raise HeatLedgerError(
-                    f"width applies to plate fins only; got width={self.width!r} with a "
+                    f"width applies to plate fins only; got width {v.show(self.width)} with a "
                     "diameter (pin fin)"
                 )
         _set(self, "tip", v.choice("tip", self.tip, STRAIGHT_TIPS))
@@ -153,28 +156,30 @@ class StraightFin(FinBase):
         if self.tip == "temperature":
             if self.tip_temperature is None:
                 raise HeatLedgerError(
-                    "tip='temperature' needs tip_temperature (the tip temperature in degC); "
-                    "got None"
+                    'tip "temperature" needs tip_temperature (the tip temperature in degC); '
+                    "it is not given"
                 )
-            _set(self, "tip_temperature", v.finite("tip_temperature", self.tip_temperature))
+            _set(self, "tip_temperature", v.within("tip_temperature", self.tip_temperature,
+                                                   "temperature"))
         elif self.tip_temperature is not None:
             raise HeatLedgerError(
-                f"tip_temperature is used only with tip='temperature'; got tip={self.tip!r}"
+                'tip_temperature is used only with tip "temperature"; got tip '
+                f"{v.show(self.tip)}"
             )
         if not isinstance(self.corrected_length, (bool, np.bool_)):
             raise HeatLedgerError(
-                f"corrected_length must be True or False; got {self.corrected_length!r}"
+                f"corrected_length must be true or false; got {v.show(self.corrected_length)}"
             )
         if self.corrected_length and (self.tip != "convective"
                                       or self.profile != "rectangular"):
             raise HeatLedgerError(
-                "corrected_length applies to tip='convective' on a rectangular profile; got "
-                f"tip={self.tip!r}, profile={self.profile!r}"
+                'corrected_length applies to tip "convective" on a rectangular profile; got '
+                f"tip {v.show(self.tip)}, profile {v.show(self.profile)}"
             )
         if self.profile != "rectangular" and self.tip not in ("convective", "adiabatic"):
             raise HeatLedgerError(
-                f"a {self.profile} fin ends in an edge or point: tip must be 'convective' or "
-                f"'adiabatic' (no tip area); got {self.tip!r}"
+                f'a {self.profile} fin ends in an edge or point: tip must be "convective" or '
+                f'"adiabatic" (no tip area); got {v.show(self.tip)}'
             )
 
     # ---------------------------------------------------------------- geometry
@@ -364,7 +369,7 @@ class StraightFin(FinBase):
         if self.tip == "infinite" and ml < INFINITE_FIN_ML:
             warns.append(
                 f"mL = {ml:.3g} < {INFINITE_FIN_ML}: the infinite-fin form overstates the heat "
-                "rate of this finite fin by more than 1 %; use tip='adiabatic' or 'convective'"
+                'rate of this finite fin by more than 1 %; use tip "adiabatic" or "convective"'
             )
         size = self.thickness if self.shape == "plate" else self.diameter / 2.0
         if self.corrected_length and self.h * size / self.conductivity > CORRECTED_LENGTH_LIMIT:

@@ -193,7 +193,8 @@ def suspended_floor(
     """
     outline = _validate.choice("exposed_outline", exposed_outline, EXPOSED_OUTLINES)
     a, p = _scalar_area_perimeter(area, exposed_perimeter, outline, "suspended_floor")
-    w = _validate.non_negative("wall_thickness", wall_thickness, "m")
+    w = _validate.within("wall_thickness", _validate.non_negative(
+        "wall_thickness", wall_thickness, "m"), "wall_thickness")
     r_deck = _validate.non_negative("deck_resistance", deck_resistance, "m2 K/W")
     h = _validate.non_negative("underfloor_height", underfloor_height, "m")
     if h > SUSPENDED_FLOOR_MAX_HEIGHT:
@@ -401,7 +402,8 @@ def heated_basement(
     """
     outline = _validate.choice("exposed_outline", exposed_outline, EXPOSED_OUTLINES)
     a, p = _scalar_area_perimeter(area, exposed_perimeter, outline, "heated_basement")
-    w = _validate.non_negative("wall_thickness", wall_thickness, "m")
+    w = _validate.within("wall_thickness", _validate.non_negative(
+        "wall_thickness", wall_thickness, "m"), "wall_thickness")
     rf = _validate.non_negative("floor_resistance", floor_resistance, "m2 K/W")
     rw = _validate.non_negative("wall_resistance", wall_resistance, "m2 K/W")
     z = _validate.positive("depth", depth, "m")

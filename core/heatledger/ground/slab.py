@@ -63,8 +63,9 @@ class EdgeInsulation:
                            _validate.positive("edge insulation extent", self.extent, "m"))
         object.__setattr__(self, "resistance", _validate.non_negative(
             "edge insulation resistance", self.resistance, "m2 K/W"))
-        object.__setattr__(self, "thickness", _validate.positive(
-            "edge insulation thickness", self.thickness, "m"))
+        object.__setattr__(self, "thickness", _validate.within(
+            "edge insulation thickness", _validate.positive(
+                "edge insulation thickness", self.thickness, "m"), "thickness"))
 
 
 @dataclass(frozen=True)
@@ -274,6 +275,8 @@ def slab_on_ground(
     outline = _validate.choice("exposed_outline", exposed_outline, EXPOSED_OUTLINES)
     a, p = _area_perimeter(area, exposed_perimeter, outline)
     w = _non_negative_array("wall_thickness", wall_thickness, "m")
+    if w.size:
+        _validate.within("wall_thickness", float(w.max()), "wall_thickness")
     rf = _non_negative_array("floor_resistance", floor_resistance, "m2 K/W")
     lam = _validate.positive("soil_conductivity", soil_conductivity, "W/(m K)")
 
@@ -288,7 +291,8 @@ def slab_on_ground(
     if edge_insulation is not None:
         if not isinstance(edge_insulation, EdgeInsulation):
             raise HeatLedgerError(
-                f"edge_insulation must be an EdgeInsulation(...) or None; got {edge_insulation!r}"
+                "edge_insulation must be an EdgeInsulation or left out; got "
+                f"{_validate.show(edge_insulation)}"
             )
         r_extra = edge_insulation.resistance - edge_insulation.thickness / lam
         if r_extra < 0.0:

@@ -126,19 +126,23 @@ def _area_perimeter(area, perimeter, outline: str):
     p = _non_negative_array("exposed_perimeter", perimeter, "m")
     if np.any(a <= 0.0):
         raise HeatLedgerError("area must be greater than zero; got 0 m2")
+    if a.size:
+        _validate.within("area", float(a.max()), "area")
     if np.any(p <= 0.0):
         raise HeatLedgerError(
             "exposed_perimeter must be greater than zero; got 0 m (a floor with no exposed "
             "edge is not a ground-floor heat loss of this method)"
         )
+    if p.size:
+        _validate.within("exposed_perimeter", float(p.min()), "perimeter")
+        _validate.within("exposed_perimeter", float(p.max()), "perimeter")
     if outline != "partial":
         try:
             _check_perimeter("exposed_perimeter", p, "area", a, outline)
         except HeatLedgerError as exc:
             raise HeatLedgerError(
-                f"{exc} (the whole outline was taken as exposed; pass "
-                "exposed_outline='partial' if party walls or unheated neighbours leave part "
-                "of it unexposed)"
+                f'{exc} (the whole outline was taken as exposed; give exposed_outline '
+                '"partial" if party walls or unheated neighbours leave part of it unexposed)'
             ) from None
     return a, p
 

@@ -15,6 +15,7 @@ import numpy as np
 from .. import _validate
 from .._arrays import non_negative_array, out
 from .._constants import GAS_CONSTANT, SECONDS_PER_HOUR, STANDARD_ATMOSPHERE, ZERO_CELSIUS
+from .._validate import show as _show
 from ..errors import HeatLedgerError
 
 # ----------------------------------------------------------------------------- air properties
@@ -176,7 +177,7 @@ def _ventilation(v: Ventilation, volume: float) -> VentilationFlows:
     eff = inf + vent * (1.0 - v.heat_recovery) + top_up
     c = AIR_DENSITY * AIR_SPECIFIC_HEAT / _SECONDS_PER_HOUR
     method = (
-        f"basis {v.basis!r}; V_eff = V_inf + V_vent (1 - eta) + max(0, n_min V - V_inf - "
+        f"basis {_show(v.basis)}; V_eff = V_inf + V_vent (1 - eta) + max(0, n_min V - V_inf - "
         f"V_vent); eta {v.heat_recovery:g}; minimum air change "
         + ("governs" if top_up > 0.0 else "met")
         + "; EN 12831-1 style [M]"

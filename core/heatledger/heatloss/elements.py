@@ -14,6 +14,7 @@ from typing import Any
 import numpy as np
 
 from .. import _validate
+from .._validate import show as _show
 from ..errors import HeatLedgerError
 from ..windows import WINDOW_AREA_RTOL
 
@@ -107,7 +108,7 @@ class AdjacentRoom:
     def describe(self) -> str:
         """Text for the breakdown. [-]"""
         if self.room is not None:
-            return f"room {self.room!r}"
+            return f"room {_show(self.room)}"
         return f"adjacent space at {self.temperature:g} degC"
 
 
@@ -199,19 +200,21 @@ class PointBridge:
 
 def _check_name(ctx: str, what: str, name, seen: set[str]) -> str:
     if not isinstance(name, str) or not name.strip():
-        raise HeatLedgerError(f"{ctx}: every {what} needs a non-empty name; got {name!r}")
+        raise HeatLedgerError(f"{ctx}: every {what} needs a non-empty name; got "
+                              f"{_show(name)}")
     if name in seen:
-        raise HeatLedgerError(f"{ctx}: the name {name!r} is used twice; names of elements "
-                              "and thermal bridges must be unique within a room")
+        raise HeatLedgerError(f"{ctx}: the name {_show(name)} is used twice; names of "
+                              "elements and thermal bridges must be unique within a room")
     seen.add(name)
-    return f"{ctx}, {what} {name!r}"
+    return f"{ctx}, {what} {_show(name)}"
 
 
 def _check_element(ctx: str, el, seen: set[str]) -> None:
     if not isinstance(el, Element):
-        raise HeatLedgerError(f"{ctx}: elements must be Element objects; got {el!r}")
+        raise HeatLedgerError(f"{ctx}: elements must be Element objects; got {_show(el)}")
     ectx = _check_name(ctx, "element", el.name, seen)
-    area = _validate.positive(f"{ectx}: area", el.area, "m2")
+    area = _validate.within(f"{ectx}: area", _validate.positive(f"{ectx}: area", el.area, "m2"),
+                            "area")
     _validate.choice(f"{ectx}: kind", el.kind, ELEMENT_KINDS)
     dutb = _validate.non_negative(f"{ectx}: thermal_bridge_allowance",
                                   el.thermal_bridge_allowance, "W/(m2 K)")
@@ -225,7 +228,7 @@ def _check_element(ctx: str, el, seen: set[str]) -> None:
         if not hasattr(u, "u_value"):
             raise HeatLedgerError(
                 f"{ectx}: u must be a number (W/(m2 K)), a construction name, or an object "
-                f"with a u_value attribute; got {u!r}"
+                f"with a u_value attribute; got {_show(u)}"
             )
         frame = getattr(u, "frame_area", None)
         if isinstance(frame, (int, float)) and frame > area:
@@ -250,10 +253,11 @@ def _check_bridge(ctx: str, br, seen: set[str]) -> None:
         object.__setattr__(br, "chi", _validate.finite(f"{bctx}: chi", br.chi))
         if isinstance(br.count, bool) or not isinstance(br.count, int) or br.count < 1:
             raise HeatLedgerError(f"{bctx}: count must be a whole number of at least 1; "
-                                  f"got {br.count!r}")
+                                  f"got {_show(br.count)}")
     else:
         raise HeatLedgerError(
-            f"{ctx}: thermal_bridges must be LinearBridge or PointBridge objects; got {br!r}"
+            f"{ctx}: thermal_bridges must be LinearBridge or PointBridge objects; got "
+            f"{_show(br)}"
         )
     object.__setattr__(br, "boundary", _check_boundary(bctx, br.boundary))
 
@@ -263,36 +267,36 @@ def _check_boundary(ctx: str, b):
         if b.strip().lower() == "outside":
             return Outside()
         raise HeatLedgerError(
-            f"{ctx}: boundary {b!r} needs its data; use 'outside', Outside(), "
-            "Ground(annual_mean_external_temperature=...), Unheated(temperature=... or "
-            "adjustment_factor=...) or AdjacentRoom(room=... or temperature=...)"
+            f'{ctx}: boundary {_show(b)} needs its data; use "outside" or a boundary object: '
+            "Outside, Ground (with annual_mean_external_temperature), Unheated (with "
+            "temperature or adjustment_factor) or AdjacentRoom (with room or temperature)"
         )
     if not isinstance(b, _BOUNDARY_TYPES):
-        raise HeatLedgerError(f"{ctx}: boundary must be 'outside', Outside, Ground, Unheated "
-                              f"or AdjacentRoom; got {b!r}")
+        raise HeatLedgerError(f'{ctx}: boundary must be "outside", Outside, Ground, Unheated '
+                              f"or AdjacentRoom; got {_show(b)}")
     if isinstance(b, Ground):
-        _validate.finite(f"{ctx}: annual_mean_external_temperature",
-                         b.annual_mean_external_temperature)
+        _validate.within(f"{ctx}: annual_mean_external_temperature",
+                         b.annual_mean_external_temperature, "temperature")
         _validate.positive(f"{ctx}: f_g1", b.f_g1)
         _validate.positive(f"{ctx}: groundwater_factor", b.groundwater_factor)
     elif isinstance(b, Unheated):
         if (b.temperature is None) == (b.adjustment_factor is None):
+            given = "both are given" if b.temperature is not None else "neither is given"
             raise HeatLedgerError(
-                f"{ctx}: Unheated needs exactly one of temperature or adjustment_factor; got "
-                f"temperature={b.temperature!r}, adjustment_factor={b.adjustment_factor!r}"
-            )
+                f"{ctx}: Unheated needs exactly one of temperature or adjustment_factor; "
+                f"{given}")
         if b.temperature is not None:
-            _validate.finite(f"{ctx}: unheated temperature", b.temperature)
+            _validate.within(f"{ctx}: unheated temperature", b.temperature, "temperature")
         else:
             _validate.fraction(f"{ctx}: adjustment_factor b_u", b.adjustment_factor)
     elif isinstance(b, AdjacentRoom):
         if (b.room is None) == (b.temperature is None):
+            given = "both are given" if b.room is not None else "neither is given"
             raise HeatLedgerError(
-                f"{ctx}: AdjacentRoom needs exactly one of room (a name) or temperature; got "
-                f"room={b.room!r}, temperature={b.temperature!r}"
-            )
+                f"{ctx}: AdjacentRoom needs exactly one of room (a name) or temperature; "
+                f"{given}")
         if b.temperature is not None:
-            _validate.finite(f"{ctx}: adjacent temperature", b.temperature)
+            _validate.within(f"{ctx}: adjacent temperature", b.temperature, "temperature")
     return b
 
 
@@ -306,15 +310,15 @@ def _resolve_u(ctx: str, el: Element, own, building) -> tuple[float, str]:
         if not found:
             known = sorted({*(own or {}), *(building or {})})
             raise HeatLedgerError(
-                f"{ctx}: construction {u!r} does not exist; known constructions: "
-                f"{', '.join(map(repr, known)) or 'none (give a constructions mapping)'}"
+                f"{ctx}: construction {_show(u)} does not exist; known constructions: "
+                f"{', '.join(map(_show, known)) or 'none (give a constructions mapping)'}"
             )
         if len(found) == 2 and found[0][1] is not found[1][1]:
-            raise HeatLedgerError(f"{ctx}: construction {u!r} is defined differently by the "
-                                  "room and the building; keep one definition")
+            raise HeatLedgerError(f"{ctx}: construction {_show(u)} is defined differently by "
+                                  "the room and the building; keep one definition")
         obj = found[0][1]
         value = obj if isinstance(obj, (int, float)) else getattr(obj, "u_value", None)
-        source = f"construction {u!r} ({found[0][0]} mapping)"
+        source = f"construction {_show(u)} ({found[0][0]} mapping)"
     elif isinstance(u, (int, float, np.floating, np.integer)):
         value, source = u, "given U-value"
     else:
@@ -323,7 +327,7 @@ def _resolve_u(ctx: str, el: Element, own, building) -> tuple[float, str]:
         if getattr(u, "method", None):
             source += f" ({u.method})"
     if value is None:
-        raise HeatLedgerError(f"{ctx}: construction {u!r} has no u_value")
+        raise HeatLedgerError(f"{ctx}: construction {_show(u)} has no u_value")
     return _validate.non_negative(f"{ctx}: U-value", value, "W/(m2 K)"), source
 
 
@@ -360,18 +364,20 @@ def _factor(ctx, b, ti, te, room_temps, own_name):
         return f, "f_ij = (theta_int - theta_adj)/(theta_int - theta_e)", False, b.describe()
     if room_temps is None:
         raise HeatLedgerError(
-            f"{ctx}: faces room {b.room!r} by name, which only a Building can resolve; put "
-            "both rooms in a Building, or give AdjacentRoom(temperature=...)"
+            f"{ctx}: faces room {_show(b.room)} by name, which only a Building can resolve; "
+            "put both rooms in a Building, or give the AdjacentRoom a temperature"
         )
     if b.room == own_name:
-        raise HeatLedgerError(f"{ctx}: an element cannot face its own room {own_name!r}")
+        raise HeatLedgerError(f"{ctx}: an element cannot face its own room "
+                              f"{_show(own_name)}")
     if b.room not in room_temps:
         raise HeatLedgerError(
-            f"{ctx}: faces room {b.room!r}, which does not exist in the building; rooms are "
-            f"{', '.join(map(repr, room_temps))}"
+            f"{ctx}: faces room {_show(b.room)}, which does not exist in the building; rooms "
+            "are "
+            f"{', '.join(map(_show, room_temps))}"
         )
     tj = room_temps[b.room]
-    t = need_te(f"exchange with room {b.room!r}")
+    t = need_te(f"exchange with room {_show(b.room)}")
     f = (ti - tj) / (ti - t)
     return (f, "f_ij = (theta_int,i - theta_int,j)/(theta_int,i - theta_e)", True,
-            f"room {b.room!r} at {tj:g} degC")
+            f"room {_show(b.room)} at {tj:g} degC")

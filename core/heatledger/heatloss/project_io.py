@@ -46,7 +46,8 @@ from __future__ import annotations
 import difflib
 from dataclasses import dataclass, field
 
-from .._projectio import number, table, table_list, unknown
+from .._projectio import number, table, table_list, text, unknown
+from .._validate import choices_text, quote, show
 from ..errors import HeatLedgerError
 from ..ground import (
     DEFAULT_SOIL_CONDUCTIVITY,
@@ -58,7 +59,7 @@ from ..ground import (
     slab_on_ground,
     suspended_floor,
 )
-from ..windows import declared_window, window
+from ..windows import PERIMETER_SHAPES, declared_window, window
 from .air import Ventilation
 from .elements import (
     ELEMENT_KINDS,
@@ -119,6 +120,12 @@ ELEMENT_METHODS = {
                                           "exposed_perimeter", "wall_thickness_mm", "depth"),
 }
 GROUND_METHODS = ("slab_on_ground", "suspended_floor", "heated_basement")
+#: The physical limit (heatledger._validate.LIMITS) of each window and floor input.
+_WINDOW_LIMITS = {"glazing_area": "area", "frame_area": "area", "panel_area": "area",
+                  "glazing_u": "u_value", "frame_u": "u_value", "panel_u": "u_value",
+                  "glazing_perimeter": "length", "panel_perimeter": "length"}
+_FLOOR_LIMITS = {"underfloor_height": "length", "underfloor_wall_u": "u_value",
+                 "vent_area_per_perimeter": "length", "wind_speed": "wind_speed"}
 EDGE_KEYS = ("orientation", "extent", "resistance", "thickness_mm")
 BRIDGE_KEYS = ("name", "psi", "length", "chi", "count", "notes") + _BOUNDARY_KEYS
 
@@ -194,6 +201,8 @@ class BuildingInput:
         ``G_w``. [-]
     where : dict
         Key path of every room and element, by ``(room, element)`` name. [-]
+    warnings : list of (str, str)
+        Input that is probably a slip, as ``(key path, message)``. [-]
     """
 
     building: Building
@@ -205,6 +214,7 @@ class BuildingInput:
     f_g1: float = GROUND_FACTOR_FG1
     groundwater_factor: float = GROUNDWATER_FACTOR_DEEP
     where: dict = field(default_factory=dict)
+    warnings: list = field(default_factory=list)
 
     @property
     def rooms(self):
@@ -277,12 +287,12 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
     settings = _building_settings(raw_b, problems)
     names = []
     for row in raw_rooms:
-        name = str(row.get("name", "")).strip() if isinstance(row, dict) else ""
+        name = text(row, "name", "", []) or ""
         names.append(name)
     seen: set[str] = set()
     for i, name in enumerate(names, 1):
         if name and name in seen:
-            problems.append((f"rooms[{i}].name", f"room name {name!r} is used twice; room "
+            problems.append((f"rooms[{i}].name", f"room name {quote(name)} is used twice; room "
                              "names must be unique"))
         seen.add(name)
     ctx = _Context(constructions, settings, set(n for n in names if n), temp_outside)
@@ -292,23 +302,26 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
         room = _room(row, f"rooms[{i}]", ctx, temp_inside, problems, where)
         if room is not None:
             rooms.append(room)
-    if len(problems) > start or temp_outside is None:
-        return None
+    if len(problems) > start or temp_outside is None or len(rooms) < len(raw_rooms):
+        return None  # a room left out without a problem of its own: see design.temp_inside
     bname = str(raw_b.get("name", "") or "").strip() or str(
         (data.get("project") or {}).get("name", "") or "building")
     try:
-        building = Building(bname, rooms, constructions=dict(constructions),
+        building = Building(bname, rooms, constructions={k: v for k, v in constructions.items()
+                                                         if v is not None},
                             design_external_temperature=temp_outside)
-        building.heat_load(temp_outside)
+        load = building.heat_load(temp_outside)
     except HeatLedgerError as exc:
         problems.append(("rooms", str(exc)))
         return None
+    warnings = [(where.get((r.room, None), "rooms"), text) for r in load.rooms
+                for text in r.warnings]
     return BuildingInput(building=building, external_temperature=float(temp_outside),
                          degree_days=settings["degree_days"],
                          base_temperature=settings["degree_day_base"],
                          annual_mean_external_temperature=settings["theta_me"],
                          groundwater=settings["groundwater"], f_g1=settings["f_g1"],
-                         groundwater_factor=settings["g_w"], where=where)
+                         groundwater_factor=settings["g_w"], where=where, warnings=warnings)
 
 
 # ----------------------------------------------------------------------------- helpers
@@ -324,19 +337,20 @@ class _Context:
 
 def _building_settings(raw, problems) -> dict:
     w = "building"
-    dd = number(raw, "degree_days", w, problems, non_negative=True)
-    base = number(raw, "degree_day_base", w, problems)
+    dd = number(raw, "degree_days", w, problems, non_negative=True, limit="degree_days")
+    base = number(raw, "degree_day_base", w, problems, limit="temperature")
     if dd is not None and base is None:
         problems.append(("building.degree_day_base", "state the base temperature of the "
                          "degree-days (degC) with degree_days; the energy depends on it"))
     if base is not None and dd is None:
         problems.append(("building.degree_days", "is required with degree_day_base"))
-    theta_me = number(raw, "annual_mean_external_temperature", w, problems)
+    theta_me = number(raw, "annual_mean_external_temperature", w, problems,
+                      limit="temperature")
     gw = str(raw.get("groundwater", "deep")).strip().lower()
     if gw not in GROUNDWATER:
-        problems.append(("building.groundwater", f"must be one of 'deep' (water table more "
-                         f"than 1 m below the floor, G_w 1.00) or 'shallow' (1 m or less, G_w "
-                         f"1.15); got {raw.get('groundwater')!r}"))
+        problems.append(("building.groundwater", f'must be one of "deep" (water table more '
+                         f'than 1 m below the floor, G_w 1.00) or "shallow" (1 m or less, G_w '
+                         f'1.15); got {show(raw.get("groundwater"))}'))
         gw = "deep"
     fg1 = number(raw, "f_g1", w, problems, positive=True, default=GROUND_FACTOR_FG1)
     soil = _soil(raw, w, problems, None)
@@ -358,13 +372,14 @@ def _soil(raw, where, problems, default):
             lam = ground_conductivity(str(raw["soil"]))
         except HeatLedgerError:
             problems.append((f"{where}.soil", f"must be one of "
-                             f"{', '.join(map(repr, SOIL_TYPES))} (EN ISO 13370 Table 7); got "
-                             f"{raw['soil']!r}"))
+                             f"{choices_text(SOIL_TYPES)} (EN ISO 13370 Table 7); got "
+                             f"{show(raw['soil'])}"))
             return default
-        return lam, f"soil {str(raw['soil']).strip().lower()!r}: lambda {lam:g} W/(m K) " \
+        return lam, f"soil {quote(str(raw['soil']).strip().lower())}: lambda {lam:g} W/(m K) " \
                     "(EN ISO 13370 Table 7)"
     if has_lam:
-        lam = number(raw, "soil_conductivity", where, problems, positive=True)
+        lam = number(raw, "soil_conductivity", where, problems, positive=True,
+                     limit="conductivity")
         return default if lam is None else (lam, f"soil conductivity {lam:g} W/(m K) (input)")
     return default
 
@@ -375,18 +390,22 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
         return None
     start = len(problems)
     unknown(row, ROOM_KEYS, where, problems)
-    name = str(row.get("name", "")).strip()
-    if not name:
+    name = text(row, "name", where, problems)
+    if name == "":
         problems.append((f"{where}.name", "every room needs a name"))
+    if not name:
         name = where
-    label = f"room {name!r}"
-    ti = number(row, "temp_inside", where, problems, default=temp_inside)
+    label = f"room {quote(name)}"
+    ti = number(row, "temp_inside", where, problems, default=temp_inside, limit="temperature")
     if ti is not None and ctx.temp_outside is not None and not ti > ctx.temp_outside:
         problems.append((f"{where}.temp_inside", f"{label}: must be above the design external "
                          f"temperature {ctx.temp_outside:g} degC; got {ti:g} degC"))
-    volume = number(row, "volume", where, problems, positive=True, required=True)
-    floor_area = number(row, "floor_area", where, problems, non_negative=True, default=0.0)
-    reheat = number(row, "reheat_factor", where, problems, non_negative=True, default=0.0)
+    volume = number(row, "volume", where, problems, positive=True, required=True,
+                    limit="volume")
+    floor_area = number(row, "floor_area", where, problems, non_negative=True, default=0.0,
+                        limit="area")
+    reheat = number(row, "reheat_factor", where, problems, non_negative=True, default=0.0,
+                    limit="area_load")
     vent = _ventilation(row.get("ventilation"), f"{where}.ventilation", label, problems)
     elements = []
     raw_el = table_list(row, "elements", problems, where=where, section="rooms.elements")
@@ -407,7 +426,7 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
             where_map[(name, br.name)] = bw
     where_map[(name, None)] = where
     _label_new(problems, start, label)
-    if len(problems) > start:
+    if len(problems) > start or ti is None:  # no ti: the design temperature's problem
         return None
     try:
         return Room(name, ti, volume, elements, vent, thermal_bridges=bridges,
@@ -427,11 +446,12 @@ def _ventilation(raw, where, label, problems):
     unknown(raw, VENTILATION_KEYS, where, problems)
     basis = str(raw.get("basis", "")).strip().lower()
     if basis not in ("air_change", "flow"):
-        problems.append((f"{where}.basis", f"{label}: must be 'air_change' (1/h) or 'flow' "
-                         f"(m3/h); got {raw.get('basis')!r}"))
+        problems.append((f"{where}.basis", f'{label}: must be "air_change" (1/h) or "flow" '
+                         f'(m3/h); got {show(raw.get("basis"))}'))
         return None
-    unit = dict(non_negative=True, default=0.0)
-    vals = {k: number(raw, k, where, problems, **unit)
+    rate = "air_change" if basis == "air_change" else "air_flow"
+    vals = {k: number(raw, k, where, problems, non_negative=True, default=0.0,
+                      limit="air_change" if k == "minimum_air_change" else rate)
             for k in ("ventilation", "infiltration", "minimum_air_change")}
     eta = number(raw, "heat_recovery", where, problems, non_negative=True, default=0.0)
     if eta is not None and eta > 1.0:
@@ -448,13 +468,13 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
     b = str(row.get("boundary", default) or default).strip().lower()
     if b not in BOUNDARIES:
         problems.append((f"{where}.boundary", f"{label}: must be one of "
-                         f"{', '.join(map(repr, BOUNDARIES))}; got {row.get('boundary')!r}"))
+                         f"{choices_text(BOUNDARIES)}; got {show(row.get('boundary'))}"))
         return None
     extra = {"outside": (), "ground": (), "unheated": ("temp_adjacent", "adjustment_factor"),
              "room": ("room",), "adjacent": ("temp_adjacent",)}[b]
     for key in ("temp_adjacent", "adjustment_factor", "room"):
         if key in row and key not in extra:
-            problems.append((f"{where}.{key}", f"{label}: not used with boundary {b!r}"))
+            problems.append((f"{where}.{key}", f"{label}: not used with boundary {quote(b)}"))
             return None
     if b == "outside":
         return Outside()
@@ -467,7 +487,7 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
             return None
         return Ground(s["theta_me"], f_g1=s["f_g1"], groundwater_factor=s["g_w"])
     if b == "unheated":
-        t = number(row, "temp_adjacent", where, problems)
+        t = number(row, "temp_adjacent", where, problems, limit="temperature")
         f = number(row, "adjustment_factor", where, problems)
         if (t is None) == (f is None):
             problems.append((f"{where}.boundary", f"{label}: an unheated space needs exactly "
@@ -479,18 +499,20 @@ def _boundary(row, where, label, own_room, ctx, problems, default="outside"):
             return None
         return Unheated(temperature=t) if t is not None else Unheated(adjustment_factor=f)
     if b == "adjacent":
-        t = number(row, "temp_adjacent", where, problems, required=True)
+        t = number(row, "temp_adjacent", where, problems, required=True, limit="temperature")
         return None if t is None else AdjacentRoom(temperature=t)
-    other = str(row.get("room", "") or "").strip()
+    other = text(row, "room", where, problems)
+    if other is None:
+        return None
     if not other:
-        problems.append((f"{where}.room", f"{label}: boundary 'room' needs the name of the "
+        problems.append((f"{where}.room", f'{label}: boundary "room" needs the name of the '
                          "neighbouring room"))
         return None
     if other == own_room:
         problems.append((f"{where}.room", f"{label}: an element cannot face its own room"))
         return None
     if other not in ctx.room_names:
-        problems.append((f"{where}.room", f"{label}: room {other!r} does not exist"
+        problems.append((f"{where}.room", f"{label}: room {quote(other)} does not exist"
                          f"{_closest(other, ctx.room_names)}"))
         return None
     return AdjacentRoom(room=other)
@@ -502,42 +524,44 @@ def _element(row, where, room_label, room_name, ctx, problems):
                          "method, area and boundary"))
         return None
     start = len(problems)
-    name = str(row.get("name", "")).strip()
-    if not name:
+    name = text(row, "name", where, problems)
+    if name == "":
         problems.append((f"{where}.name", f"{room_label}: every element needs a name"))
-        name = where
-    label = f"{room_label}, element {name!r}"
+    name = name or where
+    label = f"{room_label}, element {quote(name)}"
     method = str(row.get("method", "")).strip().lower()
     if method not in ELEMENT_METHODS:
         problems.append((f"{where}.method", f"{label}: must be one of "
-                         f"{', '.join(map(repr, ELEMENT_METHODS))} (how the U-value is found); "
-                         f"got {row.get('method')!r}"))
+                         f"{choices_text(ELEMENT_METHODS)} (how the U-value is found); "
+                         f"got {show(row.get('method'))}"))
         return None
     unknown(row, ELEMENT_METHODS[method], where, problems)
     kind = str(row.get("kind", "floor" if method in GROUND_METHODS else "wall")).strip().lower()
     if kind not in ELEMENT_KINDS:
         problems.append((f"{where}.kind", f"{label}: must be one of "
-                         f"{', '.join(map(repr, ELEMENT_KINDS))}; got {row.get('kind')!r}"))
+                         f"{choices_text(ELEMENT_KINDS)}; got {show(row.get('kind'))}"))
     default_b = "ground" if method in GROUND_METHODS else "outside"
     boundary = _boundary(row, where, label, room_name, ctx, problems, default=default_b)
     if isinstance(boundary, Ground) and method not in GROUND_METHODS:
         problems.append((f"{where}.boundary", f"{label}: a ground boundary needs an EN ISO "
-                         f"13370 U-value; use method {', '.join(map(repr, GROUND_METHODS))}"))
+                         f"13370 U-value; use method {choices_text(GROUND_METHODS)}"))
     if method in GROUND_METHODS and boundary is not None and not isinstance(
             boundary, (Ground, Outside)):
         problems.append((f"{where}.boundary", f"{label}: an EN ISO 13370 ground element faces "
-                         "'ground' (or 'outside'); got " + repr(row.get("boundary"))))
+                         '"ground" (or "outside"); got ' + show(row.get("boundary"))))
     dutb = number(row, "thermal_bridge_allowance", where, problems, non_negative=True,
+                  limit="u_value",
                    default=0.0)
     area = number(row, "area", where, problems, positive=True,
-                   required=method != "window")
+                  required=method != "window", limit="area")
     u = None
     try:
         if method == "construction":
             u = _construction_name(row, "construction", where, label, ctx, problems,
                                    required=True)
         elif method == "declared":
-            uv = number(row, "u_value", where, problems, positive=True, required=True)
+            uv = number(row, "u_value", where, problems, positive=True, required=True,
+                        limit="u_value")
             src = str(row.get("u_source", "") or "").strip()
             if not src:
                 problems.append((f"{where}.u_source", f"{label}: a declared U-value needs "
@@ -568,9 +592,15 @@ def _construction_name(row, key, where, label, ctx, problems, *, required):
             problems.append((f"{where}.{key}", f"{label}: name a construction of this "
                              "project"))
         return None
-    ref = str(ref).strip()
+    if not isinstance(ref, str):
+        problems.append((f"{where}.{key}", f"{label}: must be text (the name of a "
+                         f"construction); got {show(ref)}"))
+        return None
+    ref = ref.strip()
+    if ref in ctx.constructions and ctx.constructions[ref] is None:
+        return None  # the construction's own problem is reported at its entry
     if ref not in ctx.constructions:
-        problems.append((f"{where}.{key}", f"{label}: construction {ref!r} does not exist "
+        problems.append((f"{where}.{key}", f"{label}: construction {quote(ref)} does not exist "
                          f"among the project's [[constructions]]"
                          f"{_closest(ref, ctx.constructions)}"))
         return None
@@ -579,14 +609,21 @@ def _construction_name(row, key, where, label, ctx, problems, *, required):
 
 def _window(row, where, label, area, problems):
     req = ("glazing_area", "frame_area", "glazing_u", "frame_u", "glazing_perimeter")
-    vals = {k: number(row, k, where, problems, non_negative=True, required=True) for k in req}
-    vals["psi_glazing"] = number(row, "psi_glazing", where, problems, required=True)
+    vals = {k: number(row, k, where, problems, non_negative=True, required=True,
+                      limit=_WINDOW_LIMITS[k]) for k in req}
+    vals["psi_glazing"] = number(row, "psi_glazing", where, problems, required=True,
+                                 limit="psi")
     for k in ("panel_area", "panel_u", "panel_perimeter"):
-        vals[k] = number(row, k, where, problems, non_negative=True, default=0.0)
-    vals["psi_panel"] = number(row, "psi_panel", where, problems, default=0.0)
+        vals[k] = number(row, k, where, problems, non_negative=True, default=0.0,
+                         limit=_WINDOW_LIMITS[k])
+    vals["psi_panel"] = number(row, "psi_panel", where, problems, default=0.0, limit="psi")
     if None in vals.values():
         return None
-    shape = str(row.get("glazing_shape", "rectilinear"))
+    shape = row.get("glazing_shape", "rectilinear")
+    if shape not in PERIMETER_SHAPES:
+        problems.append((f"{where}.glazing_shape", f"{label}: must be one of "
+                         f"{choices_text(PERIMETER_SHAPES)}; got {show(shape)}"))
+        return None
     return window(vals["glazing_area"], vals["frame_area"], vals["glazing_u"], vals["frame_u"],
                   vals["glazing_perimeter"], vals["psi_glazing"], panel_area=vals["panel_area"],
                   panel_u=vals["panel_u"], panel_perimeter=vals["panel_perimeter"],
@@ -603,7 +640,7 @@ def _resistance(row, con_key, r_key, where, label, ctx, problems):
                          "them"))
         return None, ""
     if has_r:
-        return number(row, r_key, where, problems, non_negative=True), ""
+        return number(row, r_key, where, problems, non_negative=True, limit="resistance"), ""
     name = _construction_name(row, con_key, where, label, ctx, problems, required=True)
     if name is None:
         return None, ""
@@ -617,9 +654,11 @@ def _ground(method, row, where, label, area, ctx, problems):
         soil = (DEFAULT_SOIL_CONDUCTIVITY, f"soil unknown: lambda {DEFAULT_SOIL_CONDUCTIVITY:g} "
                 "W/(m K), category 2 (EN ISO 13370 Table 7)")
     lam, soil_text = soil
-    p = number(row, "exposed_perimeter", where, problems, positive=True, required=True)
-    w_mm = number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True)
-    outline = str(row.get("exposed_outline", "rectilinear"))
+    p = number(row, "exposed_perimeter", where, problems, positive=True, required=True,
+               limit="perimeter")
+    w_mm = number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True,
+                  limit="wall_thickness", unit="mm", scale=1e-3)
+    outline = row.get("exposed_outline", "rectilinear")
     if area is None or p is None or w_mm is None:
         return None
     w = w_mm / 1000.0
@@ -640,16 +679,17 @@ def _ground(method, row, where, label, area, ctx, problems):
     if method == "suspended_floor":
         rd, cname = _resistance(row, "construction", "deck_resistance", where, label, ctx,
                                 problems)
-        kw = {k: number(row, k, where, problems, non_negative=True, required=True)
+        kw = {k: number(row, k, where, problems, non_negative=True, required=True,
+                        limit=_FLOOR_LIMITS[k])
               for k in ("underfloor_height", "underfloor_wall_u", "vent_area_per_perimeter",
                         "wind_speed")}
         kw["ground_insulation_resistance"] = number(
             row, "ground_insulation_resistance", where, problems, non_negative=True,
-            default=0.0)
+            default=0.0, limit="resistance")
         shield = row.get("wind_shielding")
         if shield in (None, ""):
-            problems.append((f"{where}.wind_shielding", f"{label}: is required: 'sheltered', "
-                             "'average' or 'exposed'"))
+            problems.append((f"{where}.wind_shielding", f'{label}: is required: "sheltered", '
+                             '"average" or "exposed"'))
             return None
         if rd is None or None in kw.values():
             return None
@@ -662,7 +702,7 @@ def _ground(method, row, where, label, area, ctx, problems):
     rf, cname = _resistance(row, "construction", "floor_resistance", where, label, ctx, problems)
     rw, wname = _resistance(row, "wall_construction", "wall_resistance", where, label, ctx,
                             problems)
-    z = number(row, "depth", where, problems, positive=True, required=True)
+    z = number(row, "depth", where, problems, positive=True, required=True, limit="length")
     if rf is None or rw is None or z is None:
         return None
     res = heated_basement(area, p, w, rf, rw, z, soil_conductivity=lam,
@@ -677,13 +717,15 @@ def _edge(raw, where, label, problems):
                          "thickness_mm }"))
         return None
     unknown(raw, EDGE_KEYS, where, problems)
-    ext = number(raw, "extent", where, problems, positive=True, required=True)
-    rn = number(raw, "resistance", where, problems, non_negative=True, required=True)
-    dn = number(raw, "thickness_mm", where, problems, positive=True, required=True)
+    ext = number(raw, "extent", where, problems, positive=True, required=True, limit="length")
+    rn = number(raw, "resistance", where, problems, non_negative=True, required=True,
+                limit="resistance")
+    dn = number(raw, "thickness_mm", where, problems, positive=True, required=True,
+                limit="thickness", unit="mm", scale=1e-3)
     if None in (ext, rn, dn):
         return None
     try:
-        return EdgeInsulation(str(raw.get("orientation", "")), ext, rn, dn / 1000.0)
+        return EdgeInsulation(raw.get("orientation", ""), ext, rn, dn / 1000.0)
     except HeatLedgerError as exc:
         problems.append((f"{where}.orientation", f"{label}: {exc}"))
         return None
@@ -696,11 +738,11 @@ def _bridge(row, where, room_label, room_name, ctx, problems):
         return None
     start = len(problems)
     unknown(row, BRIDGE_KEYS, where, problems)
-    name = str(row.get("name", "")).strip()
-    if not name:
+    name = text(row, "name", where, problems)
+    if name == "":
         problems.append((f"{where}.name", f"{room_label}: every thermal bridge needs a name"))
-        name = where
-    label = f"{room_label}, thermal bridge {name!r}"
+    name = name or where
+    label = f"{room_label}, thermal bridge {quote(name)}"
     boundary = _boundary(row, where, label, room_name, ctx, problems)
     linear = "psi" in row or "length" in row
     try:
@@ -716,16 +758,17 @@ def _bridge_object(row, where, label, name, boundary, linear, start, problems):
                          "bridge, or chi (W/K) and count for point bridges"))
         return None
     if linear:
-        psi = number(row, "psi", where, problems, required=True)
-        length = number(row, "length", where, problems, positive=True, required=True)
+        psi = number(row, "psi", where, problems, required=True, limit="psi")
+        length = number(row, "length", where, problems, positive=True, required=True,
+                        limit="length")
         if len(problems) > start:
             return None
         return LinearBridge(name, psi, length, boundary)
-    chi = number(row, "chi", where, problems, required=True)
+    chi = number(row, "chi", where, problems, required=True, limit="chi")
     count = row.get("count", 1)
     if isinstance(count, bool) or not isinstance(count, int) or count < 1:
         problems.append((f"{where}.count", f"{label}: must be a whole number of at least 1; "
-                         f"got {count!r}"))
+                         f"got {show(count)}"))
     if len(problems) > start:
         return None
     return PointBridge(name, chi, count, boundary)
@@ -747,5 +790,5 @@ def _closest(name, choices) -> str:
     if not near:
         low = name.lower()
         near = [c for c in choices if low[:3] and c.lower().startswith(low[:3])][:3]
-    listed = ", ".join(map(repr, near or choices[:5]))
+    listed = ", ".join(map(quote, near or choices[:5]))
     return f"; closest names: {listed}" if near else f"; names are: {listed}"

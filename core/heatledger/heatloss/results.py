@@ -95,6 +95,9 @@ class RoomHeatLoad:
         Breakdown; shares add up to 1. [-]
     provenance : tuple of str
         Methods that ran. [-]
+    warnings : tuple of str
+        Input that is probably a slip (a window U above 7, a volume that does not fit the
+        floor area), each naming its room and element. [-]
     """
 
     room: str
@@ -112,6 +115,7 @@ class RoomHeatLoad:
     ventilation: VentilationFlows
     lines: tuple[LossLine, ...]
     provenance: tuple[str, ...]
+    warnings: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -150,6 +154,8 @@ class BuildingHeatLoad:
         Heat flow by element kind (and ventilation, reheat), for a chart. [W]
     provenance : tuple of str
         Methods that ran. [-]
+    warnings : tuple of str
+        The rooms' warnings. [-]
     """
 
     name: str
@@ -169,6 +175,7 @@ class BuildingHeatLoad:
     lines: tuple[LossLine, ...]
     by_kind: dict[str, float]
     provenance: tuple[str, ...]
+    warnings: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True)

@@ -16,7 +16,9 @@ from dataclasses import dataclass, field, replace
 from typing import Any
 
 from .. import _validate
+from .._validate import show as _show
 from ..errors import HeatLedgerError
+from ..windows import DeclaredWindow, WindowResult
 from .air import (
     AIR_DENSITY,
     AIR_SPECIFIC_HEAT,
@@ -82,15 +84,17 @@ class Room:
 
     def __post_init__(self) -> None:
         if not isinstance(self.name, str) or not self.name.strip():
-            raise HeatLedgerError(f"room name must be a non-empty text; got {self.name!r}")
-        ctx = f"room {self.name!r}"
+            raise HeatLedgerError(f"room name must be a non-empty text; got "
+                                  f"{_show(self.name)}")
+        ctx = f"room {_show(self.name)}"
         object.__setattr__(self, "internal_temperature",
-                           _validate.finite(f"{ctx}: internal_temperature",
-                                            self.internal_temperature))
-        object.__setattr__(self, "volume",
-                           _validate.positive(f"{ctx}: volume", self.volume, "m3"))
-        object.__setattr__(self, "floor_area", _validate.non_negative(
-            f"{ctx}: floor_area", self.floor_area, "m2"))
+                           _validate.within(f"{ctx}: internal_temperature",
+                                            self.internal_temperature, "temperature"))
+        volume = _validate.positive(f"{ctx}: volume", self.volume, "m3")
+        object.__setattr__(self, "volume", _validate.within(f"{ctx}: volume", volume, "volume"))
+        floor = _validate.non_negative(f"{ctx}: floor_area", self.floor_area, "m2")
+        object.__setattr__(self, "floor_area",
+                           _validate.within(f"{ctx}: floor_area", floor, "area"))
         object.__setattr__(self, "reheat_factor", _validate.non_negative(
             f"{ctx}: reheat_factor", self.reheat_factor, "W/m2"))
         if self.reheat_factor > 0.0 and self.floor_area <= 0.0:
@@ -99,12 +103,12 @@ class Room:
                 "it applies to; got floor_area 0 m2"
             )
         if self.design_external_temperature is not None:
-            te = _validate.finite(f"{ctx}: design_external_temperature",
-                                  self.design_external_temperature)
+            te = _validate.within(f"{ctx}: design_external_temperature",
+                                  self.design_external_temperature, "temperature")
             object.__setattr__(self, "design_external_temperature", te)
         if not isinstance(self.ventilation, Ventilation):
             raise HeatLedgerError(
-                f"{ctx}: ventilation must be a Ventilation(...); got {self.ventilation!r}"
+                f"{ctx}: ventilation must be a Ventilation; got {_show(self.ventilation)}"
             )
         _check_ventilation(ctx, self.ventilation)
         elements = tuple(self.elements)
@@ -247,7 +251,7 @@ class Room:
     # -- the evaluation proper
 
     def _evaluate(self, te, room_temps, building_constructions) -> RoomHeatLoad:
-        ctx = f"room {self.name!r}"
+        ctx = f"room {_show(self.name)}"
         ti = self.internal_temperature
         if te is not None and not te < ti:
             raise HeatLedgerError(
@@ -255,9 +259,14 @@ class Room:
                 f"temperature {ti:g} degC for a design heat load"
             )
         lines: list[dict] = []
+        warnings = [_validate.room_height_warning(ctx, self.volume, self.floor_area)]
         for el in self.elements:
-            ectx = f"{ctx}, element {el.name!r}"
+            ectx = f"{ctx}, element {_show(el.name)}"
             u, source = _resolve_u(ectx, el, self.constructions, building_constructions)
+            if isinstance(el.u, (WindowResult, DeclaredWindow)):  # they flag their own U
+                warnings += [f"{ectx}: {w}" for w in el.u.warnings]
+            elif el.kind in ("window", "door"):
+                warnings.append(_validate.opening_u_warning(ectx, u))
             f, rule, internal, label = _factor(ectx, el.boundary, ti, te, room_temps, self.name)
             ue = u + el.thermal_bridge_allowance
             lines.append(dict(name=el.name, category="transmission", kind=el.kind,
@@ -267,7 +276,7 @@ class Room:
                               factor_rule=rule, coefficient=el.area * ue * f,
                               internal=internal, source=source))
         for br in self.thermal_bridges:
-            bctx = f"{ctx}, thermal bridge {br.name!r}"
+            bctx = f"{ctx}, thermal bridge {_show(br.name)}"
             f, rule, internal, label = _factor(bctx, br.boundary, ti, te, room_temps, self.name)
             if isinstance(br, LinearBridge):
                 q, qu, t, tu, kind = br.length, "m", br.psi, "W/(m K)", "linear bridge"
@@ -304,7 +313,7 @@ class Room:
             LossLine(room=self.name, share=_share(ln["heat_flow"], total), **ln) for ln in lines
         )
         prov = (
-            f"design external temperature: {te!r} degC; internal {ti:g} degC",
+            f"design external temperature: {_temp_text(te)}; internal {ti:g} degC",
             "transmission: EN 12831-1:2017 clause 6, H_T = sum A (U + dU_TB) f + sum psi l f "
             "+ sum chi f [M]",
             f"ventilation: {vent.method}",
@@ -320,6 +329,7 @@ class Room:
             heat_loss_coefficient=h_t + vent.coefficient, transmission_heat_loss=phi_t,
             ventilation_heat_loss=phi_v, reheat_allowance=reheat, design_heat_load=total,
             ventilation=vent, lines=frozen, provenance=prov,
+            warnings=tuple(dict.fromkeys(w for w in warnings if w)),
         )
 
 
@@ -352,27 +362,31 @@ class Building:
     def __post_init__(self) -> None:
         rooms = tuple(self.rooms)
         if not rooms:
-            raise HeatLedgerError(f"building {self.name!r} must have at least one room")
+            raise HeatLedgerError(f"building {_show(self.name)} must have at least one "
+                                  "room")
         names: set[str] = set()
         for r in rooms:
             if not isinstance(r, Room):
-                raise HeatLedgerError(f"building {self.name!r}: rooms must be Room objects; "
-                                      f"got {r!r}")
+                raise HeatLedgerError(f"building {_show(self.name)}: rooms must be Room "
+                                      f"objects; got {_show(r)}")
             if r.name in names:
-                raise HeatLedgerError(f"building {self.name!r}: room name {r.name!r} "
-                                      "appears twice; room names must be unique")
+                raise HeatLedgerError(f"building {_show(self.name)}: room name "
+                                      f"{_show(r.name)} appears twice; room names must be "
+                                      "unique")
             names.add(r.name)
         object.__setattr__(self, "rooms", rooms)
         temps = {r.design_external_temperature for r in rooms} - {None}
         te = self.design_external_temperature
         if te is not None:
-            te = _validate.finite(f"building {self.name!r}: design_external_temperature", te)
+            te = _validate.within(f"building {_show(self.name)}: design_external_temperature",
+                                  te, "temperature")
             object.__setattr__(self, "design_external_temperature", te)
             temps.add(te)
         if len(temps) > 1:
             raise HeatLedgerError(
-                f"building {self.name!r}: the rooms and building state different design "
-                f"external temperatures {sorted(temps)}; one building has one design value"
+                f"building {_show(self.name)}: the rooms and building state different design "
+                f"external temperatures, {', '.join(f'{t:g}' for t in sorted(temps))} degC; one "
+                "building has one design value"
             )
         object.__setattr__(self, "_te", temps.pop() if temps else None)
         temps_by_room = {r.name: r.internal_temperature for r in rooms}
@@ -522,8 +536,8 @@ class Building:
         for ln in lines:
             by_kind[ln.kind] = by_kind.get(ln.kind, 0.0) + ln.heat_flow
         prov = (
-            f"building {self.name!r}: {len(results)} rooms, design external temperature "
-            f"{te!r} degC",
+            f"building {_show(self.name)}: {len(results)} rooms, design external temperature "
+            f"{_temp_text(te)}",
             "building H_T = sum of room H_T less exchange with rooms of this building; "
             "H_V = sum of room H_V (no infiltration diversity applied)",
             results[0].provenance[1],
@@ -539,10 +553,16 @@ class Building:
             internal_exchange_heat_flow=q_int, transmission_heat_loss=phi_t,
             ventilation_heat_loss=phi_v, reheat_allowance=reheat, design_heat_load=total,
             lines=lines, by_kind=by_kind, provenance=prov,
+            warnings=tuple(dict.fromkeys(w for r in results for w in r.warnings)),
         )
 
 
 # ----------------------------------------------------------------------------- helpers
+
+
+def _temp_text(te) -> str:
+    """A design temperature for a provenance line: ``-10 degC`` or ``not stated``."""
+    return "not stated" if te is None else f"{te:g} degC"
 
 
 def _share(value: float, total: float) -> float:
@@ -566,7 +586,7 @@ def _annual(subject, h_t, h_v, degree_days, base_temperature, te) -> AnnualEnerg
         "annual energy: Q = 24 H DD / 1000 (degree-day method) [M]",
         f"degree-days {dd:g} K day, {base_text}",
         f"H = H_T + H_V = {h_t:.6g} + {h_v:.6g} W/K, adjustment factors at the design "
-        f"external temperature {te!r} degC; heating-up allowance not included; gains not "
+        f"external temperature {_temp_text(te)}; heating-up allowance not included; gains not "
         "deducted (allow for them through the base temperature)",
     )
     return AnnualEnergy(subject=subject, heat_loss_coefficient=h, transmission_coefficient=h_t,

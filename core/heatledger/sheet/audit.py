@@ -366,7 +366,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     b.put(f"B{r}", "Where the checks are")
     b.put(f"C{r}", text, style="hl paragraph")
     sheet.merges.append(f"C{r}:D{r}")
-    r += 2
+    r = _input_warnings(b, sheet, project, r + 2)
     b.put(f"B{r}", "Methods and standards applied", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
@@ -398,6 +398,31 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
         b.put(f"C{r}", text, style="hl paragraph")
         sheet.row_heights[r] = _height(text)
         r += 1
+
+
+def _input_warnings(b, sheet, project, r: int) -> int:
+    """The cover's list of input that is probably a slip; returns the next free row."""
+    b.put(f"B{r}", "Input warnings", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    items = list(getattr(project, "warnings", []) or [])
+    if not items:
+        text = ("No input looks like a slip (looked for: layers thinner than 1 mm, "
+                "conductivities far outside their material class, window and door U-values "
+                "above 7, frames larger than their glazing, room volumes that do not fit the "
+                "floor area).")
+        b.put(f"C{r}", text, style="hl paragraph")
+        sheet.merges.append(f"C{r}:D{r}")
+        sheet.row_heights[r] = _height(text)
+        return r + 2
+    for where, text in items:
+        line = f"{where}: {text}"
+        b.put(f"B{r}", "!")
+        b.put(f"C{r}", line, style="hl warning")
+        sheet.merges.append(f"C{r}:D{r}")
+        sheet.row_heights[r] = _height(line, 78)
+        r += 1
+    return r + 1
 
 
 def _height(text: str, per_line: int = 88) -> float:

@@ -379,10 +379,12 @@ def project_from_template(path) -> Project:
     p = Path(path)
     data, raw, cells = _read(p)
     try:
-        return project_from_dict(data, source_bytes=raw, source_name=p.name)
+        project = project_from_dict(data, source_bytes=raw, source_name=p.name)
     except ProjectError as exc:
         problems = [(_locate(where, cells), msg) for where, msg in exc.problems]
         raise ProjectError(problems, source=p.name) from None
+    project.warnings = [(_locate(where, cells), msg) for where, msg in project.warnings]
+    return project
 
 
 def _read(p: Path):
