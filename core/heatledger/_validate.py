@@ -16,6 +16,7 @@ Two kinds of bound live here, each with its justification beside it:
 from __future__ import annotations
 
 import datetime as _dt
+import functools
 import math
 import re
 from collections.abc import Iterable
@@ -413,12 +414,19 @@ def _lead(label: str) -> str:
     return f"{label}: " if label else ""
 
 
-def _has_word(names, words) -> str | None:
+@functools.lru_cache(maxsize=64)
+def _word_pattern(words: tuple) -> re.Pattern:
+    """One pattern matching any of ``words`` at the start of a word."""
+    return re.compile(r"(?<![a-z])(?:" + "|".join(map(re.escape, words)) + ")")
+
+
+@functools.lru_cache(maxsize=8192)
+def _has_word(names: tuple, words: tuple) -> str | None:
+    pattern = _word_pattern(words)
     for name in names:
-        text = str(name or "").lower()
-        for w in words:
-            if re.search(r"(?<![a-z])" + re.escape(w), text):
-                return w
+        found = pattern.search(str(name or "").lower())
+        if found:
+            return found.group(0)
     return None
 
 
