@@ -12,6 +12,7 @@ from __future__ import annotations
 import io
 import os
 import re
+from array import array
 from copy import copy
 from pathlib import Path
 from zipfile import ZIP_DEFLATED, ZipFile, ZipInfo
@@ -198,6 +199,30 @@ class _FixedTimeZipFile(ZipFile):
             self.writestr(str(arcname or filename), fh.read(), compress_type, compresslevel)
 
 
+class _SharedStyle(StyleArray):
+    """A style array shared by many cells, with its hash kept after the first use.
+
+    openpyxl looks every styled cell's array up in the workbook's style list when it writes
+    the file, hashing the nine numbers each time; a shared array is never changed once it
+    is in use, so its hash is computed once.
+    """
+
+    __slots__ = ("_hash",)
+
+    def __new__(cls, args):
+        return array.__new__(cls, "i", args)
+
+    def __hash__(self):
+        try:
+            return self._hash
+        except AttributeError:
+            self._hash = hash(tuple(self))
+            return self._hash
+
+    def __eq__(self, other):
+        return self is other or array.__eq__(self, other)
+
+
 class _StyleCache:
     """One openpyxl style array per (named style, number format, quote prefix)."""
 
@@ -215,7 +240,7 @@ class _StyleCache:
                 ns = _named_style(STYLES[name])
                 self.wb.add_named_style(ns)
                 self.named[name] = ns
-            arr = copy(ns.as_tuple())
+            arr = _SharedStyle(ns.as_tuple())
             fmt = number_format or STYLES[name].number_format
             if fmt in BUILTIN_FORMATS_REVERSE:
                 arr.numFmtId = BUILTIN_FORMATS_REVERSE[fmt]
