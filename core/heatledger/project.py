@@ -10,7 +10,7 @@ consultant counts rows).
 from __future__ import annotations
 
 import hashlib
-import sys
+import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -30,11 +30,6 @@ from .errors import HeatLedgerError, ProjectError
 from .fileio import read_bytes_limited
 from .materials import Material, MaterialLibrary, MaterialWithheld, default_library
 from .surfaces import HEAT_FLOWS
-
-if sys.version_info >= (3, 11):
-    import tomllib
-else:  # pragma: no cover - Python 3.10
-    import tomli as tomllib
 
 __all__ = ["Project", "ConstructionEntry", "load_project", "project_from_dict", "MAX_INPUT_BYTES"]
 

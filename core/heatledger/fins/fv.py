@@ -14,6 +14,7 @@ change is below ``tolerance``.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -418,8 +419,9 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
         change = 0.0
 
     q_base = float(sol.face_heat_rate[0])
-    loss_side = float(np.dot(_flux(law, eps, x, temp, t_inf, t_sur), p_dx))
-    ideal_side = float(np.dot(_flux(law, eps, x, np.full(n, t_b), t_inf, t_sur), p_dx))
+    # math.fsum: the reported heat rates must not depend on the BLAS kernel's summation order
+    loss_side = math.fsum(_flux(law, eps, x, temp, t_inf, t_sur) * p_dx)
+    ideal_side = math.fsum(_flux(law, eps, x, np.full(n, t_b), t_inf, t_sur) * p_dx)
     if tip == "convective":
         loss_tip = float(_flux(law, eps, np.array([length]), np.array([t_tip]), t_inf,
                                t_sur)[0]) * a_tip
