@@ -32,7 +32,7 @@ from xlwings import script
 
 from heatledger.errors import HeatLedgerError
 from heatledger.sheet.blocks_construction import add_construction_sheet
-from heatledger.sheet.plan import WorkbookPlan
+from heatledger.sheet.plan import WorkbookPlan, safe_sheet_name
 
 from .ranges import LIBRARY, build_construction, heat_flow_value, layer_rows, number, text
 from .render_xlwings import RenderReport, render_plan
@@ -44,7 +44,6 @@ __all__ = ["construction_plan", "write_construction_sheet", "HL_CALC_SHEET",
 NAMES = {"layers": "hl_layers", "temp_inside": "hl_temp_inside",
          "temp_outside": "hl_temp_outside", "heat_flow": "hl_heat_flow",
          "name": "hl_construction"}
-_BAD_SHEET_CHARS = str.maketrans({c: "-" for c in "[]:*?/\\"})
 
 
 def construction_plan(layers, temp_inside, temp_outside, heat_flow=None, *,
@@ -81,7 +80,7 @@ def construction_plan(layers, temp_inside, temp_outside, heat_flow=None, *,
     materials = [_library_name(cells[0]) for _, cells in rows]
     bridging = [_library_name(cells[5]) for _, cells in rows]
     plan = WorkbookPlan(title=f"heatledger calculation sheet: {name}")
-    sheet_name = (str(name).translate(_BAD_SHEET_CHARS).strip("'") or "construction")[:31]
+    sheet_name = safe_sheet_name(str(name) or "construction", set())
     add_construction_sheet(plan, sheet_name, construction, temp_inside=t_i, temp_outside=t_e,
                            nodes_per_layer=nodes_per_layer, materials=materials,
                            bridging_materials=bridging)

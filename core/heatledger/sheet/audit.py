@@ -8,7 +8,6 @@ after their own spreadsheet program has recalculated it.
 
 from __future__ import annotations
 
-import re
 from collections.abc import Callable
 
 from .. import cautions as _cautions
@@ -25,6 +24,7 @@ from .plan import (
     WorkbookPlan,
     fit_text_columns,
     fit_wrapped_rows,
+    safe_sheet_name,
     sheet_ref,
 )
 from .render_openpyxl import workbook_bytes, write_workbook
@@ -184,20 +184,11 @@ def _print(title: str, orientation: str, rows: str | None = None) -> PrintSetup:
 
 
 def _sheet_names(names) -> list[str]:
-    out: list[str] = []
     used: set[str] = set()
     width = max(2, len(str(len(names))))
-    for i, name in enumerate(names, 1):
-        clean = re.sub(r"[\[\]:*?/\\]", " ", str(name)).strip().strip("'")
-        clean = re.sub(r"\s+", " ", clean)
-        base = f"{i:0{width}d} {clean}"[:31].rstrip()
-        cand = base
-        k = 2
-        while cand.lower() in used or cand.lower() in ("cover", "materials", "summary"):
-            cand = f"{base[:28]}~{k}"
-            k += 1
-        used.add(cand.lower())
-        out.append(cand)
+    out = [safe_sheet_name(f"{i:0{width}d} {name}", used,
+                           reserved=("Cover", "Materials", "Summary"))
+           for i, name in enumerate(names, 1)]
     return out
 
 

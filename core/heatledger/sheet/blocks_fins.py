@@ -51,7 +51,15 @@ from .blocks_fins_closed import (
     _straight,
     _theta_ratio,
 )
-from .plan import Chart, ChartSeries, PrintSetup, WorkbookPlan, col_letter, sheet_ref
+from .plan import (
+    Chart,
+    ChartSeries,
+    PrintSetup,
+    WorkbookPlan,
+    col_letter,
+    safe_sheet_name,
+    sheet_ref,
+)
 
 __all__ = ["FinRefs", "add_fin_sheet", "add_fin_sheets", "FIN_METHODS", "PROFILE_POINTS"]
 
@@ -139,11 +147,8 @@ def add_fin_sheets(plan: WorkbookPlan, project, summary_cells: dict | None = Non
     refs = []
     used: set[str] = set()
     for i, entry in enumerate(project.fins, 1):
-        base = f"Fin {i} {entry.name}"
-        name = "".join(" " if ch in "[]:*?/\\'" else ch for ch in base)[:31].rstrip()
-        while name.lower() in used:
-            name = name[:28] + f"~{len(used)}"
-        used.add(name.lower())
+        name = safe_sheet_name(f"Fin {i} {entry.name}", used, reserved=[s.name for s in
+                                                                         plan.sheets])
         refs.append(add_fin_sheet(plan, name, entry, tolerance=tolerance,
                                   project_name=project_name))
         plan.index[("fins", entry.name)] = refs[-1]

@@ -20,7 +20,6 @@ clauses 8.2 to 8.4 and Annex B [M].
 
 from __future__ import annotations
 
-import re
 from dataclasses import dataclass, field
 
 from .. import cautions as _cautions
@@ -29,7 +28,7 @@ from ..heatloss import AIR_DENSITY, AIR_SPECIFIC_HEAT, AdjacentRoom, Ground, Out
 from ..heatloss.project_io import GroundFloorU
 from ..windows import DeclaredWindow, WindowResult
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet
-from .plan import Chart, ChartSeries, WorkbookPlan, col_letter, sheet_ref
+from .plan import Chart, ChartSeries, WorkbookPlan, col_letter, safe_sheet_name, sheet_ref
 
 __all__ = ["HeatLossRefs", "add_heatloss_sheets", "BUILDING_SHEET", "DEFAULT_CHECK_TOLERANCE",
            "HEATLOSS_METHODS"]
@@ -799,15 +798,6 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
 
 # --------------------------------------------------------------------------- helpers
 def _room_sheet_names(names, used) -> list[str]:
-    out = []
-    for i, name in enumerate(names, 1):
-        clean = re.sub(r"[\[\]:*?/\\]", " ", str(name)).strip().strip("'")
-        clean = re.sub(r"\s+", " ", clean)
-        base = f"Room {i} {clean}"[:31].rstrip()
-        cand, k = base, 2
-        while cand.lower() in used or cand.lower() == BUILDING_SHEET.lower():
-            cand = f"{base[:28]}~{k}"
-            k += 1
-        used.add(cand.lower())
-        out.append(cand)
+    out = [safe_sheet_name(f"Room {i} {name}", used, reserved=(BUILDING_SHEET,))
+           for i, name in enumerate(names, 1)]
     return out

@@ -110,6 +110,52 @@ def col_letter(index: int) -> str:
     return out
 
 
+#: Characters no sheet name may hold: Excel's forbidden []:*?/\\ and control characters.
+_SHEET_NAME_BAD = re.compile(r"[\[\]:*?/\\\x00-\x1f\x7f]")
+
+
+def safe_sheet_name(text: str, used: set[str], *, reserved: Iterable[str] = ()) -> str:
+    """A valid, unique sheet name made from ``text``; the name is added to ``used``.
+
+    Forbidden characters (``[]:*?/\\`` and control characters) become spaces, runs of
+    spaces one space; the name is cut to 31 characters and then loses leading and trailing
+    apostrophes (a name ending in ``'`` makes a workbook that LibreOffice cannot open). A
+    name already in ``used`` or ``reserved`` (compared without case) gets ``~2``, ``~3``...
+
+    Parameters
+    ----------
+    text : str
+        The wanted name (a construction, room or fin name with its number). [-]
+    used : set of str
+        Lower-case names already taken; updated. [-]
+    reserved : iterable of str
+        Names kept for fixed sheets (``Cover``, ``Summary``...). [-]
+
+    Examples
+    --------
+    >>> safe_sheet_name("07 Ground floor: slab/edge", set())
+    '07 Ground floor slab edge'
+    >>> safe_sheet_name("03 Roof over the old Gardeners' shed", set())  # cut at the '
+    '03 Roof over the old Gardeners'
+    >>> safe_sheet_name("'" * 40, set())
+    'Sheet'
+    """
+    taken = used | {r.lower() for r in reserved}
+
+    def tidy(name: str) -> str:
+        return name.rstrip().strip("'").rstrip()
+
+    base = tidy(re.sub(r"\s+", " ", _SHEET_NAME_BAD.sub(" ", str(text))).strip()[:31]) \
+        or "Sheet"
+    name, k = base, 2
+    while name.lower() in taken:
+        suffix = f"~{k}"
+        name = tidy(base[:31 - len(suffix)]) + suffix
+        k += 1
+    used.add(name.lower())
+    return name
+
+
 def col_index(letters: str) -> int:
     """1-based column index of column letters (``A`` -> 1).
 
@@ -703,10 +749,12 @@ class Sheet:
     row_breaks: list[int] = field(default_factory=list)
 
     def __post_init__(self) -> None:
-        bad = set(self.name) & set("[]:*?/\\")
-        if not self.name or len(self.name) > 31 or bad or self.name.startswith("'"):
+        bad = _SHEET_NAME_BAD.search(self.name)
+        if not self.name or len(self.name) > 31 or bad or self.name.startswith("'") \
+                or self.name.endswith("'"):
             raise HeatLedgerError(
-                f"sheet name must be 1 to 31 characters without []:*?/\\ ; got {self.name!r}"
+                "sheet name must be 1 to 31 characters without []:*?/\\ or control "
+                f"characters, and must not start or end with an apostrophe; got {self.name!r}"
             )
 
     def block(self, name: str) -> Block:

@@ -55,9 +55,10 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
     plan.validate()
     wb = Workbook()
     wb.remove(wb.active)
-    wb.properties.title = plan.title
-    wb.properties.creator = plan.creator
-    wb.properties.lastModifiedBy = plan.creator
+    # control characters make an invalid document (the project name is user text)
+    wb.properties.title = _printable(plan.title)
+    wb.properties.creator = _printable(plan.creator)
+    wb.properties.lastModifiedBy = _printable(plan.creator)
     wb.properties.created = plan.timestamp
     wb.properties.modified = plan.timestamp
     wb.calculation.fullCalcOnLoad = True
@@ -317,7 +318,7 @@ def _chart(wb: Workbook, spec: Chart):
         for s in spec.series:
             xs = _reference(wb, s.categories) if s.categories else None
             ys = _reference(wb, s.values)
-            ser = Series(ys, xs, title=s.title)
+            ser = Series(ys, xs, title=_printable(s.title))
             if s.marker:
                 ser.marker = Marker(symbol=s.marker, size=5 if s.line else 8)
                 if s.color:
@@ -343,27 +344,32 @@ def _chart(wb: Workbook, spec: Chart):
         ch.type = "col"
         for s in spec.series:
             ys = _reference(wb, s.values)
-            ser = Series(ys, title=s.title)
+            ser = Series(ys, title=_printable(s.title))
             if s.color:
                 ser.graphicalProperties.solidFill = s.color
             ch.series.append(ser)
         if spec.series and spec.series[0].categories:
             ch.set_categories(_reference(wb, spec.series[0].categories))
-    ch.x_axis.title = spec.x_title or None
-    ch.y_axis.title = spec.y_title or None
+    ch.x_axis.title = _printable(spec.x_title) or None
+    ch.y_axis.title = _printable(spec.y_title) or None
     ch.x_axis.delete = False
     ch.y_axis.delete = False
     if spec.y_format:
         ch.y_axis.number_format = spec.y_format
-    ch.title = spec.title
+    ch.title = _printable(spec.title)
     ch.width = spec.width_cm
     ch.height = spec.height_cm
     ch.legend.position = "b"
     return ch
 
 
+def _printable(text):
+    """``text`` without the control characters XML 1.0 cannot hold (None stays None)."""
+    return None if text is None else ILLEGAL_CHARACTERS_RE.sub("", str(text))
+
+
 def _hf(text: str) -> str:
-    out = text.replace("&", "&&")
+    out = _printable(text).replace("&", "&&")
     for token, code in _TOKENS.items():
         out = out.replace(token, code)
     return out
