@@ -138,7 +138,7 @@ def test_project_file_over_the_size_limit(tmp_path, monkeypatch):
     monkeypatch.setattr(project_module, "MAX_INPUT_BYTES", size - 1)
     with pytest.raises(HeatLedgerError) as err:
         load_project(p)
-    assert str(err.value) == (f"project file 'p.toml' is {size} bytes; the limit is "
+    assert str(err.value) == ('project file "p.toml" is larger than allowed; the limit is '
                               f"{size - 1} bytes")
     monkeypatch.setattr(project_module, "MAX_INPUT_BYTES", size)
     assert load_project(p).constructions == []

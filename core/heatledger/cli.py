@@ -4,7 +4,8 @@
     heatledger calc FILE [--json]   results of a TOML project file
     heatledger materials [--json]   the material library
 
-Exit codes: 0 success, 1 input problem (message on stderr), 2 usage error.
+Exit codes: 0 success, 1 input problem (message on stderr), 2 usage error, 3 a defect of
+heatledger (one line on stderr; HEATLEDGER_TRACEBACK=1 shows the traceback).
 """
 
 from __future__ import annotations
@@ -47,6 +48,17 @@ def main(argv=None) -> int:
         print(f"heatledger: {exc.strerror or exc}: {exc.filename or ''}".rstrip(": "),
               file=sys.stderr)
         return 1
+    except KeyboardInterrupt:
+        print("heatledger: stopped", file=sys.stderr)
+        return 130
+    except Exception as exc:  # noqa: BLE001 - a user never sees a traceback
+        if os.environ.get("HEATLEDGER_TRACEBACK"):
+            raise
+        reason = " ".join(str(exc).split())[:160]
+        print(f"heatledger: unexpected problem ({type(exc).__name__}: {reason}); this is a "
+              "defect of heatledger: please report it with the input file (set "
+              "HEATLEDGER_TRACEBACK=1 to see the details)", file=sys.stderr)
+        return 3
 
 
 def demo_bytes() -> bytes:

@@ -155,6 +155,9 @@ def load_project(path) -> Project:
                            source=p.name) from None
     except tomllib.TOMLDecodeError as exc:
         raise ProjectError([("file", f"not valid TOML: {exc}")], source=p.name) from None
+    except RecursionError:
+        raise ProjectError([("file", "not a project file: arrays or tables are nested too "
+                             "deeply to read")], source=p.name) from None
     return project_from_dict(data, source_bytes=data_bytes, source_name=p.name)
 
 

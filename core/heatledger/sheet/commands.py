@@ -9,7 +9,9 @@ from __future__ import annotations
 import sys
 from pathlib import Path
 
+from .._validate import quote
 from ..errors import HeatLedgerError
+from ..fileio import same_file
 from .audit import write_audit
 from .render_openpyxl import write_workbook
 from .template import project_from_template, template_plan
@@ -38,13 +40,13 @@ def load_any_project(path):
     p = Path(path)
     suffix = p.suffix.lower()
     if not p.exists():
-        raise HeatLedgerError(f"input file {str(p)!r} does not exist")
+        raise HeatLedgerError(f"input file {quote(p)} does not exist")
     if suffix == ".toml":
         return load_project(p)
     if suffix in (".xlsx", ".xlsm"):
         return project_from_template(p)
     raise HeatLedgerError(f"input file must be a project file (.toml) or a filled-in template "
-                          f"(.xlsx); got {p.name!r}")
+                          f"(.xlsx); got {quote(p.name)}")
 
 
 def run_template(output, *, force: bool = False, blank: bool = False) -> int:
@@ -84,8 +86,13 @@ def run_audit(source, output, *, force: bool = False, quiet: bool = False) -> in
         No progress display. [-]
     """
     out = Path(output)
+    if same_file(source, out):
+        raise HeatLedgerError(
+            f"the output {quote(out)} is the input file {quote(source)} itself (or a link to "
+            "it); writing the audit there would destroy the project: choose another output "
+            "name")
     if out.exists() and not force:
-        raise HeatLedgerError(f"output file {str(out)!r} exists; choose another name or use "
+        raise HeatLedgerError(f"output file {quote(out)} exists; choose another name or use "
                               "--force to replace it")
     project = load_any_project(source)
     return _write(project, out, force=force, quiet=quiet)

@@ -17,6 +17,7 @@ import zipfile
 from dataclasses import replace
 from pathlib import Path
 
+from .._validate import quote
 from ..errors import HeatLedgerError, ProjectError
 from ..fileio import read_bytes_limited
 from ..materials import default_library
@@ -389,7 +390,6 @@ def project_from_template(path) -> Project:
 
 def _read(p: Path):
     import openpyxl
-    from openpyxl.utils.exceptions import InvalidFileException
     from openpyxl.xml import DEFUSEDXML
 
     if not DEFUSEDXML:
@@ -411,17 +411,30 @@ def _read(p: Path):
         raise HeatLedgerError(f"{p.name!r} is not an .xlsx workbook (no xl/workbook.xml)")
     try:
         wb = openpyxl.load_workbook(io.BytesIO(raw), read_only=True, data_only=True)
-    except (InvalidFileException, KeyError, ValueError, TypeError, zipfile.BadZipFile,
-            OSError) as exc:
-        raise HeatLedgerError(f"{p.name!r} cannot be read as a workbook: "
-                              f"{type(exc).__name__}: {str(exc)[:120]}") from None
     except Exception as exc:  # noqa: BLE001 - malformed XML surfaces as many exception types
-        raise HeatLedgerError(f"{p.name!r} is malformed and cannot be read: "
-                              f"{type(exc).__name__}") from None
+        raise HeatLedgerError(f"{quote(p.name)} cannot be read as a workbook "
+                              f"({_reason(exc)}); save the template again from a spreadsheet "
+                              "program") from None
     try:
         return _parse(wb, p.name, raw)
+    except (zipfile.BadZipFile, OSError, EOFError, ValueError, KeyError, RecursionError,
+            SyntaxError) as exc:  # SyntaxError: the XML parser's ParseError
+        if isinstance(exc, HeatLedgerError):
+            raise
+        raise HeatLedgerError(f"{quote(p.name)} is damaged and cannot be read "
+                              f"({_reason(exc)}); save the template again from a spreadsheet "
+                              "program") from None
     finally:
         wb.close()
+
+
+def _reason(exc: BaseException) -> str:
+    """A short, one-line reason for a reading failure."""
+    text = " ".join(str(exc).split())[:100]
+    kinds = {"BadZipFile": "the archive is corrupt", "ParseError": "broken XML",
+             "RecursionError": "nested too deeply", "EOFError": "the file ends early"}
+    kind = kinds.get(type(exc).__name__, type(exc).__name__)
+    return f"{kind}: {text}" if text else kind
 
 
 def _parse(wb, source: str, raw: bytes):
@@ -528,9 +541,15 @@ def _read_table(ws, name, cols, problems):
                          "inserted or deleted?)"))
         return []
     out = []
-    for r, row in enumerate(ws.iter_rows(min_row=HEADER_ROW + 1, max_col=len(cols),
-                                         values_only=True), HEADER_ROW + 1):
-        values = list(row) + [None] * (len(cols) - len(row))
+    for r, values, uncached in present_rows(ws, HEADER_ROW + 1, len(cols)):
+        if uncached:
+            refs = ", ".join(f"{name}!{col_letter(j)}{r}" for j in uncached)
+            problems.append((f"{name}!{col_letter(uncached[0])}{r}",
+                             f"formula cells {refs} have no calculated value (the file was "
+                             "written by a program that does not calculate); open the template "
+                             "in a spreadsheet program, let it recalculate and save, or type "
+                             "the values"))
+            continue
         if all(v is None or (isinstance(v, str) and not v.strip()) for v in values):
             continue
         if r > HEADER_ROW + MAX_ROWS:
@@ -562,6 +581,50 @@ def _read_table(ws, name, cols, problems):
         where["_row"] = f"{name}!A{r}"
         out.append((rec, where))
     return out
+
+
+def present_rows(ws, first_row: int, ncols: int):
+    """The rows a read-only sheet really holds, from ``first_row`` on.
+
+    Yields ``(row number, values of columns 1..ncols, columns of formula cells without a
+    calculated value)`` for every row written in the sheet's XML, read to its real end: the
+    ``<dimension>`` tag, which a program may write wrong, is not trusted, and rows absent
+    from the file (a jump from row 20 to row 1,000,000) cost nothing.
+
+    Parameters
+    ----------
+    ws : openpyxl read-only worksheet
+        The sheet, from a workbook opened with ``data_only=True``. [-]
+    first_row : int
+        First row to yield (1-based). [-]
+    ncols : int
+        Number of columns to read. [-]
+    """
+    from openpyxl.worksheet._reader import FORMULA_TAG, WorkSheetParser
+
+    class _Parser(WorkSheetParser):  # notes formula cells, which data_only reading hides
+        def parse_cell(self, element):
+            cell = super().parse_cell(element)
+            cell["formula"] = element.find(FORMULA_TAG) is not None
+            return cell
+
+    book = ws.parent
+    with ws._get_source() as src:
+        parser = _Parser(src, ws._shared_strings, data_only=True, epoch=book.epoch,
+                         date_formats=book._date_formats,
+                         timedelta_formats=book._timedelta_formats)
+        for idx, cells in parser.parse():
+            if idx < first_row:
+                continue
+            values = [None] * ncols
+            uncached = []
+            for cell in cells:
+                col = cell["column"]
+                if col <= ncols:
+                    values[col - 1] = cell["value"]
+                    if cell["formula"] and cell["value"] is None:
+                        uncached.append(col)
+            yield idx, values, uncached
 
 
 def _row_values(ws, row, ncols):
