@@ -852,3 +852,32 @@ def test_fv_h_varying_along_the_fin_against_solve_bvp():
     assert fv.mesh_estimate.extrapolated == pytest.approx(q_bvp, rel=1e-7)
     assert fv.heat_rate == pytest.approx(q_bvp, rel=rtol_fv_fine)
     assert fv.iterations == 2  # a callable may depend on T: one check solve confirms no change
+
+
+# ----------------------------------------------------------------------------- infinite tip
+@pytest.mark.parametrize("length_over_m", [0.05, 0.5, 1.0, 3.0])
+def test_infinite_tip_efficiency_never_exceeds_one(length_over_m):
+    # An infinitely long fin stated with a short length L used to report q_f/(h A_f theta_b)
+    # = 1/(mL) > 1 (the heat shed beyond L over the area up to L). Exact loss on 0..L of
+    # theta = theta_b exp(-m x): integral of h P theta dx = M theta_b (1 - exp(-mL))
+    # (Incropera & DeWitt 6th ed., Table 3.4 case D, integrated here), so
+    # eta_f = (1 - exp(-mL))/(mL).
+    m = pin().m
+    fin = pin(tip="infinite", length=length_over_m / m)
+    ml = m * fin.length
+    exact = -math.expm1(-ml) / ml
+    assert fin.efficiency == pytest.approx(exact, rel=1e-12)
+    assert 0.0 < fin.efficiency <= 1.0
+    fv = fin.finite_volume(T_B, T_INF, nodes=400)
+    assert fv.efficiency <= 1.0
+    assert fv.efficiency == pytest.approx(exact, rel=1e-4)  # second order at 400 cells
+    # the heat the fin sheds, continuation included, is still M theta_b (case D)
+    assert fin.heat_rate(T_B, T_INF) == pytest.approx(fin.conductance * THETA_B, rel=1e-14)
+
+
+def test_array_of_infinite_fins_keeps_the_heat_beyond_the_stated_length():
+    # an array's fin heat is the fin's conductance times theta_b (eta_f h A_f for finite tips)
+    fin = pin(tip="infinite", length=0.2 / pin().m)
+    arr = FinArray(fin, count=10, base_area=0.01)
+    bare = fin.h * arr.exposed_base_area * THETA_B
+    assert arr.heat_rate(T_B, T_INF) == pytest.approx(10 * fin.conductance * THETA_B + bare, rel=1e-12)

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
 from .. import _validate as v
@@ -19,8 +21,17 @@ class FinBase:
     # ------------------------------------------------------------------ properties
     @property
     def efficiency(self) -> float:
-        """Fin efficiency ``eta_f = q_f / (h A_f theta_b)``. [-]"""
+        """Fin efficiency ``eta_f = q_f / (h A_f theta_b)``. [-]
+
+        For an infinitely long fin (tip ``"infinite"``) ``A_f`` is the lateral area of the
+        stated length ``L`` and ``q_f`` the heat shed on that length,
+        ``M theta_b (1 - exp(-m L))``, so ``eta_f = (1 - exp(-m L))/(m L) <= 1``; the heat the
+        fin sheds beyond ``L`` is in :attr:`conductance` and :attr:`effectiveness`.
+        """
         self._need_linear_tip("efficiency")
+        if getattr(self, "tip", None) == "infinite":
+            ml = self.m * self.length
+            return float(-math.expm1(-ml) / ml)
         g_b, _ = self._conductances()
         return float(g_b / (self.h * self.fin_area))
 

@@ -102,16 +102,19 @@ class FinArray:
 
     @property
     def contact_factor(self) -> float:
-        """``C_1 = 1 + eta_f h A_f R''_t,c / A_c,b`` (1 without contact resistance). [-]"""
+        """``C_1 = 1 + eta_f h A_f R''_t,c / A_c,b`` (1 without contact resistance). [-]
+
+        ``eta_f h A_f`` is the fin's conductance ``q_f / theta_b`` (for an infinitely long fin
+        the heat it sheds beyond its stated length is included)."""
         f = self.fin
-        return 1.0 + f.efficiency * f.h * f.fin_area * self.contact_resistance / \
-            f.cross_section_area
+        return 1.0 + f.conductance * self.contact_resistance / f.cross_section_area
 
     @property
     def overall_efficiency(self) -> float:
         """Overall surface efficiency ``eta_o`` (contact form when R''_t,c > 0). [-]"""
-        share = self.count * self.fin.fin_area / self.total_area
-        return 1.0 - share * (1.0 - self.fin.efficiency / self.contact_factor)
+        f = self.fin
+        share = self.count * f.fin_area / self.total_area
+        return 1.0 - share * (1.0 - f.conductance / (f.h * f.fin_area) / self.contact_factor)
 
     @property
     def resistance(self) -> float:
@@ -161,9 +164,9 @@ class FinArray:
         theta = t_b - t_inf
         f = self.fin
         c1 = self.contact_factor
-        fin_q = f.efficiency / c1 * f.h * f.fin_area * theta
+        fin_q = f.conductance / c1 * theta
         warns = tuple(f.warnings)
-        if self.count and f.efficiency / c1 * f.fin_area <= f.cross_section_area:
+        if self.count and f.conductance / (c1 * f.h) <= f.cross_section_area:
             warns += ("each fin (with its contact resistance) sheds no more than the base "
                       "area it covers: the array is no better than the bare base",)
         result = FinArrayResult(
@@ -298,7 +301,7 @@ class FinArray:
                 raise HeatLedgerError(f"max_count must be a whole number >= 0; got "
                                       f"{v.show(max_count)}")
             limit = min(limit, int(max_count))
-        per_fin = f.h * (f.efficiency / self.contact_factor * f.fin_area - f.cross_section_area)
+        per_fin = f.conductance / self.contact_factor - f.h * f.cross_section_area
         bare = f.h * self.base_area
 
         def q_of(n: float) -> float:  # per kelvin times |theta|

@@ -433,9 +433,7 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
         loss_tip, ideal_tip = float(sol.face_heat_rate[-1]), 0.0
     if tip in ("convective", "adiabatic"):
         num, den = loss_side + loss_tip, ideal_side + ideal_tip
-    elif tip == "infinite":
-        num, den = q_base, ideal_side
-    else:
+    else:  # prescribed or infinite tip: the lateral loss on the stated length (at most 1)
         num, den = loss_side, ideal_side
     efficiency = num / den if den != 0.0 else float("nan")  # base at ambient: undefined
     scale = max(abs(q_base), abs(loss_side), abs(loss_tip), np.finfo(float).tiny)

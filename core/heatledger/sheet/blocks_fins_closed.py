@@ -196,8 +196,15 @@ def _straight(w, r, fin, res):
         r["G"] = w.line("G_f = q_f/θ_b [W/K]", formula=g[key][0], engine=fin.conductance,
                         note=note)
         r["q"] = w.line("q_f = G_f θ_b [W]", formula=f"={r['G']}*{th}", engine=res.heat_rate)
-        r["eta"] = w.line("η_f = G_f/(h A_f) [-]", formula=f"={r['G']}/({r['h']}*{r['Af']})",
-                          engine=res.efficiency, note="eq. 3.86; 1/(mL) for case D")
+        if fin.tip == "infinite":  # the loss on the stated length L only, at most 1
+            r["eta"] = w.line("η_f = (1 − e^(−mL))/(m L) [-]", formula=f"=(1-EXP(-{ml}))/{ml}",
+                              engine=res.efficiency,
+                              note="case D: heat shed on 0..L, M θ_b (1 − e^(−mL)), over "
+                                   "h A_f θ_b")
+        else:
+            r["eta"] = w.line("η_f = G_f/(h A_f) [-]",
+                              formula=f"={r['G']}/({r['h']}*{r['Af']})", engine=res.efficiency,
+                              note="eq. 3.86")
         r["eps"] = w.line("ε_f = G_f/(h A_c) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
                           engine=res.effectiveness, note="eq. 3.81")
         r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.resistance,
