@@ -313,17 +313,19 @@ def _array(w, r, entry):
                 engine=res.exposed_base_area, fmt=F_E)
     at = w.line("A_t = N A_f + A_b [m2]", formula=f"={n}*{r['Af']}+{ab}", engine=res.total_area,
                 fmt=F_E)
+    # G_f = eta_f h A_f, the fin's own conductance where the sheet has it (it keeps the heat an
+    # infinitely long fin sheds beyond its stated length)
+    g_f = r["G"] if "G" in r else f"{r['eta']}*{r['h']}*{r['Af']}"
     c1 = w.line("C_1 = 1 + η_f h A_f R''_t,c/A_c,b [-]",
-                formula=f"=1+{r['eta']}*{r['h']}*{r['Af']}*{rc}/{r['Ac']}",
-                engine=res.contact_factor)
+                formula=f"=1+{g_f}*{rc}/{r['Ac']}", engine=res.contact_factor)
     eta_o = w.line("η_o = 1 − (N A_f/A_t)(1 − η_f/C_1) [-]",
-                   formula=f"=1-{n}*{r['Af']}/{at}*(1-{r['eta']}/{c1})",
+                   formula=f"=1-{n}*{r['Af']}/{at}*(1-{g_f}/({r['h']}*{r['Af']})/{c1})",
                    engine=res.overall_efficiency, note="eqs. 3.107 and 3.110")
     res_o = w.line("R_t,o = 1/(η_o h A_t) [K/W]", formula=f"=1/({eta_o}*{r['h']}*{at})",
                    engine=res.resistance, note="eq. 3.108")
     q_t = w.line("q_t = θ_b/R_t,o [W]", formula=f"={r['theta']}/{res_o}", engine=res.heat_rate)
     w.line("q per fin = (η_f/C_1) h A_f θ_b [W]",
-           formula=f"={r['eta']}/{c1}*{r['h']}*{r['Af']}*{r['theta']}", engine=res.fin_heat_rate)
+           formula=f"={g_f}/{c1}*{r['theta']}", engine=res.fin_heat_rate)
     w.line("bare base alone h A_base θ_b [W]", formula=f"={r['h']}*{base}*{r['theta']}", fmt=F_G,
            note="for comparison: the base without fins")
     for text in res.warnings[len(entry.fin.warnings):]:
