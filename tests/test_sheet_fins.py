@@ -160,7 +160,9 @@ def test_every_fin_check_ok_and_values_equal_engine(project, tmp_path, recalc, s
     m = math.sqrt(4 * h / (k * d))
     assert _value(wb, refs.heat_rate) == pytest.approx(
         math.sqrt(h * math.pi * d * k * math.pi * d * d / 4) * 60.0, rel=1e-12)
-    assert _value(wb, refs.efficiency) == pytest.approx(1.0 / (m * big_l), rel=1e-12)
+    # efficiency over the stated length: (1 - exp(-mL))/(mL), case D integrated on 0..L
+    assert _value(wb, refs.efficiency) == pytest.approx(-math.expm1(-m * big_l) / (m * big_l),
+                                                        rel=1e-12)
     # source: scipy.special.iv and kv (Cephes / AMOS): the sheet's I_n by BESSELI and K_n
     # by the trapezoidal integral, recomputed by LibreOffice
     refs = plan.index[("fins", "annular, adiabatic rim, array")]

@@ -232,8 +232,8 @@ class FinBase:
 
     def _ratios(self, q, theta_b, theta_l, g_b):
         if getattr(self, "tip", None) != "temperature":
-            return (float(g_b / (self.h * self.fin_area)),
-                    float(g_b / (self.h * self.cross_section_area)), float(1.0 / g_b))
+            return (self.efficiency, float(g_b / (self.h * self.cross_section_area)),
+                    float(1.0 / g_b))
         if theta_b == 0.0:
             nan = float("nan")
             return nan, nan, nan
