@@ -157,10 +157,11 @@ def test_results_spill_carries_the_fv_check_and_the_warning():
     assert rows[0] == ["quantity", "value", "unit"]
     values = {r[0]: r[1] for r in rows[1:] if r[0] != "warning"}
     assert values["effectiveness"] < 1
-    # the Richardson mesh estimate predicts the finite-volume error against the closed form
-    # (source of the estimate: Roache 1998, eq. 5.4.1); 10 %: the asymptotic regime
+    # the mesh estimate bounds the finite-volume error against the closed form: Richardson
+    # with the observed order times the safety factor 1.25 (Roache 1998, eq. 5.4.1 and
+    # section 5.9), so at least the error and at most 1.25 x it plus the asymptotic slack
     error = abs(values["fv_heat_rate"] - values["heat_rate"])
-    assert error == pytest.approx(values["fv_mesh_estimate"], rel=0.10)
+    assert error <= values["fv_mesh_estimate"] <= 1.35 * error
     assert abs(values["fv_energy_residual"]) < 1e-9
     assert any(r[0] == "warning" and "does not help" in r[1] for r in rows)
     assert len({len(r) for r in rows}) == 1

@@ -286,7 +286,7 @@ def test_realistic_tables_give_the_engines_own_numbers(wall, t_in, t_out):
     assert [r[3] for r in nodes] == pytest.approx(list(fv.temperature), abs=ATOL_FV_K)
     assert [r[2] for r in nodes] == pytest.approx(list(fv.x * 1000.0), rel=RTOL_SAME)
     check = dict(udfs.HL_FVCHECK(cells, t_in, t_out, *args, 3))
-    assert check["heat flux, this mesh [W/m2]"] == pytest.approx(fv.heat_flux, rel=RTOL_SAME,
+    assert check["heat flux, finite volumes [W/m2]"] == pytest.approx(fv.heat_flux, rel=RTOL_SAME,
                                                                  abs=1e-12)
 
 

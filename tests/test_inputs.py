@@ -140,27 +140,28 @@ def test_nodes_per_layer_beyond_the_bound_is_refused_in_a_project(nodes):
 
 
 @pytest.mark.parametrize("kwargs", [{"nodes_per_layer": 10**9}, {"nodes_per_layer": 10**7},
-                                    {"nodes_per_layer": [60_000, 60_000]},
+                                    {"nodes_per_layer": [600_000, 600_000]},
                                     {"max_spacing": 1e-300}, {"max_spacing": 5e-324}])
 def test_huge_meshes_are_refused_by_the_engine_before_any_memory_is_taken(kwargs):
     con = Construction([Layer(0.2, 1.35), Layer(0.1, 0.035)])
-    with pytest.raises(HeatLedgerError, match="at most 10000 per layer and 100000"):
+    with pytest.raises(HeatLedgerError, match="at most 1000000 per layer and 1000000"):
         con.temperatures(20.0, -5.0, **kwargs)
 
 
-def test_the_largest_mesh_accepted_stays_well_under_a_hundred_megabytes():
+def test_the_largest_mesh_accepted_stays_under_three_hundred_megabytes():
     from heatledger._validate import MAX_CELLS, MAX_CELLS_PER_LAYER
 
-    layers = [Layer(0.1, 1.0)] * (MAX_CELLS // MAX_CELLS_PER_LAYER)
+    layers = [Layer(0.1, 1.0)] * max(1, MAX_CELLS // MAX_CELLS_PER_LAYER)
     con = Construction(layers)
     tracemalloc.start()
     try:
-        con.temperatures(20.0, -5.0, nodes_per_layer=MAX_CELLS_PER_LAYER)
+        res = con.temperatures(20.0, -5.0, nodes_per_layer=MAX_CELLS_PER_LAYER)
+        _ = (res.mesh_estimate, res.fv.face_temperature)  # all a caller may read
         peak = tracemalloc.get_traced_memory()[1]
     finally:
         tracemalloc.stop()
-    # common practice, no published source: "well under a few hundred MB" on a laptop
-    assert peak < 100e6
+    # common practice, no published source: "a few hundred MB at most" on a laptop
+    assert peak < 300e6
 
 
 @pytest.mark.parametrize("value", [float("nan"), float("inf"), "100", True, [100],

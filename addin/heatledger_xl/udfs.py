@@ -331,8 +331,9 @@ def HL_TNODES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=N
      ranges=("layers",), spills=True)
 def HL_FVCHECK(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=None,
                nodes_per_layer=None, header=None):
-    """Checks of the finite-volume solution behind HL_TNODES: energy-balance residual, heat
-    flux on this and a doubled mesh, Richardson estimate and its error. [-, W/m2, K]"""
+    """Checks of the finite-volume solution behind HL_TNODES: energy-balance residual, the
+    heat flux against the closed-form resistance ladder, and the mesh estimate (exact for
+    layers without heat sources). [-, W/m2, K]"""
     show_header = flag("header", header, False)
     c = _construction(layers, heat_flow, rsi, rse)
     t_i, t_e = _temperatures(temp_inside, temp_outside)
@@ -341,13 +342,14 @@ def HL_FVCHECK(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=
     est = res.mesh_estimate
     _check_fv(c, layers, t_i, t_e, res.interface_temperatures.tolist(),
               res.temperature.tolist(), (est.coarse, est.fine))
-    rows = [["energy-balance residual [-]", float(res.energy_residual)],
-            ["heat flux, this mesh [W/m2]", float(est.coarse)],
-            ["heat flux, every cell halved [W/m2]", float(est.fine)],
-            ["heat flux, Richardson extrapolation [W/m2]", float(est.extrapolated)],
+    rows = [["energy-balance residual (conservation, rounding) [-]",
+             float(res.energy_residual)],
+            ["heat flux, finite volumes [W/m2]", float(res.heat_flux)],
+            ["heat flux, resistance ladder (independent) [W/m2]",
+             float(res.ladder_heat_flux)],
+            ["relative difference from the ladder [-]", float(res.ladder_difference)],
             ["estimated error of the heat flux [W/m2]", float(est.error_estimate)],
-            ["largest interface temperature change, halved cells [K]",
-             float(res.mesh_temperature_change)]]
+            [f"mesh: {est.basis}"[:250], float(res.mesh_temperature_change)]]
     return _with_header(rows, ["quantity", "value"], show_header)
 
 

@@ -296,12 +296,13 @@ LIMITS = {
 }
 
 #: Most finite-volume cells per layer the engine accepts. [-]
-#: A cell costs about 250 bytes with the refined check solve (measured with tracemalloc:
-#: 23 MB for 100 000 cells); 10 000 cells per layer is far finer than any layer needs
-#: (the solve converges as 1/n^2). Common practice, no published source.
-MAX_CELLS_PER_LAYER = 10_000
-#: Most finite-volume cells in one construction (about 25 MB of memory, see above). [-]
-MAX_CELLS = 100_000
+#: A cell costs about 250 bytes with the refinement and the mesh estimate (measured with
+#: tracemalloc), so a million cells take about 250 MB: far finer than any layer needs (the
+#: scheme is exact for plain layers and converges as 1/n^2 otherwise), and the size of the
+#: solver benchmark. Common practice, no published source.
+MAX_CELLS_PER_LAYER = 1_000_000
+#: Most finite-volume cells in one construction (about 250 MB of memory, see above). [-]
+MAX_CELLS = 1_000_000
 #: Most cells per layer a project file or template may ask for: each cell is a row of the
 #: audit sheet (as for fins, ``[fins.fv] cells``). [-]
 MAX_PROJECT_CELLS_PER_LAYER = 500

@@ -135,6 +135,8 @@ def project_results(project: Project) -> dict:
             ],
             "energy_residual": temps.energy_residual,
             "mesh_estimate_heat_flux": temps.mesh_estimate.error_estimate,
+            "mesh_estimate_basis": temps.mesh_estimate.basis,
+            "ladder_heat_flux": temps.ladder_heat_flux,
             "nodes": int(temps.x.size),
             "warnings": list(con.warnings),
             "sizing": sizing,
@@ -179,9 +181,13 @@ def _print_table(results: dict, stream=None) -> None:
         w(f"{c['name'][:36]:<36} {c['heat_flow']:<10} {c['total_resistance']:>10.3f} "
           f"{c['u_value']:>9.4f} {c['u_value_reported']:>#10.2g} {target:>7} {met:>4}\n")
     for c in results["constructions"]:
-        w(f"\n{c['name']}: heat flux {c['heat_flux']:.3f} W/m2, energy balance residual "
-          f"{c['energy_residual']:.1e}, mesh estimate {c['mesh_estimate_heat_flux']:.1e} W/m2 "
-          f"({c['nodes']} nodes)\n")
+        exact = c["mesh_estimate_basis"].startswith("exact")
+        mesh = ("mesh: exact for this case" if exact else
+                f"mesh error bound {c['mesh_estimate_heat_flux']:.1e} W/m2")
+        ladder = ("" if c["ladder_heat_flux"] is None else
+                  f", ladder check {c['ladder_heat_flux']:.3f} W/m2")
+        w(f"\n{c['name']}: heat flux {c['heat_flux']:.3f} W/m2{ladder}, energy balance "
+          f"residual {c['energy_residual']:.1e}, {mesh} ({c['nodes']} nodes)\n")
         for t in c["interface_temperatures"]:
             w(f"  {t['x_m'] * 1000:8.1f} mm  {t['temperature_C']:8.2f} degC  {t['at']}\n")
         if c["sizing"]:

@@ -17,8 +17,9 @@ significant figures). In the 2007 edition the corrections are Annex D.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from decimal import ROUND_HALF_UP, Decimal
+from functools import cached_property
 from itertools import product
 
 import numpy as np
@@ -540,16 +541,27 @@ class ConstructionTemperatures:
     interface_temperatures : ndarray
         Temperatures at ``interface_x`` from the solution. [degC]
     energy_residual : float
-        Relative energy-balance residual of the solve. [-]
-    mesh_estimate : MeshEstimate
-        Heat flux on this mesh and on a mesh with every layer's cells doubled. [W/m2]
-    mesh_temperature_change : float
-        Largest change of an interface temperature on the refined mesh. [K]
+        Relative energy-balance residual of the solve: conservation and solver rounding. It
+        cannot reveal a wrong coefficient (a wrong conductivity balances as well as a right
+        one); :attr:`ladder_heat_flux` can. [-]
+    ladder_heat_flux : float or None
+        The same heat flux from the closed-form series-resistance ladder,
+        ``(T_i - T_e)/(R_si + sum R_j + R_se)``, where one exists (no heat sources, air or
+        surface temperatures on both sides); an independent check of the solve. [W/m2]
     nodes_per_layer : tuple of int
     layer_of_node : ndarray
         Index of the layer each node lies in. [-]
     fv : FVSolution
         The full finite-volume solution, coefficients included.
+    temp_inside, temp_outside : float
+        Air (or surface) temperatures of the two boundaries; NaN for a flux boundary. [degC]
+    mesh_estimate : MeshEstimate
+        Mesh estimate of the heat flux, computed when first read: "exact for this case" with
+        the reason for layers without volumetric sources, else the observed order from three
+        meshes. [W/m2]
+    mesh_temperature_change : float
+        Largest change of an interface temperature between the mesh used and the next mesh
+        of the estimate (0 where the scheme is exact). [K]
     """
 
     x: np.ndarray
@@ -559,13 +571,35 @@ class ConstructionTemperatures:
     interface_x: np.ndarray
     interface_temperatures: np.ndarray
     energy_residual: float
-    mesh_estimate: fv1d.MeshEstimate
-    mesh_temperature_change: float
+    ladder_heat_flux: float | None
     nodes_per_layer: tuple
     layer_of_node: np.ndarray
     fv: fv1d.FVSolution
     temp_inside: float
     temp_outside: float
+    estimator: object = field(default=None, repr=False, compare=False)
+
+    @property
+    def ladder_difference(self) -> float | None:
+        """Relative difference of the finite-volume heat flux from the ladder's. [-]"""
+        if self.ladder_heat_flux is None:
+            return None
+        return abs(self.heat_flux - self.ladder_heat_flux) / max(abs(self.ladder_heat_flux),
+                                                                 1e-300)
+
+    @cached_property
+    def _mesh(self) -> tuple:
+        return self.estimator()
+
+    @property
+    def mesh_estimate(self) -> fv1d.MeshEstimate:
+        """Mesh estimate of the heat flux (see the class notes). [W/m2]"""
+        return self._mesh[0]
+
+    @property
+    def mesh_temperature_change(self) -> float:
+        """Largest interface-temperature change between estimate meshes. [K]"""
+        return self._mesh[1]
 
 
 # --------------------------------------------------------------------------------------
@@ -729,22 +763,22 @@ class Construction:
             within("inside", inside, "temperature"), self.rsi)
         right = outside if isinstance(outside, fv1d.Boundary) else fv1d.surface_to_ambient(
             within("outside", outside, "temperature"), self._rse_used)
-        coarse = self._solve_fv(counted, counts, left, right, layer_sources, interface_fluxes)
-        fine = self._solve_fv(counted, [2 * n for n in counts], left, right, layer_sources,
-                              interface_fluxes)
-        sol, bounds, layer_of_node = coarse
-        fsol, fbounds, _ = fine
+        sources = (layer_sources, interface_fluxes)
+        sol, bounds, layer_of_node = self._solve_fv(counted, counts, left, right, *sources)
         t_if = sol.face_temperature[bounds]
-        est = fv1d.richardson_estimate("heat_flux", sol.heat_in, fsol.heat_in)
-        dtemp = float(np.max(np.abs(fsol.face_temperature[fbounds] - t_if)))
+
+        def estimate():
+            return _mesh_estimate(sources, sol)
+
         return ConstructionTemperatures(
             x=sol.x, temperature=sol.temperature, heat_flux=sol.heat_in,
             heat_flux_outside=sol.heat_out, interface_x=sol.faces[bounds],
             interface_temperatures=t_if, energy_residual=sol.energy_residual,
-            mesh_estimate=est, mesh_temperature_change=dtemp, nodes_per_layer=tuple(counts),
-            layer_of_node=layer_of_node, fv=sol,
+            ladder_heat_flux=_ladder_flux(counted, left, right, sources),
+            nodes_per_layer=tuple(counts), layer_of_node=layer_of_node, fv=sol,
             temp_inside=left.temperature if left.kind != "flux" else math.nan,
             temp_outside=right.temperature if right.kind != "flux" else math.nan,
+            estimator=estimate,
         )
 
     # ---- internals ------------------------------------------------------------------
@@ -755,23 +789,25 @@ class Construction:
         layer_of_node = np.repeat([row.index for row in counted], counts)
         bounds = np.concatenate(([0], np.cumsum(counts)))
         source = None
-        if layer_sources or interface_fluxes:
+        face_source = {}
+        if layer_sources:
             source = np.zeros(widths.size)
-            for idx, q_vol in (layer_sources or {}).items():
+            for idx, q_vol in layer_sources.items():
                 mask = layer_of_node == int(idx)
                 if not mask.any():
                     raise HeatLedgerError(f"layer_sources names layer {show(idx)}, which is "
                                           "not a counted layer of this construction")
                 source[mask] += finite(f"layer_sources[{idx}]", q_vol) * widths[mask]
-            for k, q_s in (interface_fluxes or {}).items():
-                k = int(k)
-                if not 1 <= k < len(counted):
-                    raise HeatLedgerError(f"interface_fluxes names interface {k}; interfaces "
-                                          f"run from 1 to {len(counted) - 1}")
-                q_s = finite(f"interface_fluxes[{k}]", q_s)
-                source[bounds[k] - 1] += 0.5 * q_s
-                source[bounds[k]] += 0.5 * q_s
-        sol = fv1d.solve_conduction(widths, cond, left, right, source=source)
+        for k, q_s in (interface_fluxes or {}).items():
+            k = int(k)
+            if not 1 <= k < len(counted):
+                raise HeatLedgerError(f"interface_fluxes names interface {k}; interfaces "
+                                      f"run from 1 to {len(counted) - 1}")
+            face = int(bounds[k])
+            face_source[face] = face_source.get(face, 0.0) + finite(
+                f"interface_fluxes[{k}]", q_s)
+        sol = fv1d.solve_conduction(widths, cond, left, right, source=source,
+                                    face_source=face_source)
         return sol, bounds, layer_of_node
 
     def _compute(self, label: str, rse_given: bool) -> None:
@@ -943,6 +979,39 @@ def _surface_resistance(name: str, value) -> float:
     return within(name, non_negative(name, value, "m2 K/W"), "surface_resistance")
 
 
+#: Why the finite-volume solution of a layered construction is exact at the faces (printed
+#: with its mesh estimate). Without a volumetric source the temperature is linear in each
+#: layer and harmonic-mean faces reproduce it at any mesh.
+EXACT_REASON = ("no volumetric heat source, so the temperature is linear within each layer, "
+                "which cells with harmonic-mean face conductances reproduce exactly at any "
+                "mesh (heat released at interfaces included); the ladder check compares with "
+                "the closed form")
+#: With a uniform source g in a layer of equal cells w the exact temperature is quadratic;
+#: the discrete solution is the exact one with every node raised by g w^2/(8 lambda), so the
+#: half-cell relations give the face temperatures and heat fluxes exactly (derivation in
+#: tests/test_fv1d_exact.py, checked there against the closed form at 1 to 8 cells).
+EXACT_REASON_SOURCES = ("uniform heat source in equal cells: the face temperatures and heat "
+                        "fluxes are exact at any mesh (the node temperatures of a heated "
+                        "layer lie g w²/(8 λ) above the exact curve)")
+
+
+def _mesh_estimate(sources, sol) -> tuple:
+    """(MeshEstimate of the heat flux, largest interface-temperature change) [W/m2, K]:
+    exact for every construction the solver takes (equal cells per layer, sources uniform
+    per layer or at interfaces); the reason is stated."""
+    reason = EXACT_REASON_SOURCES if sources[0] else EXACT_REASON
+    return fv1d.exact_estimate("heat_flux", sol.heat_in, reason), 0.0
+
+
+def _ladder_flux(counted, left, right, sources) -> float | None:
+    """Heat flux from the series-resistance ladder, or None where no closed form applies.
+    [W/m2]"""
+    if sources[0] or sources[1] or "flux" in (left.kind, right.kind):
+        return None
+    r_total = left.resistance + math.fsum(row.resistance for row in counted) + right.resistance
+    return (left.temperature - right.temperature) / r_total
+
+
 def _cell_counts(counted, nodes_per_layer, max_spacing) -> list:
     """Finite-volume cells of each counted layer, within the engine's memory bound."""
     if nodes_per_layer is not None and max_spacing is not None:
@@ -971,7 +1040,7 @@ def _cell_counts(counted, nodes_per_layer, max_spacing) -> list:
     if max(counts) > MAX_CELLS_PER_LAYER or sum(counts) > MAX_CELLS:
         raise HeatLedgerError(
             f"{what} asks for more cells than the engine takes: at most "
-            f"{MAX_CELLS_PER_LAYER} per layer and {MAX_CELLS} in a construction (about 25 MB "
+            f"{MAX_CELLS_PER_LAYER} per layer and {MAX_CELLS} in a construction (about 250 MB "
             "of memory; the solve converges as 1/n^2, so far fewer are enough)")
     return counts
 

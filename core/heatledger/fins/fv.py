@@ -24,11 +24,12 @@ from .._constants import STEFAN_BOLTZMANN as Stefan_Boltzmann
 from .._constants import ZERO_CELSIUS as zero_Celsius
 from ..errors import HeatLedgerError
 from ..fv1d import (
+    REFINE_BELOW,
     fixed_flux,
     fixed_temperature,
-    richardson_estimate,
     solve_conduction,
     surface_to_ambient,
+    three_mesh_estimate,
 )
 from ._results import FinFVResult, effectiveness_messages
 
@@ -195,18 +196,15 @@ def solve_fin_fv(
             "uniform-fin exponential); use a longer fin with tip='adiabatic' instead"
         )
 
-    def run(n: int):
+    def run(n: int, initial=None):
         return _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip,
                       t_tip_fixed if tip == "temperature" else None, tip_area, eps, t_sur,
-                      linearisation, tolerance, max_iterations)
+                      linearisation, tolerance, max_iterations, initial)
 
     out = run(nodes)
     mesh_q = mesh_tip = None
     if mesh_estimate:
-        fine = run(2 * nodes)
-        mesh_q = richardson_estimate("heat_rate", out["q"], fine["q"], ratio=2.0, order=2.0)
-        mesh_tip = richardson_estimate("tip_temperature", out["t_tip"], fine["t_tip"],
-                                       ratio=2.0, order=2.0)
+        mesh_q, mesh_tip = _fin_mesh_estimates(run, nodes, out)
     sol = out["sol"]
     x = np.concatenate(([0.0], sol.x, [length])) + float(x_offset)
     temp = np.concatenate(([sol.face_temperature[0]], sol.temperature,
@@ -232,7 +230,8 @@ def solve_fin_fv(
         "linearisation": linearisation if out["nonlinear"] else "none (linear problem)",
         "tolerance_K": tolerance,
         "max_iterations": max_iterations,
-        "mesh_refinement": "2x cells, Richardson order 2" if mesh_estimate else "none",
+        "mesh_refinement": (f"three meshes {mesh_q.meshes}, {mesh_q.basis}" if mesh_q
+                            else "none"),
         "base_temperature": t_b,
         "ambient": t_inf,
         "tip_temperature": t_tip_fixed if tip == "temperature" else None,
@@ -351,8 +350,34 @@ def _tip_coefficient(law, eps, x_tip, t_tip, t_inf, t_sur):
     return total, (hc * t_inf + hr * t_sur) / total
 
 
+#: Change of the iterate below which the fin's linear solves are refined (the last one or
+#: two Newton steps; the earlier iterates are replaced anyway). [K]
+REFINE_NEAR_K = 1e-3
+#: An iteration whose change stops decreasing within this factor of the tolerance has
+#: reached the rounding of the linear solves (a tolerance near 1e-8 K on 1e5 cells). [-]
+STALL_FACTOR = 10.0
+#: Cells from which the fin's mesh estimate coarsens (n/4, n/2, n) instead of refining. [-]
+COARSEN_FROM = 4096
+
+
+def _fin_mesh_estimates(run, nodes: int, out: dict):
+    """Three-mesh estimates of the heat rate [W] and the tip temperature [degC]; the other
+    meshes start their iteration from the solution already found."""
+    if nodes >= COARSEN_FROM and nodes % 4 == 0:
+        meshes, used = (nodes // 4, nodes // 2, nodes), 2
+    else:
+        meshes, used = (nodes, 2 * nodes, 4 * nodes), 0
+    sol = out["sol"]
+    start = (sol.x, sol.temperature, out["t_tip"])
+    runs = [out if m == nodes else run(m, start) for m in meshes]
+    mesh_q = three_mesh_estimate("heat_rate", meshes, [r["q"] for r in runs], reported=used)
+    mesh_tip = three_mesh_estimate("tip_temperature", meshes, [r["t_tip"] for r in runs],
+                                   reported=used)
+    return mesh_q, mesh_tip
+
+
 def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip_area, eps,
-           t_sur, linearisation, tolerance, max_iterations):
+           t_sur, linearisation, tolerance, max_iterations, initial=None):
     dx = length / n
     widths = np.full(n, dx)
     x = (np.arange(n) + 0.5) * dx
@@ -367,6 +392,10 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
                  else v.non_negative("tip_area", tip_area, "m2"))
     left = fixed_temperature(t_b)
     nonlinear = law[0] != "constant" or eps > 0.0
+    # the base and tip faces: conduction area at x = 0 and the tip's exchange area at x = L
+    a_end = _eval(area, np.array([0.0, length]), "area")
+    faces = (float(a_end[0]) if a_end[0] > 0.0 else float(a_c[0]),
+             a_tip if a_tip else (float(a_end[1]) if a_end[1] > 0.0 else float(a_c[-1])))
 
     def right_bc(t_tip_face):
         if tip == "adiabatic":
@@ -379,13 +408,15 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
         coeff, t_eq = _tip_coefficient(law, eps, length, t_tip_face, t_inf, t_sur)
         if coeff <= 0.0 or a_tip == 0.0:
             return fixed_flux(0.0)
-        # the solver takes a resistance per unit of the cell's conduction area
-        return surface_to_ambient(t_eq, a_c[-1] / (coeff * a_tip))
+        # a resistance per unit area of the tip face (face_area below)
+        return surface_to_ambient(t_eq, 1.0 / coeff)
 
-    temp = np.full(n, t_b)
-    t_tip = t_b
+    if initial is None:
+        temp, t_tip = np.full(n, t_b), t_b
+    else:  # start from a solution on another mesh
+        temp, t_tip = np.interp(x, initial[0], initial[1]), initial[2]
     iterations = 0
-    change = 0.0
+    change = math.inf
     while True:
         if not nonlinear:
             h_c = law[1]
@@ -400,15 +431,21 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
         else:
             g0, g1 = _flux_and_slope(law, eps, x, temp, t_inf, t_sur)
             sc, sp = -p_dx * (g0 - g1 * temp), -p_dx * g1
-        sol = solve_conduction(widths, kk, left, right_bc(t_tip), area=a_c, source=sc,
-                               source_slope=sp)
+        system = (right_bc(t_tip), sc, sp)
+        # refinement only near convergence: the iterates before are replaced anyway
+        near = not nonlinear or change < REFINE_NEAR_K
+        sol = solve_conduction(widths, kk, left, system[0], area=a_c, face_area=faces,
+                               source=sc, source_slope=sp, refine="auto" if near else False)
         iterations += 1
+        previous = change
         change = float(np.max(np.abs(sol.temperature - temp)))
         change = max(change, abs(float(sol.face_temperature[-1]) - t_tip))
         temp = sol.temperature
         t_tip = float(sol.face_temperature[-1])
         if not nonlinear or change < tolerance:
             break
+        if change < STALL_FACTOR * tolerance and change >= previous:
+            break  # no longer decreasing near the tolerance: the solver's rounding is reached
         if iterations >= max_iterations:
             raise HeatLedgerError(
                 f"fin iteration did not converge in max_iterations={max_iterations} "
@@ -417,11 +454,16 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
             )
     if not nonlinear:
         change = 0.0
+    if abs(sol.energy_residual) > REFINE_BELOW:  # refine the last iterate only
+        sol = solve_conduction(widths, kk, left, system[0], area=a_c, face_area=faces,
+                               source=system[1], source_slope=system[2], refine="auto")
+        temp, t_tip = sol.temperature, float(sol.face_temperature[-1])
 
     q_base = float(sol.face_heat_rate[0])
-    # math.fsum: the reported heat rates must not depend on the BLAS kernel's summation order
-    loss_side = math.fsum(_flux(law, eps, x, temp, t_inf, t_sur) * p_dx)
-    ideal_side = math.fsum(_flux(law, eps, x, np.full(n, t_b), t_inf, t_sur) * p_dx)
+    # numpy's pairwise sum, not np.dot: the reported heat rates must not depend on the BLAS
+    # kernel's summation order (math.fsum would cost a linear solve at 100,000 cells)
+    loss_side = float(np.sum(_flux(law, eps, x, temp, t_inf, t_sur) * p_dx))
+    ideal_side = float(np.sum(_flux(law, eps, x, np.full(n, t_b), t_inf, t_sur) * p_dx))
     if tip == "convective":
         loss_tip = float(_flux(law, eps, np.array([length]), np.array([t_tip]), t_inf,
                                t_sur)[0]) * a_tip

@@ -20,6 +20,7 @@ equations and the tridiagonal-matrix algorithm).
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 
 from ..constructions import (
@@ -158,6 +159,37 @@ class _Rows:
             self.put(first_col + i, name, role="header")
         self.sheet.row_heights[self.row] = 32.0
         self.row += 1
+
+
+def _solution_record(w, temps) -> None:
+    """The engine's energy balance and mesh estimate, stated with what each shows."""
+    est = temps.mesh_estimate
+    w.put(2, "Engine solution record (stated values)", style="hl label")
+    w.row += 1
+    rows = [("energy-balance residual, relative [-]", temps.energy_residual, FMT_SMALL,
+             "shows conservation and solver rounding; it cannot reveal a wrong coefficient "
+             "(the ladder check above can)")]
+    if est.exact and not est.meshes:
+        w.put(2, f"mesh: {est.basis}", role="note")
+        w.row += 1
+    else:
+        rows += [(f"heat flux on {m} cells [W/m2]", v, "0.000000", "")
+                 for m, v in zip(est.meshes, est.values, strict=True)]
+        rows += [("observed order of convergence [-]", est.order, "0.00", est.basis),
+                 ("extrapolated heat flux [W/m2]", est.extrapolated, "0.000000", ""),
+                 ("mesh error bound of the heat flux [W/m2]", est.error_estimate, FMT_SMALL,
+                  "1.25 × the Richardson error with the observed order"),
+                 ("largest interface-temperature change to the next mesh [K]",
+                  temps.mesh_temperature_change, FMT_SMALL, "")]
+    for label, val, fmt, note in rows:
+        w.put(2, label)
+        if math.isfinite(val):
+            w.put(7, float(val), role="engine", fmt=fmt)
+        else:
+            w.put(7, "none", role="engine")
+        if note:
+            w.put(14, note, role="note")
+        w.row += 1
 
 
 def add_calculation_sheet(plan: WorkbookPlan, sheet_name: str, widths, header: str) -> Sheet:
@@ -737,21 +769,12 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     w.value_row("heat flux through the outside surface q = G_e (T_N − θe) [W/m2]",
                 formula=f"={g_right}*(M{nodeN}-{te})", engine=temps.heat_flux_outside,
                 fmt="0.0000")
-    est = temps.mesh_estimate
-    w.put(2, "Engine solution record (stated values)", style="hl label")
-    w.row += 1
-    for label, val, fmt in (
-            ("energy-balance residual, relative [-]", temps.energy_residual, FMT_SMALL),
-            ("heat flux on this mesh [W/m2]", est.coarse, "0.000000"),
-            (f"heat flux with every cell halved (ratio {est.ratio:g}) [W/m2]", est.fine,
-             "0.000000"),
-            ("Richardson extrapolation of the heat flux [W/m2]", est.extrapolated, "0.000000"),
-            ("mesh error estimate of the heat flux [W/m2]", est.error_estimate, FMT_SMALL),
-            ("largest interface-temperature change on the refined mesh [K]",
-             temps.mesh_temperature_change, FMT_SMALL)):
-        w.put(2, label)
-        w.put(7, float(val), role="engine", fmt=fmt)
-        w.row += 1
+    if temps.ladder_heat_flux is not None:
+        w.value_row("independent check: ladder heat flux q = (θi − θe)/R_T [W/m2]",
+                    formula=f"=({ti}-{te})/{r_total}", engine=temps.heat_flux, fmt="0.0000",
+                    note="the closed form (6.7.1) against the finite-volume flux: they agree "
+                         "only if every coefficient of the solve is right")
+    _solution_record(w, temps)
     for text in con.warnings:
         put_warning(w, f"Warning: {text}")
     last_row = w.row

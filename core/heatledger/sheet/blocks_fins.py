@@ -30,6 +30,7 @@ M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, 1964, eq. 9.6
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 
 from .. import cautions as _cautions
@@ -72,7 +73,7 @@ FIN_METHODS = (
     "(Incropera & DeWitt, section 3.6.5)",
     "Fins by finite volumes: heatledger's 1-D cell-centred solver with the loss to the "
     "surroundings as a linearised source (Patankar 1980, ch. 4 and 7); Thomas algorithm in "
-    "the sheet; mesh check by Richardson extrapolation",
+    "the sheet; mesh check from three meshes with the observed order",
 )
 #: Evenly spaced points of the closed-form temperature table (base and tip included).
 PROFILE_POINTS = 11
@@ -486,15 +487,19 @@ def _fv(w, r, fin, entry):
            note="the closed form uses the constant h" if nonlinear else
            "second-order in dx (see the mesh estimate)")
     est = fv.mesh_estimate
-    for label, val, fmt in (
-            ("energy-balance residual, relative [-]", fv.energy_residual, F_E),
-            ("heat rate on this mesh [W]", est.coarse, F_G),
-            (f"heat rate with every cell halved (ratio {est.ratio:g}) [W]", est.fine, F_G),
-            ("Richardson extrapolation of the heat rate [W]", est.extrapolated, F_G),
-            ("mesh error estimate of the heat rate [W]", est.error_estimate, F_E),
-            ("fin efficiency by finite volumes [-]", fv.efficiency, F_G),
-            ("fin effectiveness by finite volumes [-]", fv.effectiveness, F_G)):
-        w.stated(label, val, fmt)
+    rows = [("energy-balance residual, relative [-]", fv.energy_residual, F_E,
+             "conservation and solver rounding; the closed form above checks the coefficients")]
+    rows += [(f"heat rate on {m} cells [W]", val, F_G, "") for m, val in
+             zip(est.meshes, est.values, strict=True)]
+    if not est.exact:
+        rows += [("observed order of convergence [-]", est.order, F_G, est.basis),
+                 ("extrapolated heat rate [W]", est.extrapolated, F_G, "")]
+    rows += [("mesh error bound of the heat rate [W]", est.error_estimate, F_E,
+              est.basis if est.exact else "1.25 × the Richardson error, observed order"),
+             ("fin efficiency by finite volumes [-]", fv.efficiency, F_G, ""),
+             ("fin effectiveness by finite volumes [-]", fv.effectiveness, F_G, "")]
+    for label, val, fmt, note in rows:
+        w.stated(label, val if math.isfinite(val) else "none", fmt, note=note)
     for text in fv.warnings:
         put_warning(w, f"Warning (finite volumes): {text}")
     return node0, node_n
