@@ -297,7 +297,7 @@ class BridgedLayer:
                 raise HeatLedgerError(
                     f"{label} part {i} area_fraction must be above 0 and at most 1; got {frac:g}")
             cleaned.append((lam, frac))
-        total = sum(f for _, f in cleaned)
+        total = math.fsum(f for _, f in cleaned)
         if abs(total - 1.0) > 1e-6:
             raise HeatLedgerError(
                 f"{label}: area fractions must sum to 1; they sum to {total:.6g}")
@@ -308,7 +308,7 @@ class BridgedLayer:
     @property
     def lower_limit_resistance(self) -> float:
         """Lower-limit resistance ``R_j = d / sum(f_q lambda_q)``. [m2 K/W]"""
-        return self.thickness / sum(lam * f for lam, f in self.parts)
+        return self.thickness / math.fsum(lam * f for lam, f in self.parts)
 
     def with_thickness(self, thickness) -> BridgedLayer:
         """The same bridged layer with another thickness."""
@@ -841,7 +841,7 @@ class Construction:
             raise HeatLedgerError(f"{label}: the first layer is a well ventilated air layer, so "
                                   "no layer is left to count")
 
-        r_inner = sum(r for r, c in zip(own, counted, strict=True) if c)
+        r_inner = math.fsum(r for r, c in zip(own, counted, strict=True) if c)
         bridging = self._bridging(own, counted, rse_used)
         r_total = bridging.total if bridging else self.rsi + r_inner + rse_used
 
@@ -850,8 +850,8 @@ class Construction:
             av = lay.vent_area
             w_u = (VENT_AREA_WELL_VENTILATED_MM2 - av) / 1000.0
             w_v = (av - VENT_AREA_UNVENTILATED_MM2) / 1000.0
-            r_in = sum(own[:vent_idx])
-            r_out = sum(own[vent_idx + 1:])
+            r_in = math.fsum(own[:vent_idx])
+            r_out = math.fsum(own[vent_idx + 1:])
             r_tu = self.rsi + r_in + own[vent_idx] + min(r_out, SLIGHTLY_VENTILATED_OUTER_CAP) \
                 + self.rse
             r_tv = self.rsi + r_in + (self.rse if rse_given else rsi_still)
@@ -907,7 +907,7 @@ class Construction:
         bridged = [i for i, lay in enumerate(self.layers) if lay.kind == "bridged" and counted[i]]
         if not bridged:
             return None
-        base = self.rsi + rse_used + sum(own[i] for i in range(len(own))
+        base = self.rsi + rse_used + math.fsum(own[i] for i in range(len(own))
                                          if counted[i] and i not in bridged)
         sections = []
         inv_upper = 0.0
@@ -920,7 +920,7 @@ class Construction:
             sections.append((frac, r_q))
             inv_upper += frac / r_q
         upper = 1.0 / inv_upper
-        lower = base + sum(own[i] for i in bridged)
+        lower = base + math.fsum(own[i] for i in bridged)
         total = 0.5 * (upper + lower)
         return BridgingResult(upper, lower, total, (upper - lower) / (2.0 * total),
                               upper / lower, tuple(sections), {i: own[i] for i in bridged})
@@ -935,7 +935,7 @@ class Construction:
                                       f"{len(self.layers) - 1}")
             items.append((c.label, int(idx), c.delta_u(own[idx], self._r_total,
                                                         self.layers[idx])))
-        total = sum(d for _, _, d in items)
+        total = math.fsum(d for _, _, d in items)
         u = 1.0 / self._r_total
         if not items:
             return CorrectionResult((), 0.0, False, "no corrections")

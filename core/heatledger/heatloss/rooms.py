@@ -304,8 +304,8 @@ class Room:
         dt = math.nan if te is None else ti - te
         for ln in lines:
             ln["heat_flow"] = reheat if ln["category"] == "reheat" else ln["coefficient"] * dt
-        h_t = sum(ln["coefficient"] for ln in lines if ln["category"] == "transmission")
-        h_int = sum(ln["coefficient"] for ln in lines if ln["internal"])
+        h_t = math.fsum(ln["coefficient"] for ln in lines if ln["category"] == "transmission")
+        h_int = math.fsum(ln["coefficient"] for ln in lines if ln["internal"])
         phi_t = h_t * dt
         phi_v = vent.coefficient * dt
         total = phi_t + phi_v + reheat
@@ -400,7 +400,7 @@ class Building:
     @property
     def ventilation_coefficient(self) -> float:
         """Building ``H_V``: sum over rooms. [W/K]"""
-        return sum(r.ventilation_coefficient for r in self.rooms)
+        return math.fsum(r.ventilation_coefficient for r in self.rooms)
 
     @property
     def heat_loss_coefficient(self) -> float:
@@ -521,13 +521,13 @@ class Building:
             r._evaluate(te, self._room_temps, self.constructions)  # type: ignore[attr-defined]
             for r in self.rooms
         )
-        h_sum = sum(r.transmission_coefficient for r in results)
-        h_int = sum(r.internal_exchange_coefficient for r in results)
-        h_v = sum(r.ventilation_coefficient for r in results)
-        q_int = sum(ln.heat_flow for r in results for ln in r.lines if ln.internal)
-        phi_t = sum(r.transmission_heat_loss for r in results) - q_int
-        phi_v = sum(r.ventilation_heat_loss for r in results)
-        reheat = sum(r.reheat_allowance for r in results)
+        h_sum = math.fsum(r.transmission_coefficient for r in results)
+        h_int = math.fsum(r.internal_exchange_coefficient for r in results)
+        h_v = math.fsum(r.ventilation_coefficient for r in results)
+        q_int = math.fsum(ln.heat_flow for r in results for ln in r.lines if ln.internal)
+        phi_t = math.fsum(r.transmission_heat_loss for r in results) - q_int
+        phi_v = math.fsum(r.ventilation_heat_loss for r in results)
+        reheat = math.fsum(r.reheat_allowance for r in results)
         total = phi_t + phi_v + reheat
         lines = tuple(
             _replace_share(ln, total) for r in results for ln in r.lines if not ln.internal
@@ -549,7 +549,7 @@ class Building:
             rooms_transmission_coefficient=h_sum, internal_exchange_coefficient=h_int,
             transmission_coefficient=h_sum - h_int, ventilation_coefficient=h_v,
             heat_loss_coefficient=h_sum - h_int + h_v,
-            rooms_design_heat_load=sum(r.design_heat_load for r in results),
+            rooms_design_heat_load=math.fsum(r.design_heat_load for r in results),
             internal_exchange_heat_flow=q_int, transmission_heat_loss=phi_t,
             ventilation_heat_loss=phi_v, reheat_allowance=reheat, design_heat_load=total,
             lines=lines, by_kind=by_kind, provenance=prov,

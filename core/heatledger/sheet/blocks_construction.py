@@ -492,7 +492,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         w.start("bridging", "Upper and lower limits of the bridged construction (6.7.2)")
         # section 1 combines the first part of every bridged layer, so the engine's base
         # resistance is its R_T,q less those parts' d/lambda
-        base_engine = bridge.sections[0][1] - sum(
+        base_engine = bridge.sections[0][1] - math.fsum(
             con.layers[i].thickness / con.layers[i].parts[0][0] for i in bridged_idx)
         base = w.value_row(
             "Rsi + Rse used + Σ R of the homogeneous counted layers [m2 K/W]",
@@ -560,7 +560,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                "Rule / note"])
     sum_used = w.value_row("Σ R used of the layers [m2 K/W]",
                            formula=f"=SUM(J{first_layer_row}:J{last_layer_row})",
-                           engine=sum(r.resistance for r in counted_rows))
+                           engine=math.fsum(r.resistance for r in counted_rows))
     r_total = w.value_row("R_T = Rsi + Σ R used + Rse used [m2 K/W]",
                           formula=f"={rsi}+{sum_used}+{rse_used_ref}",
                           engine=con.total_resistance,

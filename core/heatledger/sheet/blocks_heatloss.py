@@ -20,6 +20,7 @@ clauses 8.2 to 8.4 and Annex B [M].
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 
 from .. import cautions as _cautions
@@ -672,7 +673,7 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
         w.put(7, formula=f"={ref['ventilation']}", fmt=FMT_H)
         q_int = w.put(8, formula=f"=F{r}*(D{r}-{_B_TE})", fmt=FMT_W)
         w.put(9, formula=f"={ref['load']}", fmt=FMT_W)
-        engine_q = sum(ln.heat_flow for ln in rres.lines if ln.internal)
+        engine_q = math.fsum(ln.heat_flow for ln in rres.lines if ln.internal)
         w.check(11, q_int, w.put(10, float(engine_q), role="engine", fmt=FMT_W))
         w.put(12, formula=f"={ref['count']}", fmt="0")
         w.put(13, formula=f"={ref['ok']}", fmt="0")
