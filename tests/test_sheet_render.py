@@ -149,3 +149,32 @@ def test_user_text_never_becomes_an_error_value(tmp_path):
     path = rend.write_workbook(plan, tmp_path / "e.xlsx")
     cell = openpyxl.load_workbook(path)["S"]["A1"]
     assert cell.value == "#N/A" and cell.data_type == "s"
+
+
+def test_charts_of_one_shape_share_xml_but_keep_their_own_titles_and_ranges():
+    # the renderer serialises the first chart of a shape and reuses its XML for the others
+    # with their texts replaced: each must read exactly as a chart built in full
+    import xml.etree.ElementTree as ET
+
+    from openpyxl import Workbook
+
+    from heatledger.cli import demo_project
+    from heatledger.sheet.audit import audit_plan
+    from heatledger.sheet.render_openpyxl import _chart, _ChartCache
+
+    plan = audit_plan(demo_project())
+    specs = [c for s in plan.sheets for c in s.charts if c.kind == "scatter"]
+    assert len(specs) >= 3
+    wb = Workbook()
+    for sheet in plan.sheets:
+        wb.create_sheet(sheet.name)
+    cache = _ChartCache(wb)
+
+    def texts(element):
+        return [(el.tag.split("}")[-1], el.text) for el in element.iter()
+                if el.tag.split("}")[-1] in ("f", "v", "t")]
+
+    for spec in specs:
+        cached = cache.get(spec)._write()
+        full = _chart(wb, spec)._write()
+        assert texts(ET.fromstring(ET.tostring(cached))) == texts(full)

@@ -15,6 +15,8 @@ import re
 from array import array
 from copy import copy
 from pathlib import Path
+from xml.etree.ElementTree import fromstring, tostring
+from xml.sax.saxutils import escape
 from zipfile import ZIP_DEFLATED, ZipFile, ZipInfo
 
 from openpyxl import Workbook
@@ -64,6 +66,7 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
     wb.calculation.fullCalcOnLoad = True
 
     style_cache = _StyleCache(wb)
+    charts = _ChartCache(wb)
     for sheet in plan.sheets:
         ws = wb.create_sheet(sheet.name)
         cells = ws._cells
@@ -120,7 +123,7 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
             ws.add_data_validation(rule)
             rule.add(dv.cells)
         for chart in sheet.charts:
-            ws.add_chart(_chart(wb, chart), chart.anchor)
+            ws.add_chart(charts.get(chart), chart.anchor)
         _print_setup(ws, sheet.print_setup)
     for name, target in plan.defined_names.items():
         wb.defined_names[name] = DefinedName(name, attr_text=target)
@@ -366,6 +369,65 @@ def _chart(wb: Workbook, spec: Chart):
 def _printable(text):
     """``text`` without the control characters XML 1.0 cannot hold (None stays None)."""
     return None if text is None else ILLEGAL_CHARACTERS_RE.sub("", str(text))
+
+
+class _ChartCache:
+    """Charts of one shape serialised once.
+
+    openpyxl builds a chart from some hundred objects and serialises them when the file is
+    written, which costs more than the cells of a construction sheet. Charts that differ only
+    in their title, series titles and cell ranges (one per construction sheet) share the XML
+    of the first of them, with those texts replaced; anything else builds in full.
+    """
+
+    def __init__(self, wb: Workbook) -> None:
+        self.wb = wb
+        self.first: dict[tuple, tuple[Chart, str]] = {}
+
+    def get(self, spec: Chart):
+        key = _chart_shape(spec)
+        known = self.first.get(key)
+        if known is not None:
+            xml = _chart_xml_for(known, spec)
+            if xml is not None:
+                ch = (ScatterChart if spec.kind == "scatter" else BarChart)()
+                ch.width, ch.height = spec.width_cm, spec.height_cm
+                ch._write = lambda xml=xml: fromstring(xml)
+                return ch
+        ch = _chart(self.wb, spec)
+        if known is None:
+            self.first[key] = (spec, tostring(ch._write(), encoding="unicode"))
+        return ch
+
+
+def _chart_shape(spec: Chart) -> tuple:
+    """Everything of a chart but its title, series titles and ranges."""
+    return (spec.kind, spec.x_title, spec.y_title, spec.width_cm, spec.height_cm,
+            spec.y_format, tuple((s.categories is not None, s.line, s.marker, s.color)
+                                 for s in spec.series))
+
+
+def _chart_xml_for(known: tuple, spec: Chart) -> str | None:
+    """The first chart's XML with ``spec``'s texts, or None where a replacement would be
+    ambiguous (the same old text standing for two new ones)."""
+    old_spec, xml = known
+    c = "c:" if "<c:f>" in xml else ""  # the chart namespace, prefixed or the default
+
+    def el(tag: str, text: str) -> str:
+        return f"<{tag}>{escape(text)}</{tag}>"
+
+    pairs = [(el("a:t", _printable(old_spec.title)), el("a:t", _printable(spec.title)))]
+    for old, new in zip(old_spec.series, spec.series, strict=True):
+        pairs.append((el(c + "v", _printable(old.title)), el(c + "v", _printable(new.title))))
+        pairs.append((el(c + "f", old.values), el(c + "f", new.values)))
+        if old.categories is not None:
+            pairs.append((el(c + "f", old.categories), el(c + "f", new.categories)))
+    mapping: dict[str, str] = {}
+    for old, new in pairs:
+        if mapping.setdefault(old, new) != new or xml.count(old) == 0:
+            return None
+    pattern = re.compile("|".join(map(re.escape, mapping)))
+    return pattern.sub(lambda m: mapping[m.group(0)], xml)
 
 
 def _hf(text: str) -> str:
