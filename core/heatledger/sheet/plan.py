@@ -379,6 +379,11 @@ class Cell:
         split_ref(self.ref)
 
 
+#: The style a cell takes from its role when none is given.
+_ROLE_STYLES = {"formula": "hl formula", "input": "hl input", "engine": "hl engine",
+                "check": "hl check", "header": "hl header", "note": "hl note"}
+
+
 @dataclass
 class Block:
     """A named group of cells on one sheet (a table, a header, a check strip).
@@ -417,10 +422,7 @@ class Block:
         if role is None:
             role = "formula" if formula is not None else "label"
         if style is None:
-            style = {
-                "formula": "hl formula", "input": "hl input", "engine": "hl engine",
-                "check": "hl check", "header": "hl header", "note": "hl note",
-            }.get(role, "hl label")
+            style = _ROLE_STYLES.get(role, "hl label")
         cell = Cell(a1, value, formula, style, number_format, role)
         self.cells.append(cell)
         return cell
