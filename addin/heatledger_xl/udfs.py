@@ -34,7 +34,6 @@ import math
 import sys
 
 import heatledger
-from heatledger import fv1d
 from heatledger.airlayers import air_layer_resistance
 from heatledger.constructions import required_thickness
 from heatledger.errors import HeatLedgerError
@@ -541,21 +540,13 @@ def _solving(c, layers, solve):
 
 def _nodal_solution(c, layers, t_i, t_e, n):
     """Layer numbers, cell centres [m] and temperatures [degC] of the 1-D finite-volume
-    solution with ``n`` cells in each counted layer, checked against the ladder. One solve:
-    HL_TNODES shows no mesh estimate, so it computes none."""
-    widths, cond, owner = [], [], []
-    for r in c.layer_table:
-        if r.counted:
-            widths += [r.thickness / n] * n
-            cond += [r.thickness / r.resistance] * n
-            owner += [r.index] * n
-    sol = _solving(c, layers, lambda: fv1d.solve_conduction(
-        widths, cond, fv1d.surface_to_ambient(t_i, c.rsi),
-        fv1d.surface_to_ambient(t_e, c.rse_used)))
-    temps = sol.temperature.tolist()
-    _check_fv(c, layers, t_i, t_e, sol.face_temperature.tolist()[::n], temps,
-              (sol.heat_in, sol.heat_out))
-    return owner, sol.x.tolist(), temps
+    solution with ``n`` cells in each counted layer, checked against the ladder (one solve;
+    the engine computes a mesh estimate only when it is read, and HL_TNODES reads none)."""
+    res = _solving(c, layers, lambda: c.temperatures(t_i, t_e, nodes_per_layer=n))
+    temps = res.temperature.tolist()
+    _check_fv(c, layers, t_i, t_e, res.interface_temperatures.tolist(), temps,
+              (res.heat_flux, res.heat_flux_outside))
+    return res.layer_of_node.tolist(), res.x.tolist(), temps
 
 
 def _temperatures(temp_inside, temp_outside):

@@ -18,7 +18,8 @@ average of the machine, for the record only.
    6-layer table. Two kinds of new table: every row new, and one row changed (a designer
    trying insulation thicknesses: the other rows come from the row cache).
 3. ``HL_TNODES`` against the engine's ``Construction.temperatures`` on the same cached
-   construction: the function solves once and pays for no mesh estimate it does not show.
+   construction: the function pays for no mesh estimate it does not show (the engine
+   computes it only when read); what remains is its ladder check and the spill.
 4. ``HL_THICKNESS`` (closed form for a plain layer) against Brent's method on the same
    construction (a U-value evaluation per iteration, the former path).
 5. Memory of the construction cache holding the 5,000 tables: measured against the
@@ -230,7 +231,8 @@ def main() -> None:
         print(f"  {'':<58s} median {med:.1f} us (reference {statistics.median(t_ref):.1f} us)"
               f"   target < {NEW_TABLE_TARGET_US:g} us: {verdict(med, NEW_TABLE_TARGET_US)}")
 
-    print("\n3. HL_TNODES (one solve) / Construction.temperatures (two solves + estimate)")
+    print("\n3. HL_TNODES (one solve, ladder check) / Construction.temperatures (one solve; "
+          "its mesh estimate is computed only when read)")
     t_fn, t_eng, ratio = tnodes()
     print(line("6 layers x 4 cells, construction cached", ratio))
     print(f"  {'':<58s} {statistics.median(t_fn):.1f} us / {statistics.median(t_eng):.1f} us")
