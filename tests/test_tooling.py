@@ -20,34 +20,32 @@ def test_ruff_clean():
     assert result.returncode == 0, result.stdout + result.stderr
 
 
-def test_engine_imports_without_sheet_or_addin_libraries():
-    # DESIGN.md section 2: the engine never imports the sheet layer or xlwings
-    # every public name is loaded (the package loads them on first use)
-    code = ("import sys; from heatledger import *; "
-            "bad = [m for m in ('openpyxl', 'xlwings', 'heatledger.sheet') if m in sys.modules];"
-            "print(','.join(bad))")
+def _loaded_after(setup: str, names) -> list[str]:
+    """Which of ``names`` a fresh interpreter has imported after running ``setup``."""
+    code = (f"import sys\n{setup}\n"
+            f"print(','.join(m for m in {tuple(names)!r} if m in sys.modules))")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          check=True).stdout.strip()
-    assert out == "", f"importing heatledger pulled in: {out}"
+    return [m for m in out.split(",") if m]
+
+
+def test_engine_imports_without_sheet_or_addin_libraries():
+    # DESIGN.md section 2: the engine never imports the sheet layer or xlwings; every public
+    # name is loaded (the package loads them on first use)
+    assert _loaded_after("from heatledger import *",
+                         ("openpyxl", "xlwings", "heatledger.sheet")) == []
 
 
 def test_engine_start_up_leaves_slow_scipy_parts_until_used():
     # start-up cost (README "Performance"): with every public name loaded, scipy.optimize,
     # scipy.special and scipy.constants are not imported until a root-finding, Bessel or
     # constant is needed; the constants are computed from the SI defining constants instead
-    code = ("import sys; from heatledger import *; "
-            "slow = ('scipy.optimize', 'scipy.special', 'scipy.constants');"
-            "print(','.join(m for m in slow if m in sys.modules))")
-    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                         check=True).stdout.strip()
-    assert out == "", f"loading heatledger's public names imported: {out}"
+    assert _loaded_after("from heatledger import *",
+                         ("scipy.optimize", "scipy.special", "scipy.constants")) == []
 
 
 def test_import_heatledger_alone_loads_no_numerical_library():
-    code = "import sys, heatledger; print('numpy' in sys.modules, 'scipy' in sys.modules)"
-    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                         check=True).stdout.split()
-    assert out == ["False", "False"]
+    assert _loaded_after("import heatledger", ("numpy", "scipy")) == []
 
 
 def test_every_public_name_resolves_and_lists():
@@ -62,10 +60,8 @@ def test_every_public_name_resolves_and_lists():
 
 def test_command_help_does_not_load_the_engine():
     # `heatledger --help` answers at once: argparse only, no numpy, scipy or engine module
-    code = ("import sys; from heatledger.cli import main\n"
-            "try:\n    main(['--help'])\nexcept SystemExit:\n    pass\n"
-            "heavy = ('numpy', 'scipy', 'heatledger.constructions', 'heatledger.project');"
-            "print(','.join(m for m in heavy if m in sys.modules), file=sys.stderr)")
-    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                         check=True).stderr.strip()
-    assert out == "", f"heatledger --help imported: {out}"
+    setup = ("import contextlib, io\nfrom heatledger.cli import main\n"
+             "with contextlib.redirect_stdout(io.StringIO()), "
+             "contextlib.suppress(SystemExit):\n    main(['--help'])")
+    assert _loaded_after(setup, ("numpy", "scipy", "heatledger.constructions",
+                                 "heatledger.project")) == []
