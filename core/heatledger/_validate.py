@@ -91,6 +91,8 @@ def choices_text(options: Iterable) -> str:
 
 # ------------------------------------------------------------------------------ checks
 def _as_float(name: str, value: object) -> float:
+    if type(value) is float and value - value == 0.0:  # fast path: a finite float
+        return value
     if isinstance(value, (bool, np.bool_)):
         raise HeatLedgerError(f"{name} must be a number; got {show(value)}")
     try:
@@ -360,6 +362,10 @@ def within(name: str, value, kind: str, *, scale: float = 1.0, unit: str | None 
         The value. [input unit]
     """
     out = _as_float(name, value)
+    lim = LIMITS[kind]
+    v = out * scale
+    if ((lim.low is None or v > lim.low) and (lim.high is None or v <= lim.high)):
+        return out  # fast path: strictly inside (the bounds themselves go the long way)
     rule = limit_rule(kind, out, scale=scale, unit=unit)
     if rule is not None:
         raise HeatLedgerError(f"{name} must be {rule}; got {out:g} "
