@@ -674,6 +674,10 @@ def test_property_adiabatic_heat_rate_increases_with_length(length, conductivity
         assert long.heat_rate(T_B, T_INF) > short.heat_rate(T_B, T_INF)
 
 
+#: Largest m r at which the reference library's unscaled I_n and K_n stay finite. [-]
+REFERENCE_BESSEL_LIMIT = 600.0
+
+
 @settings(max_examples=60, deadline=None)
 @given(r1=st.floats(1e-3, 0.1), ratio=st.floats(1.01, 6.0), t=st.floats(1e-4, 5e-3),
        k=st.floats(1.0, 400.0), h=st.floats(1.0, 500.0),
@@ -681,7 +685,9 @@ def test_property_adiabatic_heat_rate_increases_with_length(length, conductivity
 def test_property_annular_efficiency(r1, ratio, t, k, h, tip):
     fin = AnnularFin(r1, r1 * ratio, t, k, h, tip=tip)
     assert 0.0 < fin.efficiency <= 1.0
-    if tip == "adiabatic":
+    # the reference computes unscaled Bessel functions, which overflow past m r of about 700
+    # (I_n(700) ~ 1e302); the engine uses exponentially scaled ones and has no such limit
+    if tip == "adiabatic" and fin.m * r1 * ratio < REFERENCE_BESSEL_LIMIT:
         assert fin.efficiency == pytest.approx(
             ht.fin_efficiency_Kern_Kraus(2 * r1, 2 * r1 * ratio, t, k, h), rel=1e-9)
 
