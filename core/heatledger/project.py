@@ -148,17 +148,23 @@ def load_project(path) -> Project:
     """
     p = Path(path)
     data_bytes = read_bytes_limited(p, MAX_INPUT_BYTES, "project file")
-    try:
-        data = tomllib.loads(data_bytes.decode("utf-8"))
+    try:  # utf-8-sig: a byte-order mark (some Windows editors write one) is not text
+        data = tomllib.loads(data_bytes.decode("utf-8-sig"))
     except UnicodeDecodeError:
-        raise ProjectError([("file", "not UTF-8 text; save the project file as UTF-8")],
-                           source=p.name) from None
+        raise _file_error(p, "not UTF-8 text; save the project file as UTF-8") from None
     except tomllib.TOMLDecodeError as exc:
-        raise ProjectError([("file", f"not valid TOML: {exc}")], source=p.name) from None
+        raise _file_error(p, f"not valid TOML: {exc}") from None
     except RecursionError:
-        raise ProjectError([("file", "not a project file: arrays or tables are nested too "
-                             "deeply to read")], source=p.name) from None
+        raise _file_error(p, "not a project file: arrays or tables are nested too deeply "
+                             "to read") from None
     return project_from_dict(data, source_bytes=data_bytes, source_name=p.name)
+
+
+def _file_error(p: Path, message: str) -> ProjectError:
+    """A project file that cannot be parsed at all: one problem, told on one line."""
+    err = ProjectError([("file", message)], source=p.name)
+    err.args = (f"{p.name}: {message}",)
+    return err
 
 
 def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str = "") -> Project:

@@ -40,6 +40,7 @@ from .plan import (
 from .template_fins import FIN_COLUMNS, FIN_NOTES, FIN_SHEETS, fin_template_rows, read_fins
 from .template_rooms import ROOM_COLUMNS, ROOM_NOTES, ROOM_SHEETS, read_rooms, room_template_rows
 from .template_tables import note_cells
+from .xlsx_rows import SheetReader, reason
 
 __all__ = [
     "template_plan",
@@ -48,6 +49,9 @@ __all__ = [
     "MAX_TEMPLATE_BYTES",
     "MAX_UNCOMPRESSED_BYTES",
     "MAX_ROWS",
+    "MAX_SHEET_ROWS",
+    "MAX_PARTS",
+    "MAX_XML_ELEMENTS",
     "TEMPLATE_SHEETS",
 ]
 
@@ -57,6 +61,15 @@ MAX_TEMPLATE_BYTES = 10 * 1024 * 1024
 MAX_UNCOMPRESSED_BYTES = 200 * 1024 * 1024
 #: Largest number of data rows read from one sheet. [-]
 MAX_ROWS = 5000
+#: Largest number of parts (zip members) of a template: a template has about twenty, a
+#: workbook with many drawings and images a few hundred. [-]
+MAX_PARTS = 2000
+#: Largest number of rows stored in one sheet, blank (formatted) rows included. [-]
+MAX_SHEET_ROWS = 10_000
+#: Largest number of XML elements (rows, cells, shared texts, styles and their parts, blank
+#: ones included) read from a template: fifteen times those of the template as written
+#: (about 33,000), and a bound on the work spent on content that carries only formatting. [-]
+MAX_XML_ELEMENTS = 500_000
 #: Row of the column headers on every data sheet; data start on the next row.
 HEADER_ROW = 3
 #: Input rows prepared (styled, with drop-downs) on each data sheet.
@@ -401,43 +414,40 @@ def _read(p: Path):
         with zipfile.ZipFile(io.BytesIO(raw)) as zf:
             total = sum(i.file_size for i in zf.infolist())
             names = set(zf.namelist())
-    except zipfile.BadZipFile:
+            parts = len(zf.infolist())
+    except (zipfile.BadZipFile, ValueError, EOFError):
         raise HeatLedgerError(f"{p.name!r} is not an .xlsx workbook (not a zip archive); save "
                               "the template as Excel Workbook (.xlsx)") from None
+    if parts > MAX_PARTS:
+        raise HeatLedgerError(f"template {p.name!r} has {parts} parts; the limit is "
+                              f"{MAX_PARTS}: save it again from a spreadsheet program")
     if total > MAX_UNCOMPRESSED_BYTES:
         raise HeatLedgerError(f"template {p.name!r} unpacks to {total} bytes; the limit is "
                               f"{MAX_UNCOMPRESSED_BYTES} bytes")
     if "xl/workbook.xml" not in names:
         raise HeatLedgerError(f"{p.name!r} is not an .xlsx workbook (no xl/workbook.xml)")
-    try:
+    reader = SheetReader(p.name, MAX_SHEET_ROWS, MAX_XML_ELEMENTS)
+    try:  # every part whole: each checksum, also of parts read only in part or not at all
+        with zipfile.ZipFile(io.BytesIO(raw)) as zf:
+            bad = zf.testzip()
+            if bad is not None:
+                raise zipfile.BadZipFile(f"bad CRC-32 for {bad}")
+            reader.count_parts(zf)  # shared texts and styles are loaded whole: bound them
         wb = openpyxl.load_workbook(io.BytesIO(raw), read_only=True, data_only=True)
+    except HeatLedgerError:
+        raise
     except Exception as exc:  # noqa: BLE001 - malformed XML surfaces as many exception types
         raise HeatLedgerError(f"{quote(p.name)} cannot be read as a workbook "
-                              f"({_reason(exc)}); save the template again from a spreadsheet "
+                              f"({reason(exc)}); save the template again from a spreadsheet "
                               "program") from None
-    try:
-        return _parse(wb, p.name, raw)
-    except (zipfile.BadZipFile, OSError, EOFError, ValueError, KeyError, RecursionError,
-            SyntaxError) as exc:  # SyntaxError: the XML parser's ParseError
-        if isinstance(exc, HeatLedgerError):
-            raise
-        raise HeatLedgerError(f"{quote(p.name)} is damaged and cannot be read "
-                              f"({_reason(exc)}); save the template again from a spreadsheet "
-                              "program") from None
+    try:  # the sheets' XML is read by SheetReader, which reports damage on one line
+        return _parse(wb, reader, raw)
     finally:
         wb.close()
 
 
-def _reason(exc: BaseException) -> str:
-    """A short, one-line reason for a reading failure."""
-    text = " ".join(str(exc).split())[:100]
-    kinds = {"BadZipFile": "the archive is corrupt", "ParseError": "broken XML",
-             "RecursionError": "nested too deeply", "EOFError": "the file ends early"}
-    kind = kinds.get(type(exc).__name__, type(exc).__name__)
-    return f"{kind}: {text}" if text else kind
-
-
-def _parse(wb, source: str, raw: bytes):
+def _parse(wb, reader: SheetReader, raw: bytes):
+    source = reader.source
     problems: list[tuple[str, str]] = []
     cells: dict[str, str] = {}
     missing = [s for s in TEMPLATE_SHEETS[1:6] if s not in wb.sheetnames]
@@ -446,11 +456,12 @@ def _parse(wb, source: str, raw: bytes):
                          f"{', '.join(TEMPLATE_SHEETS[1:6])}"))
     data: dict = {"project": {}, "design": {}}
     if "Project" in wb.sheetnames:
-        _read_project(wb["Project"], data, problems, cells)
+        _read_project(reader.rows(wb["Project"], HEADER_ROW, 3), data, problems, cells)
     tables = {}
     for name, cols in COLUMNS.items():
         if name in wb.sheetnames:
-            tables[name] = _read_table(wb[name], name, cols, problems)
+            tables[name] = _read_table(reader.rows(wb[name], HEADER_ROW, len(cols)), name,
+                                       cols, problems)
     if problems:
         raise ProjectError(problems, source=source)
     materials = []
@@ -496,8 +507,8 @@ def _parse(wb, source: str, raw: bytes):
     return data, raw, cells
 
 
-def _read_project(ws, data, problems, cells) -> None:
-    heads = [_text(v) for v in _row_values(ws, HEADER_ROW, 3)]
+def _read_project(rows, data, problems, cells) -> None:
+    heads = [_text(v) for v in _header(rows, 3)]
     if [h.lower() for h in heads] != ["key", "field", "value"]:
         problems.append((f"Project!A{HEADER_ROW}", f"header row must read Key, Field, Value in "
                          f"A{HEADER_ROW}:C{HEADER_ROW}; found {', '.join(map(repr, heads))} "
@@ -505,9 +516,10 @@ def _read_project(ws, data, problems, cells) -> None:
         return
     fields = {k: (label, kind) for k, label, kind in PROJECT_FIELDS}
     seen = set()
-    for r, row in enumerate(ws.iter_rows(min_row=HEADER_ROW + 1, max_row=HEADER_ROW + 200,
-                                         max_col=3, values_only=True), HEADER_ROW + 1):
-        key, _label, value = (tuple(row) + (None, None, None))[:3]
+    for r, (key, _label, value), unsaved in rows:
+        if unsaved:
+            _not_saved("Project", r, unsaved, problems)
+            continue
         if key in (None, "") and value in (None, ""):
             continue
         key = _text(key).strip()
@@ -529,9 +541,9 @@ def _read_project(ws, data, problems, cells) -> None:
             data[section][key] = _text(value)
 
 
-def _read_table(ws, name, cols, problems):
+def _read_table(rows, name, cols, problems):
     expected = [h for _k, h, _t in cols]
-    found = [_text(v) for v in _row_values(ws, HEADER_ROW, len(cols))]
+    found = [_text(v) for v in _header(rows, len(cols))]
     if [f.strip().lower() for f in found] != [e.lower() for e in expected]:
         bad = next(j for j, (f, e) in enumerate(zip(found, expected, strict=True))
                    if f.strip().lower() != e.lower())
@@ -541,14 +553,9 @@ def _read_table(ws, name, cols, problems):
                          "inserted or deleted?)"))
         return []
     out = []
-    for r, values, uncached in present_rows(ws, HEADER_ROW + 1, len(cols)):
+    for r, values, uncached in rows:
         if uncached:
-            refs = ", ".join(f"{name}!{col_letter(j)}{r}" for j in uncached)
-            problems.append((f"{name}!{col_letter(uncached[0])}{r}",
-                             f"formula cells {refs} have no calculated value (the file was "
-                             "written by a program that does not calculate); open the template "
-                             "in a spreadsheet program, let it recalculate and save, or type "
-                             "the values"))
+            _not_saved(name, r, uncached, problems)
             continue
         if all(v is None or (isinstance(v, str) and not v.strip()) for v in values):
             continue
@@ -583,55 +590,22 @@ def _read_table(ws, name, cols, problems):
     return out
 
 
-def present_rows(ws, first_row: int, ncols: int):
-    """The rows a read-only sheet really holds, from ``first_row`` on.
-
-    Yields ``(row number, values of columns 1..ncols, columns of formula cells without a
-    calculated value)`` for every row written in the sheet's XML, read to its real end: the
-    ``<dimension>`` tag, which a program may write wrong, is not trusted, and rows absent
-    from the file (a jump from row 20 to row 1,000,000) cost nothing.
-
-    Parameters
-    ----------
-    ws : openpyxl read-only worksheet
-        The sheet, from a workbook opened with ``data_only=True``. [-]
-    first_row : int
-        First row to yield (1-based). [-]
-    ncols : int
-        Number of columns to read. [-]
-    """
-    from openpyxl.worksheet._reader import FORMULA_TAG, WorkSheetParser
-
-    class _Parser(WorkSheetParser):  # notes formula cells, which data_only reading hides
-        def parse_cell(self, element):
-            cell = super().parse_cell(element)
-            cell["formula"] = element.find(FORMULA_TAG) is not None
-            return cell
-
-    book = ws.parent
-    with ws._get_source() as src:
-        parser = _Parser(src, ws._shared_strings, data_only=True, epoch=book.epoch,
-                         date_formats=book._date_formats,
-                         timedelta_formats=book._timedelta_formats)
-        for idx, cells in parser.parse():
-            if idx < first_row:
-                continue
-            values = [None] * ncols
-            uncached = []
-            for cell in cells:
-                col = cell["column"]
-                if col <= ncols:
-                    values[col - 1] = cell["value"]
-                    if cell["formula"] and cell["value"] is None:
-                        uncached.append(col)
-            yield idx, values, uncached
-
-
-def _row_values(ws, row, ncols):
-    for values in ws.iter_rows(min_row=row, max_row=row, max_col=ncols, values_only=True):
-        vals = list(values) + [None] * (ncols - len(values))
-        return vals[:ncols]
+def _header(rows, ncols):
+    """Values of the header row: the first row of ``rows`` (which start at the header row)
+    when the file stores the header row; blank when it does not."""
+    for r, values, _unsaved in rows:
+        return values if r == HEADER_ROW else [None] * ncols
     return [None] * ncols
+
+
+def _not_saved(sheet, r, columns, problems) -> None:
+    """Name the formula cells of a row whose result the file does not carry (read as blank,
+    the row would silently vanish)."""
+    refs = ", ".join(f"{sheet}!{col_letter(j)}{r}" for j in columns)
+    problems.append((f"{sheet}!{col_letter(columns[0])}{r}",
+                     f"formula cells {refs} have no calculated value (the file was written by "
+                     "a program that does not calculate); open the template in a spreadsheet "
+                     "program, let it recalculate and save, or type the values"))
 
 
 def _number(value, where, problems):
