@@ -16,6 +16,7 @@ significant figures). In the 2007 edition the corrections are Annex D.
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, field
 from decimal import ROUND_HALF_UP, Decimal
@@ -880,6 +881,17 @@ class Construction:
         self._bridging_result = bridging
         self._r_total = r_total
         self._rse_used = rse_used
+        self._row_data = (own, scale, counted)
+        if bridging is not None and bridging.ratio > BRIDGING_RATIO_LIMIT:
+            self.warnings.append(
+                f"upper/lower limit ratio {bridging.ratio:.3f} exceeds 1.5: ISO 6946:2017 6.7.2 "
+                "is not valid; use a numerical method (ISO 10211)")
+        self._corrections = self._apply_corrections(label, own)
+
+    @cached_property
+    def _rows(self) -> tuple:
+        """The layer table, built when first read (a U-value alone does not need it)."""
+        own, scale, counted = self._row_data
         rows = []
         for i, lay in enumerate(self.layers):
             note = ""
@@ -896,12 +908,7 @@ class Construction:
             rows.append(LayerRow(i, lay.name, lay.kind, lay.thickness,
                                  getattr(lay, "conductivity", None), own[i], own[i] * scale[i],
                                  counted[i], note))
-        self._rows = tuple(rows)
-        if bridging is not None and bridging.ratio > BRIDGING_RATIO_LIMIT:
-            self.warnings.append(
-                f"upper/lower limit ratio {bridging.ratio:.3f} exceeds 1.5: ISO 6946:2017 6.7.2 "
-                "is not valid; use a numerical method (ISO 10211)")
-        self._corrections = self._apply_corrections(label, own)
+        return tuple(rows)
 
     def _bridging(self, own, counted, rse_used) -> BridgingResult | None:
         bridged = [i for i, lay in enumerate(self.layers) if lay.kind == "bridged" and counted[i]]
@@ -1049,15 +1056,24 @@ def _input_slips(layers) -> list:
     """Warnings for layer input that is probably a slip (see heatledger._validate)."""
     out = []
     for i, lay in enumerate(layers, 1):
-        label = f"layer {i} {quote(lay.name)}" if lay.name else f"layer {i}"
         mat = getattr(lay, "material", None)
-        names = (lay.name, mat.name if mat is not None else "")
-        lam = getattr(lay, "conductivity", None)
-        out.append(thin_layer_warning(label, lay.thickness, *names,
-                                      metal=lam is not None and lam >= 10.0))
-        if lam is not None:
-            out.append(conductivity_warning(label, lam, *names))
-    return [w for w in out if w]
+        found = _layer_slips(lay.name, mat.name if mat is not None else "", lay.thickness,
+                             getattr(lay, "conductivity", None))
+        if found:
+            label = f"layer {i} {quote(lay.name)}" if lay.name else f"layer {i}"
+            out += [f"{label}: {text}" for text in found]
+    return out
+
+
+@functools.lru_cache(maxsize=4096)
+def _layer_slips(name: str, material: str, thickness: float, conductivity) -> tuple:
+    """The slip warnings of one layer, without its position (cached: a spreadsheet's tables
+    repeat their layers). [-]"""
+    found = [thin_layer_warning("", thickness, name, material,
+                                metal=conductivity is not None and conductivity >= 10.0)]
+    if conductivity is not None:
+        found.append(conductivity_warning("", conductivity, name, material))
+    return tuple(w for w in found if w)
 
 
 def required_thickness(construction: Construction, layer_index: int, target_u: float, *,

@@ -95,7 +95,7 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
                     xc.data_type = "b"
                 else:
                     xc.value = value
-            xc._style = style_cache.get(cell.style, cell.number_format, quote)
+            xc._style, xc.style_id = style_cache.get(cell.style, cell.number_format, quote)
             cells[(row, col)] = xc
         for rng in sheet.merges:
             _merge(ws, rng)
@@ -203,10 +203,21 @@ class _FixedTimeZipFile(ZipFile):
             self.writestr(str(arcname or filename), fh.read(), compress_type, compresslevel)
 
 
+class _PlanCell(Cell):
+    """An openpyxl cell whose style index is fixed when it is rendered.
+
+    openpyxl looks a cell's style up in the workbook's style list every time it writes the
+    cell (``style_id``); a rendered cell's style never changes, so the index is looked up
+    once per style (:class:`_StyleCache`) and kept in the slot that hides the property.
+    """
+
+    __slots__ = ("style_id",)
+
+
 def _new_cell(ws, row: int, col: int) -> Cell:
     """An empty openpyxl cell with its slots set directly: what ``Cell(ws, row, col)`` does,
     without the descriptor and argument handling that cost a fifth of rendering."""
-    xc = Cell.__new__(Cell)
+    xc = _PlanCell.__new__(_PlanCell)
     xc.parent = ws
     xc.row = row
     xc.column = col
@@ -250,7 +261,7 @@ class _StyleCache:
         self.arrays: dict[tuple, StyleArray] = {}
         self.named: dict[str, NamedStyle] = {}
 
-    def get(self, name: str, number_format: str | None, quote: bool) -> StyleArray:
+    def get(self, name: str, number_format: str | None, quote: bool) -> tuple:
         key = (name, number_format, quote)
         arr = self.arrays.get(key)
         if arr is None:
@@ -267,9 +278,10 @@ class _StyleCache:
                 arr.numFmtId = self.wb._number_formats.add(fmt) + BUILTIN_FORMATS_MAX_SIZE
             if quote:
                 arr.quotePrefix = 1
+            arr = (arr, self.wb._cell_styles.add(arr))
             self.arrays[key] = arr
-        # one shared array per style: nothing mutates a cell's style after rendering, and
-        # openpyxl indexes styles by value when it writes the file
+        # one shared array per style, with its index in the workbook's style list: nothing
+        # mutates a cell's style after rendering
         return arr
 
 
