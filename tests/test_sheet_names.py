@@ -82,3 +82,8 @@ def test_audit_of_hostile_names_recalculates_in_libreoffice(tmp_path, recalc):
     wb = openpyxl.load_workbook(recalc(path), data_only=True)
     cover = {r[0]: r[1] for r in wb["Cover"].iter_rows(min_col=2, max_col=3, values_only=True)}
     assert cover["State"] == "ALL CHECKS OK"
+
+
+def test_excels_reserved_history_name_is_avoided():
+    # Excel reserves the sheet name "History" (change tracking), from memory of its help
+    assert safe_sheet_name("History", set()).lower() != "history"

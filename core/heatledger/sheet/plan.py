@@ -120,7 +120,8 @@ def safe_sheet_name(text: str, used: set[str], *, reserved: Iterable[str] = ()) 
     Forbidden characters (``[]:*?/\\`` and control characters) become spaces, runs of
     spaces one space; the name is cut to 31 characters and then loses leading and trailing
     apostrophes (a name ending in ``'`` makes a workbook that LibreOffice cannot open). A
-    name already in ``used`` or ``reserved`` (compared without case) gets ``~2``, ``~3``...
+    name already in ``used`` or ``reserved``, or Excel's own "History" (compared without
+    case), gets ``~2``, ``~3``...
 
     Parameters
     ----------
@@ -140,7 +141,7 @@ def safe_sheet_name(text: str, used: set[str], *, reserved: Iterable[str] = ()) 
     >>> safe_sheet_name("'" * 40, set())
     'Sheet'
     """
-    taken = used | {r.lower() for r in reserved}
+    taken = used | {r.lower() for r in reserved} | {"history"}  # Excel keeps "History"
 
     def tidy(name: str) -> str:
         return name.rstrip().strip("'").rstrip()
