@@ -29,6 +29,16 @@ from .constructions import (
 from .errors import HeatLedgerError, ProjectError
 from .fileio import read_bytes_limited
 from .materials import Material, MaterialLibrary, MaterialWithheld, default_library
+from .project_schema import (
+    CONSTRUCTION_TABLE,
+    CORRECTION_KINDS,
+    CORRECTION_TABLE,
+    DESIGN_TABLE,
+    LAYER_KINDS,
+    LAYER_TABLE,
+    MATERIAL_TABLE,
+    PROJECT_TABLE,
+)
 from .surfaces import HEAT_FLOWS
 
 __all__ = ["Project", "ConstructionEntry", "load_project", "project_from_dict", "MAX_INPUT_BYTES"]
@@ -36,29 +46,12 @@ __all__ = ["Project", "ConstructionEntry", "load_project", "project_from_dict", 
 #: Largest project file accepted. [bytes]
 MAX_INPUT_BYTES = 20 * 1024 * 1024
 
-PROJECT_KEYS = ("name", "client", "site", "author", "checker", "revision", "date", "notes")
-DESIGN_KEYS = ("temp_inside", "temp_outside")
-MATERIAL_KEYS = ("name", "conductivity", "density", "specific_heat", "vapour_resistance_factor",
-                 "source")
-CONSTRUCTION_KEYS = ("name", "heat_flow", "area", "target_u", "nodes_per_layer", "rsi", "rse",
-                     "notes", "apply_small_corrections", "size_layer", "layers", "corrections")
-LAYER_KINDS = ("material", "declared", "air", "bridged")
-LAYER_KEYS = {
-    "material": ("kind", "name", "material", "conductivity", "thickness_mm"),
-    "declared": ("kind", "name", "resistance", "thickness_mm"),
-    "air": ("kind", "name", "thickness_mm", "ventilation", "emissivity_1", "emissivity_2",
-            "vent_area_mm2"),
-    "bridged": ("kind", "name", "material", "conductivity", "thickness_mm", "bridging_material",
-                "bridging_conductivity", "bridging_fraction"),
-}
-CORRECTION_KINDS = ("air_gaps", "fasteners", "inverted_roof")
-CORRECTION_KEYS = {
-    "air_gaps": ("kind", "layer", "level"),
-    "fasteners": ("kind", "layer", "conductivity", "material", "cross_section_mm2",
-                  "count_per_m2", "penetration_mm", "edition", "application"),
-    "inverted_roof": ("kind", "layer", "precipitation_mm_per_day", "drainage_factor",
-                      "factor_x"),
-}
+PROJECT_KEYS = PROJECT_TABLE.keys()
+DESIGN_KEYS = DESIGN_TABLE.keys()
+MATERIAL_KEYS = MATERIAL_TABLE.keys()
+CONSTRUCTION_KEYS = CONSTRUCTION_TABLE.keys()
+LAYER_KEYS = {kind: LAYER_TABLE.keys(kind) for kind in LAYER_KINDS}
+CORRECTION_KEYS = {kind: CORRECTION_TABLE.keys(kind) for kind in CORRECTION_KINDS}
 #: Sections of the project file read by other method families (kept as raw data here).
 OTHER_SECTIONS = ("rooms", "fins", "building")
 TOP_KEYS = ("project", "design", "materials", "constructions") + OTHER_SECTIONS

@@ -60,25 +60,17 @@ from ..materials import MaterialWithheld
 from .annular import ANNULAR_TIPS, AnnularFin
 from .arrays import FinArray
 from .fv import PowerLawCoefficient
+from .schema import DEFAULT_FV_CELLS, FIN_KINDS, FIN_TABLE, MAX_FV_CELLS
 from .straight import STRAIGHT_PROFILES, STRAIGHT_TIPS, StraightFin
 
 __all__ = ["FinEntry", "FinFVSettings", "fins_from_dict", "fin_results", "FIN_KINDS", "FIN_KEYS",
            "ARRAY_KEYS", "FV_KEYS", "DEFAULT_FV_CELLS", "MAX_FV_CELLS"]
 
-FIN_KINDS = ("straight", "annular")
-COMMON_KEYS = ("name", "kind", "material", "conductivity", "h", "base_temperature", "ambient",
-               "tip", "thickness_mm", "corrected_length", "notes", "array", "fv")
-FIN_KEYS = {
-    "straight": COMMON_KEYS + ("length_mm", "diameter_mm", "width_mm", "profile",
-                               "tip_temperature"),
-    "annular": COMMON_KEYS + ("tube_diameter_mm", "fin_diameter_mm"),
-}
-ARRAY_KEYS = ("count", "base_area", "contact_resistance", "target_heat_rate")
-FV_KEYS = ("cells", "emissivity", "temp_surroundings", "h_coefficient", "h_exponent")
-#: Control volumes of the finite-volume check when ``[fins.fv] cells`` is not given. [-]
-DEFAULT_FV_CELLS = 40
-#: Most control volumes a project may ask for (each is a row of the calculation sheet). [-]
-MAX_FV_CELLS = 500
+#: Keys of a ``[[fins]]`` table per kind, of ``[fins.array]`` and of ``[fins.fv]``
+#: (derived from :data:`heatledger.fins.schema.FIN_TABLE`).
+FIN_KEYS = {kind: FIN_TABLE.keys(kind) for kind in FIN_KINDS}
+ARRAY_KEYS = FIN_TABLE.keys(sub="array")
+FV_KEYS = FIN_TABLE.keys(sub="fv")
 
 #: A fin dimension in mm, within the physical limit of a thickness (10 m).
 _MM = {"limit": "thickness", "unit": "mm", "scale": 1e-3}

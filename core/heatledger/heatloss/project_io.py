@@ -75,6 +75,15 @@ from .elements import (
     Unheated,
 )
 from .rooms import Building, Room
+from .schema import (
+    BOUNDARIES,
+    BRIDGE_TABLE,
+    BUILDING_TABLE,
+    ELEMENT_METHOD_NAMES,
+    ELEMENT_TABLE,
+    GROUND_METHODS,
+    ROOM_TABLE,
+)
 
 __all__ = [
     "building_from_dict",
@@ -87,47 +96,21 @@ __all__ = [
     "GROUNDWATER",
 ]
 
-BUILDING_KEYS = ("name", "degree_days", "degree_day_base", "annual_mean_external_temperature",
-                 "groundwater", "f_g1", "soil", "soil_conductivity", "notes")
-ROOM_KEYS = ("name", "temp_inside", "volume", "floor_area", "reheat_factor", "ventilation",
-             "elements", "thermal_bridges", "notes")
-VENTILATION_KEYS = ("basis", "ventilation", "infiltration", "heat_recovery",
-                    "minimum_air_change")
-#: Boundaries an element or thermal bridge may face.
-BOUNDARIES = ("outside", "ground", "unheated", "room", "adjacent")
+BUILDING_KEYS = BUILDING_TABLE.keys()
+ROOM_KEYS = ROOM_TABLE.keys()
+VENTILATION_KEYS = ROOM_TABLE.keys(sub="ventilation")
 #: Groundwater depth and its factor G_w (EN 12831-1 [M]).
 GROUNDWATER = {"deep": GROUNDWATER_FACTOR_DEEP, "shallow": GROUNDWATER_FACTOR_SHALLOW}
-_BOUNDARY_KEYS = ("boundary", "temp_adjacent", "adjustment_factor", "room")
-_COMMON = ("name", "kind", "method", "area", "thermal_bridge_allowance", "notes") + _BOUNDARY_KEYS
-_SOIL = ("soil", "soil_conductivity", "exposed_outline")
 #: How an element's U-value is found, with the keys each method reads.
-ELEMENT_METHODS = {
-    "construction": _COMMON + ("construction",),
-    "declared": _COMMON + ("u_value", "u_source"),
-    "window": _COMMON + ("glazing_area", "frame_area", "glazing_u", "frame_u",
-                         "glazing_perimeter", "psi_glazing", "panel_area", "panel_u",
-                         "panel_perimeter", "psi_panel", "glazing_shape"),
-    "slab_on_ground": _COMMON + _SOIL + ("construction", "floor_resistance",
-                                         "exposed_perimeter", "wall_thickness_mm",
-                                         "edge_insulation"),
-    "suspended_floor": _COMMON + _SOIL + ("construction", "deck_resistance",
-                                          "exposed_perimeter", "wall_thickness_mm",
-                                          "underfloor_height", "underfloor_wall_u",
-                                          "vent_area_per_perimeter", "wind_speed",
-                                          "wind_shielding", "ground_insulation_resistance"),
-    "heated_basement": _COMMON + _SOIL + ("construction", "floor_resistance",
-                                          "wall_construction", "wall_resistance",
-                                          "exposed_perimeter", "wall_thickness_mm", "depth"),
-}
-GROUND_METHODS = ("slab_on_ground", "suspended_floor", "heated_basement")
+ELEMENT_METHODS = {method: ELEMENT_TABLE.keys(method) for method in ELEMENT_METHOD_NAMES}
 #: The physical limit (heatledger._validate.LIMITS) of each window and floor input.
-_WINDOW_LIMITS = {"glazing_area": "area", "frame_area": "area", "panel_area": "area",
-                  "glazing_u": "u_value", "frame_u": "u_value", "panel_u": "u_value",
-                  "glazing_perimeter": "length", "panel_perimeter": "length"}
-_FLOOR_LIMITS = {"underfloor_height": "length", "underfloor_wall_u": "u_value",
-                 "vent_area_per_perimeter": "length", "wind_speed": "wind_speed"}
-EDGE_KEYS = ("orientation", "extent", "resistance", "thickness_mm")
-BRIDGE_KEYS = ("name", "psi", "length", "chi", "count", "notes") + _BOUNDARY_KEYS
+_WINDOW_LIMITS = {k: ELEMENT_TABLE.column(k).limit for k in (
+    "glazing_area", "frame_area", "panel_area", "glazing_u", "frame_u", "panel_u",
+    "glazing_perimeter", "panel_perimeter")}
+_FLOOR_LIMITS = {k: ELEMENT_TABLE.column(k).limit for k in (
+    "underfloor_height", "underfloor_wall_u", "vent_area_per_perimeter", "wind_speed")}
+EDGE_KEYS = ELEMENT_TABLE.keys(sub="edge_insulation")
+BRIDGE_KEYS = BRIDGE_TABLE.keys()
 
 
 @dataclass(frozen=True)

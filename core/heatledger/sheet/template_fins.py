@@ -9,50 +9,15 @@ names its sheet and cell.
 
 from __future__ import annotations
 
+from ..fins.schema import FIN_TABLE
 from .template_tables import flatten_row, nest_row
 
 __all__ = ["FIN_COLUMNS", "FIN_NOTES", "FIN_SHEETS", "fin_template_rows", "read_fins"]
 
-#: Sub-tables written as prefixed columns: column key -> (sub-table, key inside it).
-_SUB = {"array_count": ("array", "count"), "array_base_area": ("array", "base_area"),
-        "array_contact_resistance": ("array", "contact_resistance"),
-        "array_target_heat_rate": ("array", "target_heat_rate"),
-        "fv_cells": ("fv", "cells"), "fv_emissivity": ("fv", "emissivity"),
-        "fv_temp_surroundings": ("fv", "temp_surroundings"),
-        "fv_h_coefficient": ("fv", "h_coefficient"), "fv_h_exponent": ("fv", "h_exponent")}
-
-FIN_COLUMNS = {
-    "Fins": (
-        ("name", "Fin name", "text"), ("kind", "Kind (straight/annular)", "text"),
-        ("material", "Material", "text"), ("conductivity", "λ if no material [W/(m K)]",
-                                           "number"),
-        ("h", "h [W/(m2 K)]", "number"), ("base_temperature", "Base T_b [degC]", "number"),
-        ("ambient", "Fluid T_inf [degC]", "number"), ("length_mm", "Length L [mm]", "number"),
-        ("thickness_mm", "Thickness t [mm]", "number"),
-        ("diameter_mm", "Pin diameter D [mm]", "number"),
-        ("width_mm", "Plate width w [mm]", "number"),
-        ("profile", "Profile (rectangular/triangular/parabolic)", "text"),
-        ("tip", "Tip (convective/adiabatic/temperature/infinite)", "text"),
-        ("tip_temperature", "Tip T_L [degC]", "number"),
-        ("corrected_length", "Corrected length (TRUE/FALSE)", "text"),
-        ("tube_diameter_mm", "Annular: tube D_1 [mm]", "number"),
-        ("fin_diameter_mm", "Annular: fin D_2 [mm]", "number"),
-        ("array_count", "Array: fins N [-]", "int"),
-        ("array_base_area", "Array: base area incl. roots [m2]", "number"),
-        ("array_contact_resistance", "Array: contact R''_t,c [m2 K/W]", "number"),
-        ("array_target_heat_rate", "Array: target q [W]", "number"),
-        ("fv_cells", "FV cells [-]", "int"), ("fv_emissivity", "FV emissivity [-]", "number"),
-        ("fv_temp_surroundings", "FV T_sur [degC]", "number"),
-        ("fv_h_coefficient", "FV h = C|ΔT|^n: C [W/(m2 K^(1+n))]", "number"),
-        ("fv_h_exponent", "FV h = C|ΔT|^n: n [-]", "number"), ("notes", "Notes", "text"),
-    ),
-}
+_SUB = FIN_TABLE.subtables()
+FIN_COLUMNS = {FIN_TABLE.sheet: FIN_TABLE.template_columns()}
 FIN_SHEETS = tuple(FIN_COLUMNS)
-FIN_NOTES = {
-    "Fins": "Optional: one row per fin or finned surface. Lengths in mm. Straight fins: "
-            "length with thickness (plate) or diameter (pin); annular fins: tube and fin "
-            "diameters and thickness. Array and FV columns are optional.",
-}
+FIN_NOTES = {FIN_TABLE.sheet: FIN_TABLE.note}
 
 
 def fin_template_rows(data: dict) -> dict:

@@ -8,92 +8,16 @@ project data, noting the cell of every key so that a problem names its sheet and
 
 from __future__ import annotations
 
+from ..heatloss.schema import ELEMENT_TABLE, ROOM_TABLE, TABLES
 from .template_tables import flatten_row, nest_row, note_cells
 
 __all__ = ["ROOM_COLUMNS", "ROOM_NOTES", "ROOM_SHEETS", "room_template_rows", "read_rooms"]
 
-#: Nested tables written as prefixed columns: column key -> (table key, key inside it).
-_VENT = {f"vent_{c}": ("ventilation", k) for c, k in (
-    ("basis", "basis"), ("rate", "ventilation"), ("infiltration", "infiltration"),
-    ("heat_recovery", "heat_recovery"), ("minimum_air_change", "minimum_air_change"))}
-_EDGE = {f"edge_{k}": ("edge_insulation", k)
-         for k in ("orientation", "extent", "resistance", "thickness_mm")}
-
-ROOM_COLUMNS = {
-    "Building": (
-        ("name", "Building name", "text"), ("degree_days", "Degree-days DD [K day]", "number"),
-        ("degree_day_base", "DD base temperature [degC]", "number"),
-        ("annual_mean_external_temperature", "Annual mean θ_m,e [degC]", "number"),
-        ("groundwater", "Groundwater (deep/shallow)", "text"), ("f_g1", "f_g1 [-]", "number"),
-        ("soil", "Soil type", "text"), ("soil_conductivity", "Soil λ [W/(m K)]", "number"),
-        ("notes", "Notes", "text"),
-    ),
-    "Rooms": (
-        ("name", "Room name", "text"), ("temp_inside", "θ_int [degC]", "number"),
-        ("volume", "Volume [m3]", "number"), ("floor_area", "Floor area [m2]", "number"),
-        ("reheat_factor", "f_RH reheat [W/m2]", "number"),
-        ("vent_basis", "Ventilation basis (air_change/flow)", "text"),
-        ("vent_rate", "Ventilation [1/h or m3/h]", "number"),
-        ("vent_infiltration", "Infiltration [1/h or m3/h]", "number"),
-        ("vent_heat_recovery", "Heat recovery η [-]", "number"),
-        ("vent_minimum_air_change", "Minimum air change [1/h]", "number"),
-        ("notes", "Notes", "text"),
-    ),
-    "Elements": (
-        ("room_name", "Room", "text"), ("name", "Element name", "text"),
-        ("kind", "Kind", "text"), ("method", "Method", "text"),
-        ("boundary", "Boundary", "text"), ("area", "Area [m2]", "number"),
-        ("construction", "Construction", "text"),
-        ("thermal_bridge_allowance", "ΔU_TB [W/(m2 K)]", "number"),
-        ("temp_adjacent", "θ other side [degC]", "number"),
-        ("adjustment_factor", "b_u [-]", "number"), ("room", "Neighbouring room", "text"),
-        ("u_value", "Declared U [W/(m2 K)]", "number"), ("u_source", "U declared by", "text"),
-        ("glazing_area", "A_g [m2]", "number"), ("frame_area", "A_f [m2]", "number"),
-        ("glazing_u", "U_g [W/(m2 K)]", "number"), ("frame_u", "U_f [W/(m2 K)]", "number"),
-        ("glazing_perimeter", "l_g [m]", "number"), ("psi_glazing", "ψ_g [W/(m K)]", "number"),
-        ("panel_area", "A_p [m2]", "number"), ("panel_u", "U_p [W/(m2 K)]", "number"),
-        ("panel_perimeter", "l_p [m]", "number"), ("psi_panel", "ψ_p [W/(m K)]", "number"),
-        ("exposed_perimeter", "P exposed [m]", "number"),
-        ("exposed_outline", "Outline (rectilinear/any/partial)", "text"),
-        ("wall_thickness_mm", "w wall [mm]", "number"),
-        ("floor_resistance", "R_f declared [m2 K/W]", "number"),
-        ("soil", "Soil type", "text"), ("soil_conductivity", "Soil λ [W/(m K)]", "number"),
-        ("edge_orientation", "Edge insulation (horizontal/vertical)", "text"),
-        ("edge_extent", "Edge D [m]", "number"), ("edge_resistance", "Edge R_n [m2 K/W]",
-                                                  "number"),
-        ("edge_thickness_mm", "Edge d_n [mm]", "number"),
-        ("deck_resistance", "R deck declared [m2 K/W]", "number"),
-        ("underfloor_height", "h underfloor [m]", "number"),
-        ("underfloor_wall_u", "U_w underfloor walls [W/(m2 K)]", "number"),
-        ("vent_area_per_perimeter", "ε vents [m2/m]", "number"),
-        ("wind_speed", "v wind [m/s]", "number"),
-        ("wind_shielding", "Wind shielding", "text"),
-        ("ground_insulation_resistance", "R_g [m2 K/W]", "number"),
-        ("wall_construction", "Basement wall construction", "text"),
-        ("wall_resistance", "R_w declared [m2 K/W]", "number"),
-        ("depth", "z basement depth [m]", "number"), ("notes", "Notes", "text"),
-    ),
-    "Bridges": (
-        ("room_name", "Room", "text"), ("name", "Thermal bridge", "text"),
-        ("psi", "ψ [W/(m K)]", "number"), ("length", "Length [m]", "number"),
-        ("chi", "χ [W/K]", "number"), ("count", "Count [-]", "int"),
-        ("boundary", "Boundary", "text"), ("temp_adjacent", "θ other side [degC]", "number"),
-        ("adjustment_factor", "b_u [-]", "number"), ("room", "Neighbouring room", "text"),
-        ("notes", "Notes", "text"),
-    ),
-}
+_VENT = ROOM_TABLE.subtables()
+_EDGE = ELEMENT_TABLE.subtables()
+ROOM_COLUMNS = {t.sheet: t.template_columns() for t in TABLES}
 ROOM_SHEETS = tuple(ROOM_COLUMNS)
-ROOM_NOTES = {
-    "Building": "Optional, one row: degree-days with their base temperature, and the ground "
-                "data (θ_m,e, groundwater, soil) of ground elements.",
-    "Rooms": "One row per heated room; θ_int blank = the design inside temperature. "
-             "Ventilation basis air_change (1/h) or flow (m3/h).",
-    "Elements": "One row per element, naming its room. Method: construction, declared, "
-                "window, slab_on_ground, suspended_floor, heated_basement. Boundary: outside, "
-                "ground, unheated, room, adjacent.",
-    "Bridges": "Thermal bridges: ψ and length (linear) or χ and count (point), naming the "
-               "room.",
-}
+ROOM_NOTES = {t.sheet: t.note for t in TABLES}
 
 
 def room_template_rows(data: dict) -> dict:
