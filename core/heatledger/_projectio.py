@@ -10,8 +10,10 @@ from __future__ import annotations
 import math
 
 from ._validate import ABSOLUTE_ZERO, LIMITS, limit_rule, show
+from .errors import HeatLedgerError
 
-__all__ = ["number", "text", "table", "table_list", "unknown", "ABSOLUTE_ZERO"]
+__all__ = ["number", "text", "table", "table_list", "unknown", "required_number", "error_text",
+           "ABSOLUTE_ZERO"]
 
 
 def number(row, key, where, problems, *, default=None, required=False, positive=False,
@@ -188,3 +190,49 @@ def unknown(row, allowed, where, problems) -> None:
         if key not in allowed:
             path = f"{where}.{key}" if where else key
             problems.append((path, f"unknown key; allowed here: {', '.join(allowed)}"))
+
+
+def required_number(row, key, where):
+    """A required number of a table, raised as an error naming its key path when missing or
+    not a number (for readers that build an engine object in one go).
+
+    Parameters
+    ----------
+    row : dict
+        The table. [-]
+    key : str
+        The key to read. [-]
+    where : str
+        Key path of the table. [-]
+
+    Returns
+    -------
+    int or float
+        The value as given.
+    """
+    value = row.get(key)
+    if value is None:
+        raise HeatLedgerError("is required", where=f"{where}.{key}")
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        kind = " (text)" if isinstance(value, str) else ""
+        raise HeatLedgerError(f"must be a number; got {show(value)}{kind}",
+                              where=f"{where}.{key}")
+    return value
+
+
+def error_text(exc: HeatLedgerError) -> str:
+    """The message of ``exc`` without its key path prefix (the problem list shows the path).
+
+    Parameters
+    ----------
+    exc : HeatLedgerError
+        The error. [-]
+
+    Returns
+    -------
+    str
+    """
+    text = str(exc)
+    if exc.where and text.startswith(f"{exc.where}: "):
+        return text[len(exc.where) + 2:]
+    return text

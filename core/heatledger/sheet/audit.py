@@ -9,43 +9,55 @@ after their own spreadsheet program has recalculated it.
 from __future__ import annotations
 
 from collections.abc import Callable
+from dataclasses import dataclass, field
 
 from .. import cautions as _cautions
-from .blocks_construction import (
-    DEFAULT_CHECK_TOLERANCE,
-    FMT_U_2SF,
-    ConstructionRefs,
-    add_construction_sheet,
-)
+from ..families import FAMILIES
+from .blocks_construction import DEFAULT_CHECK_TOLERANCE
 from .plan import (
-    Chart,
-    ChartSeries,
     PrintSetup,
     WorkbookPlan,
     fit_text_columns,
     fit_wrapped_rows,
-    safe_sheet_name,
     sheet_ref,
 )
 from .render_openpyxl import workbook_bytes, write_workbook
 
-__all__ = ["audit_plan", "write_audit", "audit_bytes", "METHODS", "tool_version"]
+__all__ = ["audit_plan", "write_audit", "audit_bytes", "tool_version", "AuditContext"]
 
-#: Methods and standards the audit workbook applies, as stated on the cover.
-METHODS = (
-    "Thermal resistance and U-value: EN ISO 6946:2017, 6.7 (R = d/λ; R_T = Rsi + Σ R + Rse; "
-    "U = 1/R_T)",
-    "Surface resistances: EN ISO 6946:2017, 6.8 and Table 7 (by heat-flow direction)",
-    "Air layers: EN ISO 6946:2017, 6.9 and Annex D (unventilated R_g); 6.9.3 slightly and "
-    "6.9.4 well ventilated layers",
-    "Inhomogeneous (bridged) layers: upper and lower limits, EN ISO 6946:2017, 6.7.2",
-    "Corrections to U: EN ISO 6946:2017, Annex F (air gaps F.2, mechanical fasteners F.3, "
-    "inverted roofs F.4); not applied below 3 % of U",
-    "U-value reported to two significant figures: EN ISO 6946:2017, clause 8",
-    "Temperatures: steady-state resistance ladder, and 1-D cell-centred finite volumes "
-    "(S. V. Patankar, Numerical Heat Transfer and Fluid Flow, 1980, ch. 4): Thomas algorithm "
-    "in the sheet, LAPACK gtsv in the engine; mesh check by Richardson extrapolation",
-)
+
+@dataclass
+class AuditContext:
+    """What the families' sheet writers share while the audit workbook is laid out.
+
+    Attributes
+    ----------
+    title : str
+        Project name for the page headers. [-]
+    tolerance : float
+        Relative tolerance of the check cells. [-]
+    progress : callable or None
+        Called as ``progress(done, total, name)`` after each construction. [-]
+    material_refs : dict
+        Material name -> its cells on the Materials sheet. [-]
+    summary : SheetPlan
+        The Summary sheet (filled by the constructions family). [-]
+    construction_refs : dict
+        Construction name -> its sheet's cells, for the families that use constructions. [-]
+    counts : list of dict
+        ``{"count": expression, "ok": expression}`` per family: its check cells. [-]
+    check_lists : list of str
+        Sheets that list check cells sheet by sheet, for the cover. [-]
+    """
+
+    title: str
+    tolerance: float
+    progress: Callable | None
+    material_refs: dict
+    summary: object
+    construction_refs: dict = field(default_factory=dict)
+    counts: list = field(default_factory=list)
+    check_lists: list = field(default_factory=list)
 
 _PROJECT_FIELDS = (("name", "Project"), ("client", "Client"), ("site", "Site"),
                    ("author", "Author"), ("checker", "Checker"), ("revision", "Revision"),
@@ -95,40 +107,13 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
     summary = plan.add_sheet("Summary", column_widths=_widths([5, 36, 31, 12, 11, 12, 12, 12,
                                                                12, 12, 12, 10, 10, 16]),
                              freeze="A4", print_setup=_print(title, "landscape", "1:3"))
-    material_refs = _materials(materials, project)
-    refs: list[ConstructionRefs] = []
-    names = _sheet_names([e.name for e in project.constructions])
-    total = len(project.constructions)
-    for i, (entry, sheet_name) in enumerate(zip(project.constructions, names, strict=True), 1):
-        mats = [str(r.get("material", "") or "") if isinstance(r, dict) else ""
-                for r in entry.layer_inputs]
-        bmats = [str(r.get("bridging_material", "") or "") if isinstance(r, dict) else ""
-                 for r in entry.layer_inputs]
-        refs.append(add_construction_sheet(
-            plan, sheet_name, entry.construction, temp_inside=project.temp_inside,
-            temp_outside=project.temp_outside, nodes_per_layer=entry.nodes_per_layer,
-            area=entry.area, target_u=entry.target_u, materials=mats,
-            bridging_materials=bmats, material_refs=material_refs, project_name=title,
-            tolerance=tolerance))
-        plan.index[entry.name] = refs[-1]
-        if progress is not None:
-            progress(i, total, entry.name)
-    summary_cells = _summary(summary, project, refs)
-    if getattr(project, "fins", None):  # fins sheets only when the project has fins
-        from .blocks_fins import add_fin_sheets
-
-        summary_cells = add_fin_sheets(plan, project, summary_cells, tolerance=tolerance,
-                                       project_name=title)
-    building = getattr(project, "building", None)
-    if building is not None and getattr(building, "rooms", None):  # rooms: heat-loss sheets
-        from .blocks_heatloss import add_heatloss_sheets
-
-        hl = add_heatloss_sheets(plan, building, project_name=title, tolerance=tolerance,
-                                 construction_refs={r.name: r for r in refs})
-        plan.index["heat loss"] = hl
-        summary_cells = {"count": f"{summary_cells['count']}+{hl.check_count}",
-                         "ok": f"{summary_cells['ok']}+{hl.checks_ok}"}
-    _cover(cover, project, summary_cells, tolerance)
+    audit = AuditContext(title=title, tolerance=tolerance, progress=progress,
+                         material_refs=_materials(materials, project), summary=summary)
+    for fam in FAMILIES:
+        if fam.present(project) or fam is FAMILIES[0]:  # the Summary is always filled
+            fam.load("sheets")(plan, project, audit)
+    summary_cells = {k: "+".join(c[k] for c in audit.counts) for k in ("count", "ok")}
+    _cover(cover, project, summary_cells, audit)
     for sheet in plan.sheets:
         fit_text_columns(sheet)
         fit_wrapped_rows(sheet)
@@ -183,71 +168,6 @@ def _print(title: str, orientation: str, rows: str | None = None) -> PrintSetup:
                       title_rows=rows)
 
 
-def _sheet_names(names) -> list[str]:
-    used: set[str] = set()
-    width = max(2, len(str(len(names))))
-    out = [safe_sheet_name(f"{i:0{width}d} {name}", used,
-                           reserved=("Cover", "Materials", "Summary"))
-           for i, name in enumerate(names, 1)]
-    return out
-
-
-def _summary(sheet, project, refs) -> dict[str, str]:
-    b = sheet.block("summary")
-    b.put("A1", "Summary of constructions", style="hl title")
-    sheet.merges.append("A1:N1")
-    b.put("A2", "Values are live references to the construction sheets; U·A only where an area "
-                "is given. Area-weighted U is over the elements with an area.", role="note")
-    heads = ["No.", "Construction", "Sheet", "Heat flow", "Area A [m2]", "R_T [m2 K/W]",
-             "U [W/(m2 K)]", "U, 2 s.f. [W/(m2 K)]", "Target U [W/(m2 K)]",
-             "Target met? (U ≤ target)",
-             "U·A [W/K]", "Check cells", "Checks OK", "State"]
-    for j, h in enumerate(heads, 1):
-        b.put(f"{_col(j)}3", h, role="header")
-    sheet.row_heights[3] = 30.0
-    first = 4
-    for i, (entry, ref) in enumerate(zip(project.constructions, refs, strict=True)):
-        r = first + i
-        b.put(f"A{r}", i + 1)
-        b.put(f"B{r}", entry.name, style="hl text")
-        b.put(f"C{r}", ref.sheet, style="hl text")
-        b.put(f"D{r}", entry.construction.heat_flow, style="hl text")
-        b.put(f"E{r}", formula=f'=IF(ISNUMBER({ref.extras["area"]}),{ref.extras["area"]},"")',
-              number_format="0.00")
-        b.put(f"F{r}", formula=f"={ref.r_total}", number_format="0.000")
-        b.put(f"G{r}", formula=f"={ref.u_value}", number_format="0.0000")
-        b.put(f"H{r}", formula=f"={ref.u_reported}", number_format=FMT_U_2SF)
-        b.put(f"I{r}", formula=f'=IF(ISNUMBER({ref.extras["target"]}),{ref.extras["target"]},"")',
-              number_format="0.000")
-        b.put(f"J{r}", formula=f'=IF(ISNUMBER(I{r}),IF(G{r}<=I{r},"yes","NO"),"no target")')
-        b.put(f"K{r}", formula=f'=IF(ISNUMBER(E{r}),G{r}*E{r},"")', number_format="0.00")
-        b.put(f"L{r}", ref.check_count, role="engine", number_format="0")
-        b.put(f"M{r}", formula=f"={ref.checks_ok}", number_format="0")
-        b.put(f"N{r}", formula=f'=IF(M{r}=L{r},"ALL CHECKS OK","NOT ALL OK")', style="hl check")
-    last = first + max(len(refs), 1) - 1
-    t = last + 2
-    b.put(f"B{t}", "Total area with U·A [m2]")
-    b.put(f"E{t}", formula=f"=SUM(E{first}:E{last})", number_format="0.00")
-    b.put(f"B{t + 1}", "Σ U·A [W/K]")
-    b.put(f"K{t + 1}", formula=f"=SUM(K{first}:K{last})", number_format="0.00")
-    b.put(f"B{t + 2}", "Area-weighted U = Σ U·A / Σ A [W/(m2 K)]")
-    b.put(f"G{t + 2}", formula=f'=IF(E{t}>0,K{t + 1}/E{t},"")', number_format="0.0000")
-    b.put(f"B{t + 3}", "Check cells in the workbook")
-    b.put(f"L{t + 3}", formula=f"=SUM(L{first}:L{last})", number_format="0")
-    b.put(f"M{t + 3}", formula=f"=SUM(M{first}:M{last})", number_format="0")
-    if refs:
-        sheet.charts.append(Chart(
-            "bar", "U-value and target per construction", f"B{t + 6}",
-            (ChartSeries("U [W/(m2 K)]", sheet_ref(sheet.name, f"G{first}:G{last}"),
-                         sheet_ref(sheet.name, f"A{first}:A{last}"), color="2E5A6B"),
-             ChartSeries("target U [W/(m2 K)]", sheet_ref(sheet.name, f"I{first}:I{last}"),
-                         sheet_ref(sheet.name, f"A{first}:A{last}"), color="D9A441")),
-            x_title="construction (No. in the table)", y_title="U [W/(m2 K)]",
-            width_cm=20.0, height_cm=8.0, y_format="0.00"))
-    return {"count": sheet_ref(sheet.name, f"L{t + 3}"),
-            "ok": sheet_ref(sheet.name, f"M{t + 3}")}
-
-
 def _materials(sheet, project) -> dict:
     b = sheet.block("materials")
     b.put("A1", "Materials used, with their design values and sources", style="hl title")
@@ -296,7 +216,8 @@ def _entry_raw(project, entry) -> dict:
     return {}
 
 
-def _cover(sheet, project, summary_cells, tolerance) -> None:
+def _cover(sheet, project, summary_cells, audit) -> None:
+    tolerance = audit.tolerance
     info = project.info
     b = sheet.block("cover")
     b.put("B1", "heatledger calculation record", style="hl title")
@@ -345,11 +266,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
                            f'"NOT ALL OK: "&({count}-{ok})&" check(s) fail; do not rely on this '
                            'file")', style="hl check")
     r += 1
-    lists = ["the Summary (constructions)"]
-    if getattr(project, "fins", None):
-        lists.append("Fins")
-    if _heatloss_topics(project)[0]:
-        lists.append("Heat loss building (rooms)")
+    lists = audit.check_lists
     text = ("Every calculation sheet counts its own check cells at its top right; "
             + ", ".join(lists[:-1]) + (" and " if len(lists) > 1 else "") + lists[-1]
             + (" list" if len(lists) > 1 else " lists")
@@ -361,7 +278,9 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     b.put(f"B{r}", "Methods and standards applied", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
-    for text in METHODS + _fin_topics(project)[0] + _heatloss_topics(project)[0]:
+    topics = [fam.load("topics")(project) for fam in FAMILIES
+              if fam.present(project) or fam is FAMILIES[0]]
+    for text in [line for methods, _c in topics for line in methods]:
         b.put(f"B{r}", "•")
         b.put(f"C{r}", text, style="hl paragraph")
         sheet.row_heights[r] = _height(text)
@@ -370,8 +289,7 @@ def _cover(sheet, project, summary_cells, tolerance) -> None:
     b.put(f"B{r}", "Cautions", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
-    for text in (_cautions.caution_lines() + _fin_topics(project)[1]
-                 + _heatloss_topics(project)[1]):
+    for text in _cautions.caution_lines() + [line for _m, c in topics for line in c]:
         b.put(f"B{r}", "!")
         b.put(f"C{r}", text, style="hl warning")
         sheet.row_heights[r] = _height(text, 78)
@@ -426,22 +344,3 @@ def _col(j: int) -> str:
     from .plan import col_letter
 
     return col_letter(j)
-
-
-def _fin_topics(project) -> tuple[tuple, list]:
-    """Methods and cautions the cover adds when the project has fins."""
-    if not getattr(project, "fins", None):
-        return (), []
-    from .blocks_fins import FIN_METHODS
-
-    return FIN_METHODS, _cautions.caution_lines("hot_surfaces")
-
-
-def _heatloss_topics(project) -> tuple[tuple, list]:
-    """Methods and cautions the cover adds when the project has rooms."""
-    building = getattr(project, "building", None)
-    if building is None or not getattr(building, "rooms", None):
-        return (), []
-    from .blocks_heatloss import HEATLOSS_METHODS
-
-    return HEATLOSS_METHODS, _cautions.caution_lines("plant_sizing")

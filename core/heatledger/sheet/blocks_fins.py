@@ -578,3 +578,39 @@ def _overview(sheet, entries, refs) -> dict:
     count = b.put(f"L{t}", formula=f"=SUM(L{first}:L{last})", number_format="0").ref
     ok = b.put(f"M{t}", formula=f"=SUM(M{first}:M{last})", number_format="0").ref
     return {"count": sheet_ref(sheet.name, count), "ok": sheet_ref(sheet.name, ok)}
+
+
+def add_sheets(plan: WorkbookPlan, project, audit) -> None:
+    """Add the fins' sheets to the audit (hook of :mod:`heatledger.families`).
+
+    Parameters
+    ----------
+    plan : WorkbookPlan
+        The workbook plan to extend. [-]
+    project : heatledger.project.Project
+        A parsed project with fins. [-]
+    audit : heatledger.sheet.audit.AuditContext
+        Shared state of the audit; gains the fins' check counts. [-]
+    """
+    audit.counts.append(add_fin_sheets(plan, project, tolerance=audit.tolerance,
+                                       project_name=audit.title))
+    audit.check_lists.append("Fins")
+
+
+def topics(project) -> tuple:
+    """Methods and cautions the cover lists when the project has fins.
+
+    Parameters
+    ----------
+    project : heatledger.project.Project
+        A parsed project. [-]
+
+    Returns
+    -------
+    tuple
+        ``(methods, cautions)``. [-]
+    """
+    del project
+    from .. import cautions
+
+    return FIN_METHODS, cautions.caution_lines("hot_surfaces")

@@ -802,3 +802,43 @@ def _room_sheet_names(names, used) -> list[str]:
     out = [safe_sheet_name(f"Room {i} {name}", used, reserved=(BUILDING_SHEET,))
            for i, name in enumerate(names, 1)]
     return out
+
+
+def add_sheets(plan: WorkbookPlan, project, audit) -> None:
+    """Add the heat-loss sheets to the audit (hook of :mod:`heatledger.families`).
+
+    Parameters
+    ----------
+    plan : WorkbookPlan
+        The workbook plan to extend. [-]
+    project : heatledger.project.Project
+        A parsed project with rooms. [-]
+    audit : heatledger.sheet.audit.AuditContext
+        Shared state of the audit: the construction sheets' cells; gains the heat-loss
+        check counts. [-]
+    """
+    hl = add_heatloss_sheets(plan, project.building, project_name=audit.title,
+                             tolerance=audit.tolerance,
+                             construction_refs=dict(audit.construction_refs))
+    plan.index["heat loss"] = hl
+    audit.counts.append({"count": hl.check_count, "ok": hl.checks_ok})
+    audit.check_lists.append("Heat loss building (rooms)")
+
+
+def topics(project) -> tuple:
+    """Methods and cautions the cover lists when the project has rooms.
+
+    Parameters
+    ----------
+    project : heatledger.project.Project
+        A parsed project. [-]
+
+    Returns
+    -------
+    tuple
+        ``(methods, cautions)``. [-]
+    """
+    del project
+    from .. import cautions
+
+    return HEATLOSS_METHODS, cautions.caution_lines("plant_sizing")

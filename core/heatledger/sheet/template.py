@@ -18,16 +18,12 @@ from dataclasses import replace
 from pathlib import Path
 
 from .._validate import quote
+from ..construction_family.schema import DESIGN_TABLE, MATERIAL_TABLE, PROJECT_TABLE
 from ..errors import HeatLedgerError, ProjectError
+from ..families import FAMILIES
 from ..fileio import read_bytes_limited
 from ..materials import default_library
-from ..project import (
-    CORRECTION_KINDS,
-    LAYER_KINDS,
-    Project,
-    project_from_dict,
-)
-from ..surfaces import HEAT_FLOWS
+from ..project import Project, project_from_dict
 from .plan import (
     DataValidation,
     PrintSetup,
@@ -37,8 +33,6 @@ from .plan import (
     fit_wrapped_rows,
     sheet_ref,
 )
-from .template_fins import FIN_COLUMNS, FIN_NOTES, FIN_SHEETS, fin_template_rows, read_fins
-from .template_rooms import ROOM_COLUMNS, ROOM_NOTES, ROOM_SHEETS, read_rooms, room_template_rows
 from .template_tables import note_cells
 from .xlsx_rows import SheetReader, reason
 
@@ -75,64 +69,18 @@ HEADER_ROW = 3
 #: Input rows prepared (styled, with drop-downs) on each data sheet.
 INPUT_ROWS = 200
 
-PROJECT_FIELDS = (
-    ("name", "Project name", "text"), ("client", "Client", "text"), ("site", "Site", "text"),
-    ("author", "Author", "text"), ("checker", "Checker", "text"),
-    ("revision", "Revision", "text"), ("date", "Date (YYYY-MM-DD)", "text"),
-    ("notes", "Notes", "text"),
-    ("temp_inside", "Inside design air temperature [degC]", "number"),
-    ("temp_outside", "Outside design air temperature [degC]", "number"),
-)
-# (key, header, type) per sheet; type "text", "number", "int" or "ref" (a layer named by
-# its name, or by its number 1, 2, ... from the inside)
-COLUMNS = {
-    "Materials": (
-        ("name", "Material name", "text"), ("conductivity", "λ [W/(m K)]", "number"),
-        ("density", "ρ [kg/m3]", "number"), ("specific_heat", "c [J/(kg K)]", "number"),
-        ("vapour_resistance_factor", "μ [-]", "number"), ("source", "Source of the values",
-                                                           "text"),
-    ),
-    "Constructions": (
-        ("name", "Construction name", "text"), ("heat_flow", "Heat flow", "text"),
-        ("area", "Area [m2]", "number"), ("target_u", "Target U [W/(m2 K)]", "number"),
-        ("nodes_per_layer", "FV cells per layer [-]", "int"),
-        ("rsi", "Rsi if not Table 7 [m2 K/W]", "number"),
-        ("rse", "Rse if not Table 7 [m2 K/W]", "number"),
-        ("size_layer", "Layer to size for the target", "ref"), ("notes", "Notes", "text"),
-    ),
-    "Layers": (
-        ("construction", "Construction name", "text"), ("name", "Layer name", "text"),
-        ("kind", "Kind", "text"), ("material", "Material", "text"),
-        ("thickness_mm", "d [mm]", "number"), ("conductivity", "λ if no material [W/(m K)]",
-                                                "number"),
-        ("resistance", "Declared R [m2 K/W]", "number"),
-        ("ventilation", "Air layer ventilation", "text"),
-        ("vent_area_mm2", "Vent area [mm2 per m or m2]", "number"),
-        ("emissivity_1", "ε1 [-]", "number"), ("emissivity_2", "ε2 [-]", "number"),
-        ("bridging_material", "Bridging material", "text"),
-        ("bridging_conductivity", "Bridging λ [W/(m K)]", "number"),
-        ("bridging_fraction", "Bridging fraction [-]", "number"),
-    ),
-    "Corrections": (
-        ("construction", "Construction name", "text"), ("kind", "Kind", "text"),
-        ("layer", "Layer name", "ref"), ("level", "Air-gap level [0/1/2]", "int"),
-        ("material", "Fastener material", "text"),
-        ("conductivity", "Fastener λ [W/(m K)]", "number"),
-        ("cross_section_mm2", "Fastener section [mm2]", "number"),
-        ("count_per_m2", "Fasteners per m2 [1/m2]", "number"),
-        ("penetration_mm", "Fastener length in layer [mm]", "number"),
-        ("edition", "ISO 6946 edition (2017/2007)", "text"),
-        ("application", "wall / roof (2007)", "text"),
-        ("precipitation_mm_per_day", "p [mm/day]", "number"),
-        ("drainage_factor", "f [-]", "number"), ("factor_x", "x [W day/(m2 K mm)]", "number"),
-    ),
-}
-COLUMNS.update(ROOM_COLUMNS)  # Building, Rooms, Elements, Bridges (heat loss)
-COLUMNS.update(FIN_COLUMNS)  # Fins
-TEMPLATE_SHEETS = ("Instructions", "Project", "Materials", "Constructions", "Layers",
-                   "Corrections") + ROOM_SHEETS + FIN_SHEETS + ("Lists",)
-VENTILATION = ("unventilated", "slightly", "well")
-_SHORT = ("kind", "heat_flow", "ventilation", "edition", "application")
+#: (key, label, type) of the Project sheet's rows: ``[project]`` and ``[design]``.
+PROJECT_FIELDS = tuple((c.key, c.header, c.template_type)
+                       for c in PROJECT_TABLE.columns + DESIGN_TABLE.columns)
+#: The tables of the template, in sheet order: the project's materials, then every
+#: family's tables (from the family registry).
+TABLES = (MATERIAL_TABLE,) + tuple(t for fam in FAMILIES for t in fam.tables if t.sheet)
+#: (key, header, type) per sheet; type "text", "number", "int" or "ref" (a layer named by
+#: its name, or by its number 1, 2, ... from the inside)
+COLUMNS = {t.sheet: t.template_columns() for t in TABLES}
+TEMPLATE_SHEETS = ("Instructions", "Project") + tuple(COLUMNS) + ("Lists",)
+#: Sheets a template must have (the first family's tables and the materials).
+REQUIRED_SHEETS = ("Project", "Materials") + tuple(t.sheet for t in FAMILIES[0].tables)
 _WIDTHS = {"text": 26, "number": 14, "int": 12, "ref": 22}
 #: Number formats of the template's U and R columns (two decimals at least, five at most)
 #: and of its λ and ψ columns (three at least).
@@ -147,6 +95,10 @@ PAGE_WIDTH_CHARS = 230.0
 def template_plan(data: dict | None = None) -> WorkbookPlan:
     """The fill-in template, with example rows from ``data`` (project-file schema).
 
+    Every sheet after Project is one input table of :data:`TABLES` (the project's materials
+    and every registered family's tables); its columns, headers, notes and drop-down lists
+    come from the table's schema.
+
     Parameters
     ----------
     data : dict, optional
@@ -159,9 +111,25 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
     """
     data = data or {}
     plan = WorkbookPlan(title="heatledger project template")
-    lib_names = default_library().names()
     _instructions(plan, bool(data))
-    # Project sheet
+    _project_sheet(plan, data)
+    rows = {"Materials": list(data.get("materials", []))}
+    for fam in FAMILIES:
+        rows.update(fam.load("template").template_rows(data))
+    lists = _lists_sheet_columns()
+    for table in TABLES:
+        _table_sheet(plan, table, rows.get(table.sheet, []), lists)
+    _lists_sheet(plan, lists)
+    for sh in plan.sheets:
+        fit_text_columns(sh)
+        fit_wrapped_rows(sh)
+        if sh.name in COLUMNS or sh.name == "Lists":  # wide tables print across pages
+            across = math.ceil(sum(sh.column_widths.values()) / PAGE_WIDTH_CHARS)
+            sh.print_setup = replace(sh.print_setup, fit_width=max(1, across))
+    return plan
+
+
+def _project_sheet(plan: WorkbookPlan, data: dict) -> None:
     sh = plan.add_sheet("Project", column_widths={"A": 16, "B": 40, "C": 50},
                         freeze=f"A{HEADER_ROW + 1}", print_setup=_print("Project"))
     b = sh.block("project")
@@ -181,108 +149,87 @@ def template_plan(data: dict | None = None) -> WorkbookPlan:
         elif value is not None:
             value = str(value)
         b.put(f"C{i}", value, role="input", number_format="0.0" if kind == "number" else None)
-    # data sheets
-    rows = {
-        "Materials": list(data.get("materials", [])),
-        "Constructions": [{k: v for k, v in c.items() if k not in ("layers", "corrections")}
-                          for c in data.get("constructions", [])],
-        "Layers": [dict(layer, construction=c.get("name", ""))
-                   for c in data.get("constructions", []) for layer in c.get("layers", [])],
-        "Corrections": [dict(corr, construction=c.get("name", ""))
-                        for c in data.get("constructions", [])
-                        for corr in c.get("corrections", [])],
-    }
-    notes = {
-        "Materials": "Your own materials or overrides of the library (declared values of the "
-                     "products used). Library names are on the Lists sheet.",
-        "Constructions": "One row per wall, roof or floor. Heat flow: up (roofs), horizontal "
-                         "(walls), down (floors).",
-        "Layers": "One row per layer, inside to outside, grouped by construction. Thickness in "
-                  "mm. Kind: material, declared, air or bridged.",
-        "Corrections": "Optional corrections to U (ISO 6946 Annex F): air_gaps, fasteners, "
-                       "inverted_roof. Name the layer as on the Layers sheet.",
-    }
-    rows.update(room_template_rows(data))
-    notes.update(ROOM_NOTES)
-    rows.update(fin_template_rows(data))
-    notes.update(FIN_NOTES)
-    n_lib = len(lib_names)
-    lists = {"materials": sheet_ref("Lists", f"A2:A{n_lib + 1}"),
-             "heat_flow": sheet_ref("Lists", f"B2:B{len(HEAT_FLOWS) + 1}"),
-             "kind": sheet_ref("Lists", f"C2:C{len(LAYER_KINDS) + 1}"),
-             "ventilation": sheet_ref("Lists", f"D2:D{len(VENTILATION) + 1}"),
-             "correction": sheet_ref("Lists", f"E2:E{len(CORRECTION_KINDS) + 1}")}
-    for name, cols in COLUMNS.items():
-        widths = {col_letter(j): (13 if key in _SHORT else
-                                  max(_WIDTHS[kind], min(len(head) + 2, 30)))
-                  for j, (key, head, kind) in enumerate(cols, 1)}
-        sh = plan.add_sheet(name, column_widths=widths, freeze=f"B{HEADER_ROW + 1}",
-                            print_setup=_print(name, "landscape"))
-        b = sh.block("data")
-        b.put("A1", f"{name}", style="hl title")
-        b.put("A2", notes[name], role="note")
-        for j, (_key, head, _kind) in enumerate(cols, 1):
-            b.put(f"{col_letter(j)}{HEADER_ROW}", head, role="header")
-        sh.row_heights[HEADER_ROW] = 30.0
-        table_rows = rows[name]
-        formats = {j: _input_format(head, kind) for j, (_k, head, kind) in enumerate(cols, 1)}
-        n_rows = max(INPUT_ROWS, len(table_rows) + 50)
-        for i in range(n_rows):
-            r = HEADER_ROW + 1 + i
-            src = table_rows[i] if i < len(table_rows) else {}
-            for j, (key, _head, kind) in enumerate(cols, 1):
-                value = src.get(key)
-                if value is not None and kind == "number":
-                    value = float(value)
-                elif value is not None and kind == "int" and not isinstance(value, bool):
-                    value = int(value) if isinstance(value, (int, float)) else str(value)
-                elif value is not None and not isinstance(value, (int, float)):
-                    value = str(value)
-                b.put(f"{col_letter(j)}{r}", value, role="input", number_format=formats[j])
-        last = HEADER_ROW + n_rows
-        keys = [k for k, _h, _t in cols]
 
-        def rng(key, keys=keys, last=last):
-            c = col_letter(keys.index(key) + 1)
-            return f"{c}{HEADER_ROW + 1}:{c}{last}"
 
-        if name == "Constructions":
-            sh.validations.append(DataValidation(rng("heat_flow"), lists["heat_flow"],
-                                                 "up, horizontal or down", "choose from the list"))
-        if name == "Layers":
-            sh.validations += [
-                DataValidation(rng("kind"), lists["kind"], "material, declared, air or bridged",
-                               "choose from the list"),
-                DataValidation(rng("material"), lists["materials"],
+def _lists_sheet_columns() -> dict:
+    """Drop-down lists of the template: ``choices -> (Lists column, header, values)``; the
+    library's materials first, then every distinct set of choices of the tables."""
+    out = {"material": ("A", "Library materials", tuple(default_library().names()))}
+    for table in TABLES:
+        for col in table.columns:
+            if col.choices and col.choices not in out:
+                out[col.choices] = (col_letter(len(out) + 1), col.label.split(" (")[0],
+                                    col.choices)
+    return out
+
+
+def _table_sheet(plan: WorkbookPlan, table, table_rows: list, lists: dict) -> None:
+    cols = table.template_columns()
+    name = table.sheet
+    widths = {col_letter(j): (13 if kind == "text" and col.choices else
+                              max(_WIDTHS[kind], min(len(head) + 2, 30)))
+              for j, ((_key, head, kind), col) in enumerate(zip(cols, _sheet_columns(table),
+                                                                strict=True), 1)}
+    sh = plan.add_sheet(name, column_widths=widths, freeze=f"B{HEADER_ROW + 1}",
+                        print_setup=_print(name, "landscape"))
+    b = sh.block("data")
+    b.put("A1", f"{name}", style="hl title")
+    b.put("A2", table.note, role="note")
+    for j, (_key, head, _kind) in enumerate(cols, 1):
+        b.put(f"{col_letter(j)}{HEADER_ROW}", head, role="header")
+    sh.row_heights[HEADER_ROW] = 30.0
+    formats = {j: _input_format(head, kind) for j, (_k, head, kind) in enumerate(cols, 1)}
+    n_rows = max(INPUT_ROWS, len(table_rows) + 50)
+    for i in range(n_rows):
+        src = table_rows[i] if i < len(table_rows) else {}
+        for j, (key, _head, kind) in enumerate(cols, 1):
+            b.put(f"{col_letter(j)}{HEADER_ROW + 1 + i}", _cell_value(src.get(key), kind),
+                  role="input", number_format=formats[j])
+    last = HEADER_ROW + n_rows
+    for j, col in enumerate(_sheet_columns(table), 1):
+        sh.validations += _drop_down(col, f"{col_letter(j)}{HEADER_ROW + 1}:"
+                                          f"{col_letter(j)}{last}", lists)
+
+
+def _sheet_columns(table) -> tuple:
+    return tuple(c for c in table.columns if c.place != "file")
+
+
+def _cell_value(value, kind: str):
+    if value is not None and kind == "number":
+        return float(value)
+    if value is not None and kind == "int" and not isinstance(value, bool):
+        return int(value) if isinstance(value, (int, float)) else str(value)
+    if value is not None and not isinstance(value, (int, float)):
+        return str(value)
+    return value
+
+
+def _drop_down(col, cells: str, lists: dict) -> list:
+    """The data-validation list of a column with choices or naming a material."""
+    if col.type == "material":
+        column, _head, values = lists["material"]
+        return [DataValidation(cells, sheet_ref("Lists", f"{column}2:{column}"
+                                                         f"{len(values) + 1}"),
                                "a library material or one of your Materials rows",
                                "not in the library: add it on the Materials sheet",
-                               error_style="warning"),
-                DataValidation(rng("bridging_material"), lists["materials"], "",
-                               "not in the library: add it on the Materials sheet",
-                               error_style="warning"),
-                DataValidation(rng("ventilation"), lists["ventilation"], "", "choose from the "
-                               "list")]
-        if name == "Corrections":
-            sh.validations.append(DataValidation(rng("kind"), lists["correction"], "",
-                                                 "choose from the list"))
-    # Lists
-    sh = plan.add_sheet("Lists", column_widths={"A": 34, "B": 14, "C": 14, "D": 16, "E": 16},
+                               error_style="warning")]
+    if not col.choices:
+        return []
+    column, _head, values = lists[col.choices]
+    return [DataValidation(cells, sheet_ref("Lists", f"{column}2:{column}{len(values) + 1}"),
+                           ", ".join(values), "choose from the list")]
+
+
+def _lists_sheet(plan: WorkbookPlan, lists: dict) -> None:
+    sh = plan.add_sheet("Lists", column_widths={c: (34 if c == "A" else 16)
+                                                for c, _h, _v in lists.values()},
                         print_setup=_print("Lists"))
     b = sh.block("lists")
-    for j, (head, values) in enumerate((("Library materials", lib_names),
-                                        ("Heat flow", HEAT_FLOWS), ("Layer kind", LAYER_KINDS),
-                                        ("Ventilation", VENTILATION),
-                                        ("Correction kind", CORRECTION_KINDS)), 1):
-        b.put(f"{col_letter(j)}1", head, role="header")
+    for column, head, values in lists.values():
+        b.put(f"{column}1", head, role="header")
         for i, v in enumerate(values, 2):
-            b.put(f"{col_letter(j)}{i}", v)
-    for sh in plan.sheets:
-        fit_text_columns(sh)
-        fit_wrapped_rows(sh)
-        if sh.name in COLUMNS:  # wide tables print on as many pages across as they need
-            across = math.ceil(sum(sh.column_widths.values()) / PAGE_WIDTH_CHARS)
-            sh.print_setup = replace(sh.print_setup, fit_width=max(1, across))
-    return plan
+            b.put(f"{column}{i}", v)
 
 
 def _input_format(head: str, kind: str) -> str | None:
@@ -450,10 +397,10 @@ def _parse(wb, reader: SheetReader, raw: bytes):
     source = reader.source
     problems: list[tuple[str, str]] = []
     cells: dict[str, str] = {}
-    missing = [s for s in TEMPLATE_SHEETS[1:6] if s not in wb.sheetnames]
+    missing = [s for s in REQUIRED_SHEETS if s not in wb.sheetnames]
     for s in missing:
         problems.append((f"{s}!", f"sheet {s!r} is missing; the template needs the sheets "
-                         f"{', '.join(TEMPLATE_SHEETS[1:6])}"))
+                         f"{', '.join(REQUIRED_SHEETS)}"))
     data: dict = {"project": {}, "design": {}}
     if "Project" in wb.sheetnames:
         _read_project(reader.rows(wb["Project"], HEADER_ROW, 3), data, problems, cells)
@@ -470,40 +417,10 @@ def _parse(wb, reader: SheetReader, raw: bytes):
         note_cells(cells, f"materials[{i}]", where)
     if materials:
         data["materials"] = materials
-    constructions = []
-    by_name: dict[str, dict] = {}
-    for i, (row, where) in enumerate(tables.get("Constructions", []), 1):
-        row = dict(row)
-        row["layers"] = []
-        constructions.append(row)
-        key = f"constructions[{i}]"
-        note_cells(cells, key, where)
-        name = str(row.get("name", "")).strip().lower()
-        if name in by_name:
-            continue  # the duplicate is reported by project_from_dict
-        by_name[name] = {"row": row, "key": key, "corr": 0}
-    for sheet, child in (("Layers", "layers"), ("Corrections", "corrections")):
-        for row, where in tables.get(sheet, []):
-            row = dict(row)
-            owner = str(row.pop("construction", "") or "").strip()
-            target = by_name.get(owner.lower())
-            if target is None:
-                choices = ", ".join(repr(c.get("name", "")) for c in constructions) or "none"
-                problems.append((where["construction"],
-                                 f"construction {owner!r} is not on the Constructions sheet; "
-                                 f"choose one of {choices}"))
-                continue
-            lst = target["row"].setdefault(child, [])
-            lst.append(row)
-            note_cells(cells, f"{target['key']}.{child}[{len(lst)}]", where)
-    read_rooms(tables, data, problems, cells)
-    read_fins(tables, data, problems, cells)
+    for fam in FAMILIES:
+        fam.load("template").read_rows(tables, data, problems, cells)
     if problems:
         raise ProjectError(problems, source=source)
-    for c in constructions:
-        if not c.get("corrections"):
-            c.pop("corrections", None)
-    data["constructions"] = constructions
     return data, raw, cells
 
 

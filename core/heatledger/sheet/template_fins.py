@@ -12,7 +12,7 @@ from __future__ import annotations
 from ..fins.schema import FIN_TABLE
 from .template_tables import flatten_row, nest_row
 
-__all__ = ["FIN_COLUMNS", "FIN_NOTES", "FIN_SHEETS", "fin_template_rows", "read_fins"]
+__all__ = ["FIN_COLUMNS", "FIN_NOTES", "FIN_SHEETS", "template_rows", "read_rows"]
 
 _SUB = FIN_TABLE.subtables()
 FIN_COLUMNS = {FIN_TABLE.sheet: FIN_TABLE.template_columns()}
@@ -20,7 +20,7 @@ FIN_SHEETS = tuple(FIN_COLUMNS)
 FIN_NOTES = {FIN_TABLE.sheet: FIN_TABLE.note}
 
 
-def fin_template_rows(data: dict) -> dict:
+def template_rows(data: dict) -> dict:
     """Template rows of the Fins sheet.
 
     Parameters
@@ -44,7 +44,7 @@ def fin_template_rows(data: dict) -> dict:
     return {"Fins": rows}
 
 
-def read_fins(tables: dict, data: dict, problems: list, cells: dict) -> None:
+def read_rows(tables: dict, data: dict, problems: list, cells: dict) -> None:
     """Add ``fins`` read from the template's Fins sheet to ``data``.
 
     Parameters

@@ -11,7 +11,7 @@ from __future__ import annotations
 from ..heatloss.schema import ELEMENT_TABLE, ROOM_TABLE, TABLES
 from .template_tables import flatten_row, nest_row, note_cells
 
-__all__ = ["ROOM_COLUMNS", "ROOM_NOTES", "ROOM_SHEETS", "room_template_rows", "read_rooms"]
+__all__ = ["ROOM_COLUMNS", "ROOM_NOTES", "ROOM_SHEETS", "template_rows", "read_rows"]
 
 _VENT = ROOM_TABLE.subtables()
 _EDGE = ELEMENT_TABLE.subtables()
@@ -20,7 +20,7 @@ ROOM_SHEETS = tuple(ROOM_COLUMNS)
 ROOM_NOTES = {t.sheet: t.note for t in TABLES}
 
 
-def room_template_rows(data: dict) -> dict:
+def template_rows(data: dict) -> dict:
     """Template rows of the Building, Rooms, Elements and Bridges sheets.
 
     Parameters
@@ -48,7 +48,7 @@ def room_template_rows(data: dict) -> dict:
     return out
 
 
-def read_rooms(tables: dict, data: dict, problems: list, cells: dict) -> None:
+def read_rows(tables: dict, data: dict, problems: list, cells: dict) -> None:
     """Add ``building`` and ``rooms`` read from the template's tables to ``data``.
 
     Parameters

@@ -7,9 +7,9 @@ Thickness in millimetres, as build-ups are written in practice; everything else 
 
 from __future__ import annotations
 
-from .airlayers import VENTILATION_CLASSES
-from .schema import Column, Table
-from .surfaces import HEAT_FLOWS
+from ..airlayers import VENTILATION_CLASSES
+from ..schema import Column, Table
+from ..surfaces import HEAT_FLOWS
 
 __all__ = ["PROJECT_TABLE", "DESIGN_TABLE", "MATERIAL_TABLE", "CONSTRUCTION_TABLE",
            "LAYER_TABLE", "CORRECTION_TABLE", "LAYER_KINDS", "CORRECTION_KINDS", "TABLES"]
@@ -183,4 +183,4 @@ CORRECTION_TABLE = Table(
 )
 
 #: The tables of project information and the constructions family, in template order.
-TABLES = (MATERIAL_TABLE, CONSTRUCTION_TABLE, LAYER_TABLE, CORRECTION_TABLE)
+TABLES = (CONSTRUCTION_TABLE, LAYER_TABLE, CORRECTION_TABLE)
