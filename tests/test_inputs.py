@@ -316,7 +316,7 @@ def test_a_bad_material_is_reported_once_not_at_every_reference():
                      "base_temperature": 60.0, "ambient": 20.0, "length_mm": 40.0,
                      "thickness_mm": 2.0}]
     problems = problems_of(data)
-    assert [w for w, _ in problems] == ["materials[1]"]
+    assert [w for w, _ in problems] == ["materials[1].conductivity"]
 
 
 def test_a_bad_construction_does_not_cascade_into_does_not_exist():

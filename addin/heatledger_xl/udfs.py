@@ -44,8 +44,11 @@ from heatledger.surfaces import surface_resistance, surface_resistance_calc
 # that the functions and their helpers stay of one version (each function declared again
 # replaces its registry entry).
 if "HL_UVALUE" in globals():
-    for _module in ("cache", "ranges", "correction_ranges", "udfs_fins", "udfs_heatloss"):
-        if f"{__package__}.{_module}" in sys.modules:
+    from heatledger.families import FAMILIES as _FAMILIES
+
+    _family_modules = tuple(f.hooks["functions"].rpartition(".")[2] for f in _FAMILIES)
+    for _module in ("cache", "ranges", "correction_ranges") + _family_modules:
+        if _module != __name__.rpartition(".")[2] and f"{__package__}.{_module}" in sys.modules:
             importlib.reload(sys.modules[f"{__package__}.{_module}"])
 
 from .cache import MISSING, BoundedCache  # noqa: E402
@@ -576,11 +579,21 @@ def _finite_or_text(value):
 # Every family's functions must be members of this module: classic xlwings imports the
 # functions it finds in the module named under "UDF Modules", xlwings Lite/Server those of
 # the module passed to them.
-from .udfs_fins import *  # noqa: E402, F403
-from .udfs_fins import __all__ as _fins_all  # noqa: E402
+from heatledger.families import FAMILIES  # noqa: E402
 
-__all__ = __all__ + list(_fins_all)
-from .udfs_heatloss import *  # noqa: E402, F403
-from .udfs_heatloss import __all__ as _heatloss_all  # noqa: E402
 
-__all__ = __all__ + list(_heatloss_all)
+def _add_family_functions() -> list:
+    """Make every registered family's functions members of this module (in registry order);
+    returns their names."""
+    names = []
+    for fam in FAMILIES:
+        module = fam.load("functions")
+        if module is None or module.__name__ == __name__:
+            continue
+        for name in module.__all__:
+            globals()[name] = getattr(module, name)
+            names.append(name)
+    return names
+
+
+__all__ = __all__ + _add_family_functions()

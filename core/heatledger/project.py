@@ -15,13 +15,14 @@ import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from ._projectio import error_text, number, required_number, table, table_list, text, unknown
+from ._projectio import error_text, number, table, table_list, text, unknown
 from .construction_family.project_io import ConstructionEntry, build_construction
 from .construction_family.schema import DESIGN_TABLE, MATERIAL_TABLE, PROJECT_TABLE
 from .errors import HeatLedgerError, ProjectError
 from .families import FAMILIES, ParseContext
 from .fileio import read_bytes_limited
 from .materials import Material, MaterialLibrary, default_library
+from .schema import read_value
 
 __all__ = ["Project", "ConstructionEntry", "build_construction", "load_project",
            "project_from_dict", "MAX_INPUT_BYTES", "TOP_KEYS"]
@@ -194,22 +195,15 @@ def _materials(data, library, problems) -> list:
         unknown(row, MATERIAL_KEYS, where, problems)
         mat_start = len(problems)
         mat_name = text(row, "name", where, problems)
-        try:
-            if mat_name is None:
-                raise HeatLedgerError("material name must be text")
-            mat = Material(
-                name=mat_name,
-                conductivity=required_number(row, "conductivity", where),
-                density=row.get("density"),
-                specific_heat=row.get("specific_heat"),
-                vapour_resistance_factor=row.get("vapour_resistance_factor"),
-                source=str(row.get("source") or "") or "user input",
-                confidence="user",
-            )
-            library.add(mat, override=True)
-            user_materials.append(mat)
-        except HeatLedgerError as exc:
-            if mat_name is not None:
+        values = {c.key: read_value(c, row, where, problems) for c in MATERIAL_TABLE.columns
+                  if c.type == "number"}
+        if mat_name is not None and len(problems) == mat_start:
+            try:
+                mat = Material(name=mat_name, source=str(row.get("source") or "") or
+                               "user input", confidence="user", **values)
+                library.add(mat, override=True)
+                user_materials.append(mat)
+            except HeatLedgerError as exc:
                 problems.append((exc.where or where, error_text(exc)))
         if len(problems) > mat_start and mat_name:  # references must not add "unknown"
             library.withhold(mat_name)

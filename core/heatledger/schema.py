@@ -128,6 +128,8 @@ class Table:
         Key whose value selects the variant (``"kind"``, ``"method"``); empty = none. [-]
     extra : tuple of str
         Keys of child tables read elsewhere (``"layers"``), allowed but not columns. [-]
+    many : bool
+        A list of tables (``[[fins]]``) rather than one table (``[building]``). [-]
     """
 
     key: str
@@ -137,6 +139,7 @@ class Table:
     note: str = ""
     variant_key: str = ""
     extra: tuple = ()
+    many: bool = True
 
     def column(self, key: str, sub: str = "") -> Column:
         """The column of ``key`` (in sub-table ``sub``). [-]"""
@@ -302,7 +305,7 @@ def markdown(table: Table) -> str:
     str
         Markdown lines, ending with a newline.
     """
-    head = f"`[[{table.key}]]`" if table.sheet else f"`[{table.key}]`"
+    head = f"`[[{table.key}]]`" if table.many else f"`[{table.key}]`"
     lines = [f"{head}: {table.title}.", "",
              "| key | unit | type | allowed / default | meaning |", "|---|---|---|---|---|"]
     for c in table.columns:
@@ -321,3 +324,24 @@ def _md_value(value) -> str:
     if isinstance(value, bool):
         return "true" if value else "false"
     return f'"{value}"' if isinstance(value, str) else f"{value:g}"
+
+
+def project_file_reference() -> str:
+    """Every key of the project file as Markdown tables: the project-wide tables, then each
+    registered family's (the README's "Keys of the project file" section). [-]
+
+    Returns
+    -------
+    str
+        Markdown, one table per project-file table.
+    """
+    from .construction_family.schema import DESIGN_TABLE, MATERIAL_TABLE, PROJECT_TABLE
+    from .families import FAMILIES
+
+    tables = (PROJECT_TABLE, DESIGN_TABLE, MATERIAL_TABLE) + tuple(
+        t for fam in FAMILIES for t in fam.tables)
+    return "\n".join(markdown(t) for t in tables)
+
+
+if __name__ == "__main__":  # python -m heatledger.schema: the README's key tables
+    print(project_file_reference(), end="")

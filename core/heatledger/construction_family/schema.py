@@ -24,7 +24,7 @@ def _info(key: str, label: str, description: str) -> Column:
 
 
 PROJECT_TABLE = Table(
-    key="project", title="who, where and which revision (printed on every sheet)",
+    key="project", many=False, title="who, where and which revision (printed on every sheet)",
     columns=(
         _info("name", "Project name", "project name"),
         _info("client", "Client", "client"),
@@ -38,7 +38,8 @@ PROJECT_TABLE = Table(
 )
 
 DESIGN_TABLE = Table(
-    key="design", title="design temperatures of the constructions' temperature profiles",
+    key="design", many=False,
+    title="design temperatures of the constructions' temperature profiles",
     columns=(
         Column("temp_inside", "Inside design air temperature", "degC", "number",
                "inside air temperature", default=20.0, limit="temperature"),
@@ -154,7 +155,7 @@ CORRECTION_TABLE = Table(
                required=True),
         Column("layer", "Layer name", "", "ref",
                "the insulation layer corrected (name or number from inside)"),
-        Column("level", "Air-gap level [0/1/2]", "", "int", "Annex F.2 level of air gaps",
+        Column("level", "Air-gap level (0/1/2)", "-", "int", "Annex F.2 level of air gaps",
                variants=_G),
         Column("material", "Fastener material", "", "material", "fastener material",
                variants=_F),

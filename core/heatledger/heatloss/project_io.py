@@ -59,6 +59,7 @@ from ..ground import (
     slab_on_ground,
     suspended_floor,
 )
+from ..schema import read_value
 from ..windows import PERIMETER_SHAPES, declared_window, window
 from .air import Ventilation
 from .elements import (
@@ -641,8 +642,8 @@ def _ground(method, row, where, label, area, ctx, problems):
                limit="perimeter")
     w_mm = number(row, "wall_thickness_mm", where, problems, non_negative=True, required=True,
                   limit="wall_thickness", unit="mm", scale=1e-3)
-    outline = row.get("exposed_outline", "rectilinear")
-    if area is None or p is None or w_mm is None:
+    outline = read_value(ELEMENT_TABLE.column("exposed_outline"), row, where, problems)
+    if area is None or p is None or w_mm is None or outline is None:
         return None
     w = w_mm / 1000.0
     if method == "slab_on_ground":

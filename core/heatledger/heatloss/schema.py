@@ -40,7 +40,8 @@ def _boundary_columns(what: str) -> tuple:
 
 
 BUILDING_TABLE = Table(
-    key="building", title="building-wide data: degree-days and ground", sheet="Building",
+    key="building", many=False, title="building-wide data: degree-days and ground",
+    sheet="Building",
     note="Optional, one row: degree-days with their base temperature, and the ground data "
          "(θ_m,e, groundwater, soil) of ground elements.",
     columns=(
@@ -154,13 +155,14 @@ ELEMENT_TABLE = Table(
                "shape check of the glazing perimeter", choices=PERIMETER_SHAPES,
                default="rectilinear", variants=_W, place="file"),
         Column("exposed_perimeter", "P exposed", "m", "number",
-               "exposed perimeter of the floor", limit="perimeter", variants=_G),
+               "exposed perimeter of the floor", required=True, limit="perimeter",
+               sign="positive", variants=_G),
         Column("exposed_outline", "Outline (rectilinear/any/partial)", "", "text",
                "how the exposed perimeter was checked", choices=EXPOSED_OUTLINES,
-               variants=_G),
+               default="rectilinear", variants=_G),
         Column("wall_thickness_mm", "w wall", "mm", "number",
-               "thickness of the surrounding walls", limit="wall_thickness", scale=1e-3,
-               variants=_G),
+               "thickness of the surrounding walls", required=True, limit="wall_thickness",
+               scale=1e-3, sign="non_negative", variants=_G),
         Column("floor_resistance", "R_f declared", "m2 K/W", "number",
                "declared floor resistance instead of a construction", limit="resistance",
                variants=_SL + _HB),
