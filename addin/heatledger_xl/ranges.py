@@ -61,7 +61,9 @@ import math
 from functools import lru_cache
 from numbers import Real
 
+from heatledger._validate import LIMITS
 from heatledger.airlayers import MAX_AIR_LAYER_THICKNESS
+from heatledger.construction_family.schema import FUNCTION_LAYER_TABLE
 from heatledger.constructions import AirLayer, BridgedLayer, Construction, Layer
 from heatledger.errors import HeatLedgerError
 from heatledger.materials import Material, default_library
@@ -84,22 +86,29 @@ __all__ = [
     "MAX_BRIDGED_LAYERS",
 ]
 
-#: Column names of a layer table, in order, as used in messages.
-LAYER_COLUMNS = ("material", "thickness_mm", "conductivity", "resistance",
-                 "bridging_fraction", "bridging_conductivity")
+#: Column names of a layer table, in order, as used in messages (from the schema).
+LAYER_COLUMNS = tuple(c.key for c in FUNCTION_LAYER_TABLE.columns)
 #: Most layers a table may hold (a real build-up has well under 30).
 MAX_LAYERS = 100
 #: Most bridged layers a table may hold: the upper limit of EN ISO 6946 6.7.2 sums over
 #: every combination of their parts (2**n sections for n two-part layers), so the work
 #: doubles with each one; real build-ups have one to three (studs, battens, counter-battens).
 MAX_BRIDGED_LAYERS = 8
-#: Largest layer thickness accepted. [mm]
-MAX_THICKNESS_MM = 10_000.0
-#: Smallest layer thickness accepted (a thin film is about 0.1 mm). [mm]
-MIN_THICKNESS_MM = 0.001
-#: Largest resistance of one layer, declared or thickness/conductivity (more than a
-#: hundred metres of the best insulation made). [m2 K/W]
-MAX_LAYER_RESISTANCE = 1.0e3
+
+
+def _bounds(key: str) -> tuple:
+    """Low and high bound of a layer column in its own unit (the schema's physical limit)."""
+    col = FUNCTION_LAYER_TABLE.column(key)
+    lim = LIMITS[col.limit]
+    return lim.low / col.scale, lim.high / col.scale
+
+
+#: Smallest and largest layer thickness accepted. [mm]
+MIN_THICKNESS_MM, MAX_THICKNESS_MM = _bounds("thickness_mm")
+#: Smallest and largest conductivity accepted. [W/(m K)]
+MIN_CONDUCTIVITY, MAX_CONDUCTIVITY = _bounds("conductivity")
+#: Largest resistance of one layer, declared or thickness/conductivity. [m2 K/W]
+MAX_LAYER_RESISTANCE = _bounds("resistance")[1]
 #: Spreadsheet error values as they arrive as text (xlwings ``err_to_str``).
 ERROR_VALUES = frozenset({"#N/A", "#VALUE!", "#REF!", "#DIV/0!", "#NUM!", "#NAME?",
                           "#NULL!", "#SPILL!", "#CALC!", "#GETTING_DATA", "#FIELD!",
@@ -577,7 +586,8 @@ def _layer(name: str, row: int, cells: tuple):
         label = text(f"{where} material", c_name, "")  # the common case, a name, is done
     thickness = _cell(where, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
                       MAX_THICKNESS_MM, True, "mm") / 1000.0
-    cond = _cell(where, "conductivity", c_cond, None, 0.0, 1.0e4, False, "W/(m K)")
+    cond = _cell(where, "conductivity", c_cond, None, MIN_CONDUCTIVITY, MAX_CONDUCTIVITY, True,
+                 "W/(m K)")
     if cond is not None:
         _layer_resistance(where, "conductivity", thickness, cond)
     res = _cell(where, "resistance", c_res, None, 0.0, MAX_LAYER_RESISTANCE, False,
@@ -654,8 +664,8 @@ def _bridging_conductivity(where: str, value: object) -> float:
         except ValueError:
             if value.strip().upper() not in ERROR_VALUES:
                 return _material(f"{where} bridging_conductivity", value).conductivity
-    return number(f"{where} bridging_conductivity", value, low=0.0, high=1.0e4,
-                  unit="W/(m K)")
+    return number(f"{where} bridging_conductivity", value, low=MIN_CONDUCTIVITY,
+                  high=MAX_CONDUCTIVITY, low_inclusive=True, unit="W/(m K)")
 
 
 def _air_layer(where: str, label: str, thickness: float) -> AirLayer:

@@ -12,7 +12,7 @@ from ..schema import Column, Table
 from ..surfaces import HEAT_FLOWS
 
 __all__ = ["PROJECT_TABLE", "DESIGN_TABLE", "MATERIAL_TABLE", "CONSTRUCTION_TABLE",
-           "LAYER_TABLE", "CORRECTION_TABLE", "LAYER_KINDS", "CORRECTION_KINDS", "TABLES"]
+           "LAYER_TABLE", "CORRECTION_TABLE", "FUNCTION_LAYER_TABLE", "LAYER_KINDS", "CORRECTION_KINDS", "TABLES"]
 
 LAYER_KINDS = ("material", "declared", "air", "bridged")
 CORRECTION_KINDS = ("air_gaps", "fasteners", "inverted_roof")
@@ -180,6 +180,28 @@ CORRECTION_TABLE = Table(
         Column("drainage_factor", "f", "-", "number", "drainage factor", variants=_I),
         Column("factor_x", "x", "W day/(m2 K mm)", "number", "factor for the heat loss",
                limit="factor_x", variants=_I),
+    ),
+)
+
+#: The layer table of the spreadsheet functions (``HL_UVALUE`` and its kin): one row per
+#: layer, inside to outside, six columns; a material named ``air`` (or ``air: ...``) is an
+#: unventilated air layer by EN ISO 6946 Annex D.
+FUNCTION_LAYER_TABLE = Table(
+    key="layers", title="a layer of a spreadsheet function's layer range",
+    columns=(
+        Column("material", "Material or name", "", "material",
+               "library material, `air` for an air layer, or a name with λ or R"),
+        Column("thickness_mm", "d", "mm", "number", "layer thickness", required=True,
+               limit="thickness", scale=1e-3, sign="positive"),
+        Column("conductivity", "λ", "W/(m K)", "number",
+               "conductivity instead of the material's", limit="conductivity",
+               sign="positive"),
+        Column("resistance", "R", "m2 K/W", "number", "declared thermal resistance",
+               limit="layer_resistance", sign="positive"),
+        Column("bridging_fraction", "Bridging fraction", "-", "number",
+               "fraction of the area taken by studs or battens (below 1)", sign="positive"),
+        Column("bridging_conductivity", "Bridging λ", "W/(m K)", "number",
+               "conductivity (or material) of the bridging", limit="conductivity"),
     ),
 )
 
