@@ -12,7 +12,8 @@ from ..schema import Column, Table
 from ..surfaces import HEAT_FLOWS
 
 __all__ = ["PROJECT_TABLE", "DESIGN_TABLE", "MATERIAL_TABLE", "CONSTRUCTION_TABLE",
-           "LAYER_TABLE", "CORRECTION_TABLE", "FUNCTION_LAYER_TABLE", "LAYER_KINDS", "CORRECTION_KINDS", "TABLES"]
+           "LAYER_TABLE", "CORRECTION_TABLE", "FUNCTION_LAYER_TABLE", "LAYER_KINDS",
+           "CORRECTION_KINDS", "TABLES"]
 
 LAYER_KINDS = ("material", "declared", "air", "bridged")
 CORRECTION_KINDS = ("air_gaps", "fasteners", "inverted_roof")

@@ -17,7 +17,7 @@ import pytest
 from heatledger.sheet.workbooks import DEMO_FILES, regenerate
 from tests._workbook_compare import RTOL_NUMBERS, differences
 
-COMMITTED = Path(__file__).resolve().parents[1] / "workbooks"
+COMMITTED = Path(__file__).resolve().parents[2] / "workbooks"
 
 
 def test_committed_demo_files_match_a_fresh_generation(tmp_path, capsys):

@@ -23,7 +23,7 @@ from heatledger_xl import udfs, workbook
 from heatledger_xl.registry import REGISTRY
 from tests._workbook_compare import differences
 
-COMMITTED = Path(__file__).resolve().parents[1] / "workbooks" / workbook.FILE_NAME
+COMMITTED = Path(__file__).resolve().parents[2] / "workbooks" / workbook.FILE_NAME
 CALL = re.compile(r"^=(HL_[A-Z_]+)\((.*)\)$")
 rtol_written = 1e-15  # the file stores numbers to 16 significant digits
 

@@ -19,7 +19,7 @@ from hypothesis import strategies as st
 from heatledger_xl import udfs
 from heatledger_xl.ranges import ERROR_VALUES
 from heatledger_xl.registry import MAX_DESCRIPTION, PREFIX, REGISTRY
-from tests._addin_helpers import call_with_drawn, check_bad_optional_named, check_result
+from tests.addin._addin_helpers import call_with_drawn, check_bad_optional_named, check_result
 
 OURS = sorted(n for n, s in REGISTRY.items() if s.family == "heat loss")
 DEADLINE_MS = 1000  # the add-in's rule: every bad input answers within a second

@@ -1,6 +1,6 @@
 """The xlwings renderer uses only calls that the installed xlwings really has.
 
-The renderer is exercised on :class:`RecordingBook` (tests/test_addin_render.py), which is
+The renderer is exercised on :class:`RecordingBook` (tests/addin/test_addin_render.py), which is
 our own stand-in; this module holds that stand-in to the real thing: every property the
 renderer sets is a settable property of the xlwings class, every method it calls takes the
 keyword arguments it passes, and every option value (chart type, alignment, border style,

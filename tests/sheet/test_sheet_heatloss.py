@@ -242,7 +242,7 @@ def test_sheets_are_deterministic_and_room_names_stay_text(demo):
     assert refs.sheets[0].startswith("Room 1")
 
 
-README_EXAMPLE = Path(__file__).with_name("data") / "heatloss_readme_example.toml"
+README_EXAMPLE = Path(__file__).resolve().parents[1] / "data" / "heatloss_readme_example.toml"
 
 
 @pytest.mark.calc

@@ -27,8 +27,8 @@ from heatledger.constructions import (
 from heatledger_xl import udfs
 from heatledger_xl.ranges import ERROR_VALUES, LIBRARY
 from heatledger_xl.registry import REGISTRY
-from tests._addin_helpers import call_with_drawn
-from tests._addin_helpers import check_result as check_answer
+from tests.addin._addin_helpers import call_with_drawn
+from tests.addin._addin_helpers import check_result as check_answer
 
 DEADLINE_MS = 1000  # the add-in's issue: every bad input answers within a second
 # The construction family; other families (fins) carry their own no-raise tests.

@@ -20,7 +20,7 @@ from hypothesis import strategies as st
 from heatledger_xl import udfs_fins as uf
 from heatledger_xl.ranges import ERROR_VALUES
 from heatledger_xl.registry import MAX_DESCRIPTION, PREFIX, REGISTRY
-from tests._addin_helpers import call_with_drawn, check_bad_optional_named, check_result
+from tests.addin._addin_helpers import call_with_drawn, check_bad_optional_named, check_result
 
 FINS = sorted(n for n, s in REGISTRY.items() if s.family == "fins")
 rtol_closed = 1e-12  # the same closed form evaluated in another arrangement
