@@ -47,7 +47,7 @@ from .elements import (
     PointBridge,
     Unheated,
 )
-from .results import AnnualEnergy, BuildingHeatLoad, LossLine, RoomHeatLoad
+from .results import AnnualEnergy, BuildingHeatLoad, GroundFloorU, LossLine, RoomHeatLoad
 from .rooms import Building, Room
 
 __all__ = [
@@ -67,6 +67,7 @@ __all__ = [
     "RoomHeatLoad",
     "BuildingHeatLoad",
     "AnnualEnergy",
+    "GroundFloorU",
     "ELEMENT_KINDS",
     "AIR_REFERENCE_TEMPERATURE",
     "AIR_REFERENCE_PRESSURE",

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from .air import VentilationFlows
 
@@ -210,3 +210,48 @@ class AnnualEnergy:
     provenance: tuple[str, ...]
 
 
+@dataclass(frozen=True)
+class GroundFloorU:
+    """U-value of a ground element (EN ISO 13370) with the inputs behind it.
+
+    Stands as an element's ``u``: it has ``u_value``, ``method`` and ``area``.
+
+    Parameters
+    ----------
+    result : object
+        :class:`~heatledger.ground.SlabOnGroundResult`, ``SuspendedFloorResult`` or
+        ``HeatedBasementResult``. [-]
+    method_key : str
+        ``"slab_on_ground"``, ``"suspended_floor"`` or ``"heated_basement"``. [-]
+    area : float
+        Area of the element in the room: the floor area, plus ``z P`` of the walls below
+        ground for a heated basement. [m2]
+    construction : str
+        Name of the project construction that gave ``R_f`` (or the deck), "" if declared. [-]
+    wall_construction : str
+        Name of the construction that gave ``R_w`` of a basement, "" if declared. [-]
+    soil : str
+        How the ground conductivity was found. [-]
+    inputs : dict
+        The inputs of the calculation by short name (``w`` [m], ``rf``, ``rw``, ``rg``
+        [m2 K/W], ``h`` [m], ``uw`` [W/(m2 K)], ``eps`` [m2/m], ``v`` [m/s], ``rsiw``
+        [m2 K/W]) for the calculation sheet. [-]
+    """
+
+    result: object
+    method_key: str
+    area: float
+    construction: str = ""
+    wall_construction: str = ""
+    soil: str = ""
+    inputs: dict = field(default_factory=dict, compare=False)
+
+    @property
+    def u_value(self) -> float:
+        """``U`` (or ``U'`` of a basement) from EN ISO 13370. [W/(m2 K)]"""
+        return float(self.result.u_value)
+
+    @property
+    def method(self) -> str:
+        """What ran. [-]"""
+        return f"{self.result.method}; {self.soil}"

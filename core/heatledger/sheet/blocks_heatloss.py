@@ -26,7 +26,7 @@ from dataclasses import dataclass, field
 from .. import cautions as _cautions
 from ..ground.soil import RSE_GROUND, RSI_FLOOR
 from ..heatloss import AIR_DENSITY, AIR_SPECIFIC_HEAT, AdjacentRoom, Ground, Outside, Unheated
-from ..heatloss.project_io import GroundFloorU
+from ..heatloss.results import GroundFloorU
 from ..windows import DeclaredWindow, WindowResult
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet
 from .plan import Chart, ChartSeries, WorkbookPlan, col_letter, safe_sheet_name, sheet_ref
