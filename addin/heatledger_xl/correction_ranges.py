@@ -25,6 +25,7 @@ least 3 % of U (Annex F); :func:`heatledger_xl.udfs.HL_CORRECTIONS` shows what i
 
 from __future__ import annotations
 
+from heatledger.construction_family.schema import CORRECTION_KINDS
 from heatledger.constructions import (
     AirGapCorrection,
     FastenerCorrection,
@@ -32,20 +33,14 @@ from heatledger.constructions import (
 )
 from heatledger.errors import HeatLedgerError
 
-from .ranges import (
-    ERROR_VALUES,
-    LIBRARY,
-    _is_blank,
-    _no_booleans,
-    _unwrap_single,
-    check_blank_below,
-    number,
-    text,
-)
+from .cells import ERROR_VALUES, number, text
+from .cells import is_blank as _is_blank
+from .cells import unwrap_single as _unwrap_single
+from .ranges import LIBRARY, _no_booleans, check_blank_below
 
 __all__ = ["CORRECTION_KINDS", "MAX_CORRECTIONS", "correction_rows", "build_corrections"]
 
-CORRECTION_KINDS = ("air_gaps", "fasteners", "inverted_roof")
+
 MAX_CORRECTIONS = 50
 _WIDTH = 6
 

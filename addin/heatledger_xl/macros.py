@@ -34,7 +34,8 @@ from heatledger.errors import HeatLedgerError
 from heatledger.sheet.blocks_construction import add_construction_sheet
 from heatledger.sheet.plan import WorkbookPlan, safe_sheet_name
 
-from .ranges import LIBRARY, build_construction, heat_flow_value, layer_rows, number, text
+from .cells import heat_flow_value, number, text
+from .ranges import LIBRARY, build_construction, layer_rows
 from .render_xlwings import RenderReport, render_plan
 
 __all__ = ["construction_plan", "write_construction_sheet", "HL_CALC_SHEET",

@@ -1,4 +1,5 @@
-"""Spreadsheet cell values and layer-table ranges turned into engine inputs.
+"""Layer-table ranges of the spreadsheet functions turned into engine inputs (the single
+cell values are read by :mod:`heatledger_xl.cells`).
 
 Everything here is plain Python: no spreadsheet library is imported, so the parser serves
 desktop Excel (classic xlwings), Excel on the web and macOS (the in-browser runtime) and
@@ -56,10 +57,7 @@ Further rules:
 
 from __future__ import annotations
 
-import datetime as _dt
-import math
 from functools import lru_cache
-from numbers import Real
 
 from heatledger._validate import LIMITS
 from heatledger.airlayers import MAX_AIR_LAYER_THICKNESS
@@ -68,18 +66,13 @@ from heatledger.constructions import AirLayer, BridgedLayer, Construction, Layer
 from heatledger.errors import HeatLedgerError
 from heatledger.materials import Material, default_library
 
+from .cells import ERROR_VALUES, REQUIRED, describe, is_blank, number, row_is_blank, text
+from .cells import unwrap_single as _unwrap_single
+
 __all__ = [
     "LAYER_COLUMNS",
     "MAX_LAYERS",
     "LIBRARY",
-    "ERROR_VALUES",
-    "Required",
-    "REQUIRED",
-    "number",
-    "integer",
-    "text",
-    "flag",
-    "heat_flow_value",
     "layer_rows",
     "build_construction",
     "check_blank_below",
@@ -109,257 +102,12 @@ MIN_THICKNESS_MM, MAX_THICKNESS_MM = _bounds("thickness_mm")
 MIN_CONDUCTIVITY, MAX_CONDUCTIVITY = _bounds("conductivity")
 #: Largest resistance of one layer, declared or thickness/conductivity. [m2 K/W]
 MAX_LAYER_RESISTANCE = _bounds("resistance")[1]
-#: Spreadsheet error values as they arrive as text (xlwings ``err_to_str``).
-ERROR_VALUES = frozenset({"#N/A", "#VALUE!", "#REF!", "#DIV/0!", "#NUM!", "#NAME?",
-                          "#NULL!", "#SPILL!", "#CALC!", "#GETTING_DATA", "#FIELD!",
-                          "#BLOCKED!", "#CONNECT!", "#BUSY!", "#UNKNOWN!", "#PYTHON!"})
 #: The generic material library, read once when the add-in loads (package data through
 #: importlib.resources, so it also loads in an in-browser Python).
 LIBRARY = default_library()
 
-_HEAT_FLOWS = ("up", "horizontal", "down")
-_ZERO_ONE = frozenset((0, 1))
 _PADDING = tuple((None,) * (len(LAYER_COLUMNS) - n) for n in range(len(LAYER_COLUMNS)))
-_BLANK_TEXT = ""
-
-
-class Required:
-    """Marker for an argument that has no default."""
-
-    __slots__ = ()
-
-    def __repr__(self) -> str:
-        return "REQUIRED"
-
-
-#: The marker; kept when the module is reloaded, so functions defined before and after a
-#: reload (classic xlwings reloads the function module after an upgrade) agree on it.
-REQUIRED = globals().get("REQUIRED") or Required()
-
-
-# --------------------------------------------------------------------------- cell values
-def _describe(value: object) -> str:
-    if isinstance(value, bool):
-        return "TRUE" if value else "FALSE"
-    if isinstance(value, (_dt.date, _dt.datetime, _dt.time)):
-        return f"a date ({value.isoformat()})"
-    if isinstance(value, str):
-        short = value if len(value) <= 40 else value[:37] + "..."
-        return repr(short)
-    if isinstance(value, Real):
-        try:
-            return f"{float(value):g}"
-        except OverflowError:
-            return "a number too large for a spreadsheet"
-    if isinstance(value, (list, tuple)):
-        return "a range"
-    return f"a {type(value).__name__}"
-
-
-def _is_blank(value: object) -> bool:
-    if value is None:
-        return True
-    if isinstance(value, str):
-        return value.strip() == _BLANK_TEXT
-    return False
-
-
-def _row_is_blank(row) -> bool:
-    for c in row:
-        if c is not None and (type(c) is not str or c.strip()):
-            return False
-    return True
-
-
-def _unwrap_single(name: str, value: object) -> object:
-    """A 1x1 range (``[[x]]`` or ``[x]``) is its cell; a larger range is rejected."""
-    while isinstance(value, (list, tuple)):
-        if len(value) == 0:
-            return None
-        if len(value) != 1:
-            raise HeatLedgerError(f"{name} must be a single cell; got a range of "
-                                  f"{len(value)} cells")
-        value = value[0]
-    return value
-
-
-def number(name: str, value: object, default: object = REQUIRED, *, low: float | None = None,
-           high: float | None = None, low_inclusive: bool = False,
-           unit: str = "") -> float:
-    """A finite number from a cell, with optional bounds.
-
-    Parameters
-    ----------
-    name : str
-        Argument name used in messages. [-]
-    value : object
-        The cell value (number, numeric text, blank). [-]
-    default : object
-        Returned for a blank cell; :data:`REQUIRED` makes a blank an error. [-]
-    low, high : float, optional
-        Bounds; ``low`` is exclusive unless ``low_inclusive``; ``high`` is inclusive. [-]
-    low_inclusive : bool
-        Accept ``value == low``. [-]
-    unit : str
-        Unit shown in messages. [-]
-
-    Returns
-    -------
-    float
-    """
-    kind = type(value)
-    if kind is float or kind is int:  # the common case: a number cell (fast path)
-        out = float(value) if kind is float or -2**53 < value < 2**53 else _number_slow(
-            name, value, unit)
-        return _bounded(name, value, out, low, high, low_inclusive, unit)
-    if value is None:
-        if default is REQUIRED:
-            raise HeatLedgerError(f"{name} is blank; give a number{_in(unit)}")
-        return default  # type: ignore[return-value]
-    value = _unwrap_single(name, value)
-    if _is_blank(value):
-        if default is REQUIRED:
-            raise HeatLedgerError(f"{name} is blank; give a number{_in(unit)}")
-        return default  # type: ignore[return-value]
-    return _bounded(name, value, _number_slow(name, value, unit), low, high, low_inclusive,
-                    unit)
-
-
-def _number_slow(name: str, value: object, unit: str) -> float:
-    if isinstance(value, bool) or not isinstance(value, (Real, str)):
-        raise HeatLedgerError(f"{name} must be a number{_in(unit)}; got {_describe(value)}")
-    if isinstance(value, str):
-        stripped = value.strip()
-        if stripped.upper() in ERROR_VALUES:
-            raise HeatLedgerError(f"{name} holds the error {stripped.upper()}; "
-                                  f"give a number{_in(unit)}")
-        try:
-            out = float(stripped)
-        except ValueError:
-            raise HeatLedgerError(f"{name} must be a number{_in(unit)}; got "
-                                  f"{_describe(value)}") from None
-    else:
-        try:
-            out = float(value)
-        except (OverflowError, ValueError):
-            raise HeatLedgerError(f"{name} must be a finite number; got "
-                                  f"{_describe(value)}") from None
-    return out
-
-
-def _bounded(name: str, value: object, out: float, low, high, low_inclusive: bool,
-             unit: str) -> float:
-    if not math.isfinite(out):
-        raise HeatLedgerError(f"{name} must be a finite number; got {_describe(value)}")
-    if low is not None:
-        if out < low or (out == low and not low_inclusive):
-            rule = "at least" if low_inclusive else "greater than"
-            raise HeatLedgerError(f"{name} must be {rule} {low:g}{_u(unit)}; got {out:g}")
-    if high is not None and out > high:
-        raise HeatLedgerError(f"{name} must be at most {high:g}{_u(unit)}; got {out:g}")
-    return out
-
-
-def integer(name: str, value: object, default: object = REQUIRED, *, low: int = 1,
-            high: int | None = None) -> int:
-    """A whole number from a cell (``3`` or ``3.0``), with bounds ``low <= n <= high``.
-
-    Parameters
-    ----------
-    name : str
-        Argument name used in messages. [-]
-    value : object
-        The cell value. [-]
-    default : object
-        Returned for a blank cell; :data:`REQUIRED` makes a blank an error. [-]
-    low, high : int
-        Inclusive bounds. [-]
-    """
-    out = number(name, value, default)
-    if out is default and default is not REQUIRED:
-        return default  # type: ignore[return-value]
-    if out != math.floor(out):
-        raise HeatLedgerError(f"{name} must be a whole number; got {out:g}")
-    n = int(out)
-    if n < low or (high is not None and n > high):
-        span = f"{low} to {high}" if high is not None else f"{low} or more"
-        raise HeatLedgerError(f"{name} must be {span}; got {n}")
-    return n
-
-
-def text(name: str, value: object, default: object = REQUIRED) -> str:
-    """Text from a cell (numbers are written as text, ``12`` -> ``"12"``).
-
-    Parameters
-    ----------
-    name : str
-        Argument name used in messages. [-]
-    value : object
-        The cell value. [-]
-    default : object
-        Returned for a blank cell; :data:`REQUIRED` makes a blank an error. [-]
-    """
-    if type(value) is str:  # the common case (fast path)
-        stripped = value.strip()
-        if stripped and stripped[0] != "#":
-            return stripped
-    value = _unwrap_single(name, value)
-    if _is_blank(value):
-        if default is REQUIRED:
-            raise HeatLedgerError(f"{name} is blank; give a text")
-        return default  # type: ignore[return-value]
-    if isinstance(value, str):
-        stripped = value.strip()
-        if stripped.upper() in ERROR_VALUES:
-            raise HeatLedgerError(f"{name} holds the error {stripped.upper()}; give a text")
-        return stripped
-    if isinstance(value, bool) or not isinstance(value, Real):
-        raise HeatLedgerError(f"{name} must be a text; got {_describe(value)}")
-    out = _float_or_nan(value)
-    if not math.isfinite(out):
-        raise HeatLedgerError(f"{name} must be a text; got {_describe(value)}")
-    return f"{out:g}"
-
-
-def flag(name: str, value: object, default: bool = False) -> bool:
-    """TRUE/FALSE from a cell (also 1/0 and the texts TRUE/FALSE); blank -> ``default``.
-
-    Parameters
-    ----------
-    name : str
-        Argument name used in messages. [-]
-    value : object
-        The cell value. [-]
-    default : bool
-        Value of a blank cell. [-]
-    """
-    value = _unwrap_single(name, value)
-    if _is_blank(value):
-        return default
-    if isinstance(value, bool):
-        return value
-    if isinstance(value, Real) and not isinstance(value, bool):
-        if _float_or_nan(value) in (0.0, 1.0):
-            return bool(_float_or_nan(value))
-    if isinstance(value, str) and value.strip().upper() in ("TRUE", "FALSE"):
-        return value.strip().upper() == "TRUE"
-    raise HeatLedgerError(f"{name} must be TRUE or FALSE; got {_describe(value)}")
-
-
-def heat_flow_value(value: object) -> str:
-    """The heat-flow direction from a cell; blank -> ``"horizontal"``.
-
-    Parameters
-    ----------
-    value : object
-        The cell value. [-]
-    """
-    raw = text("heat_flow", value, "horizontal")
-    out = raw.lower()
-    if out not in _HEAT_FLOWS:
-        raise HeatLedgerError(f"heat_flow must be one of 'up', 'horizontal', 'down'; "
-                              f"got {_describe(raw)}")
-    return out
+_ZERO_ONE = frozenset((0, 1))
 
 
 # --------------------------------------------------------------------------- layer tables
@@ -387,7 +135,7 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
     """
     if not isinstance(cells, (list, tuple)):
         raise HeatLedgerError(f"{name} must be a range of 2 to 6 columns (material, "
-                              f"thickness_mm, ...); got {_describe(cells)}")
+                              f"thickness_mm, ...); got {describe(cells)}")
     if cells and not isinstance(cells[0], (list, tuple)) and not any(
             isinstance(r, (list, tuple)) for r in cells):
         cells = [cells]  # a single row given as a 1-D list
@@ -402,13 +150,13 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
         n = len(row)
         first = row[0] if n else None
         # a row whose first cell holds a name is filled (the common case, checked first)
-        if not (type(first) is str and first and not first.isspace()) and _row_is_blank(row):
+        if not (type(first) is str and first and not first.isspace()) and row_is_blank(row):
             check_blank_below(name, cells, i)
             break
         if n > width:
             width = n
         if n >= n_cols:
-            if n > n_cols and any(not _is_blank(c) for c in row[n_cols:]):
+            if n > n_cols and any(not is_blank(c) for c in row[n_cols:]):
                 raise HeatLedgerError(
                     f"{name} has {n} columns; a layer table has 2 to 6 (material, "
                     "thickness_mm, conductivity, resistance, bridging_fraction, "
@@ -457,7 +205,7 @@ def check_blank_below(name: str, cells, blank_row: int) -> None:
         row = cells[j]
         if not isinstance(row, (list, tuple)):
             row = (row,)
-        if not _row_is_blank(row):
+        if not row_is_blank(row):
             raise HeatLedgerError(
                 f"{name} row {blank_row} is blank but row {j + 1} below it is filled; a table "
                 f"has no blank rows inside it: delete row {blank_row}, or end the range above "
@@ -543,11 +291,11 @@ def _no_booleans(where: str, cells: tuple, columns: tuple) -> None:
     for column, cell in zip(columns, cells, strict=False):
         if type(cell) is bool:
             raise HeatLedgerError(f"{where} {column} must be a number or a text; got "
-                                  f"{_describe(cell)}")
+                                  f"{describe(cell)}")
 
 
 def _is_header(cells: tuple) -> bool:
-    filled = [c for c in cells if not _is_blank(c)]
+    filled = [c for c in cells if not is_blank(c)]
     if not filled or not all(isinstance(c, str) for c in filled):
         return False
     thick = cells[1]
@@ -596,7 +344,7 @@ def _layer(name: str, row: int, cells: tuple):
     if frac is not None and frac >= 1.0:
         raise HeatLedgerError(f"{where} bridging_fraction must be below 1; got {frac:g} "
                               "(give the fraction of studs or battens, e.g. 0.12)")
-    has_bcond = c_bcond is not None and not _is_blank(
+    has_bcond = c_bcond is not None and not is_blank(
         _unwrap_single(f"{where} bridging_conductivity", c_bcond))
     try:
         low = label.lower()
@@ -688,16 +436,3 @@ def _air_layer(where: str, label: str, thickness: float) -> AirLayer:
                           "'air:well' or 'air:slightly:<vent area mm2>'")
 
 
-def _float_or_nan(value: Real) -> float:
-    try:
-        return float(value)
-    except (OverflowError, ValueError):
-        return math.nan
-
-
-def _u(unit: str) -> str:
-    return f" {unit}" if unit else ""
-
-
-def _in(unit: str) -> str:
-    return f" in {unit}" if unit else ""

@@ -47,23 +47,14 @@ if "HL_UVALUE" in globals():
     from heatledger.families import FAMILIES as _FAMILIES
 
     _family_modules = tuple(f.hooks["functions"].rpartition(".")[2] for f in _FAMILIES)
-    for _module in ("cache", "ranges", "correction_ranges") + _family_modules:
+    for _module in ("cache", "cells", "ranges", "correction_ranges") + _family_modules:
         if _module != __name__.rpartition(".")[2] and f"{__package__}.{_module}" in sys.modules:
             importlib.reload(sys.modules[f"{__package__}.{_module}"])
 
 from .cache import MISSING, BoundedCache  # noqa: E402
+from .cells import flag, heat_flow_value, integer, number, text  # noqa: E402
 from .correction_ranges import build_corrections, correction_rows  # noqa: E402
-from .ranges import (  # noqa: E402
-    LIBRARY,
-    MIN_THICKNESS_MM,
-    build_construction,
-    flag,
-    heat_flow_value,
-    integer,
-    layer_rows,
-    number,
-    text,
-)
+from .ranges import LIBRARY, MIN_THICKNESS_MM, build_construction, layer_rows  # noqa: E402
 from .registry import udf  # noqa: E402
 
 __all__ = [

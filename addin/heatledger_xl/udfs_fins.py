@@ -45,7 +45,8 @@ from heatledger.errors import HeatLedgerError
 from heatledger.fins import AnnularFin, StraightFin
 from heatledger.fins.project_io import ARRAY_KEYS, FV_KEYS, fins_from_dict
 
-from .ranges import ERROR_VALUES, LIBRARY, flag, integer, number, text
+from .cells import ERROR_VALUES, flag, integer, number, text
+from .ranges import LIBRARY
 from .registry import udf
 
 __all__ = [

@@ -78,7 +78,8 @@ from heatledger.heatloss import (
 )
 from heatledger.windows import window_u
 
-from .ranges import ERROR_VALUES, check_blank_below, flag, number, text
+from .cells import ERROR_VALUES, flag, number, text
+from .ranges import check_blank_below
 from .registry import udf
 
 __all__ = [

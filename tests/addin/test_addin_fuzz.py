@@ -25,7 +25,8 @@ from heatledger.constructions import (
     required_thickness,
 )
 from heatledger_xl import udfs
-from heatledger_xl.ranges import ERROR_VALUES, LIBRARY
+from heatledger_xl.cells import ERROR_VALUES
+from heatledger_xl.ranges import LIBRARY
 from heatledger_xl.registry import REGISTRY
 from tests.addin._addin_helpers import call_with_drawn
 from tests.addin._addin_helpers import check_result as check_answer

@@ -17,7 +17,7 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from heatledger_xl import udfs
-from heatledger_xl.ranges import ERROR_VALUES
+from heatledger_xl.cells import ERROR_VALUES
 from heatledger_xl.registry import MAX_DESCRIPTION, PREFIX, REGISTRY
 from tests.addin._addin_helpers import call_with_drawn, check_bad_optional_named, check_result
 
