@@ -193,10 +193,10 @@ def test_fin_temperature_at_absolute_zero_is_refused_in_file_and_engine():
     from heatledger.fins import StraightFin
 
     fin = {"name": "F", "kind": "straight", "conductivity": 200.0, "h": 10.0,
-           "base_temperature": ABSOLUTE_ZERO_C, "ambient": 20.0, "length_mm": 40.0,
+           "temp_base": ABSOLUTE_ZERO_C, "temp_fluid": 20.0, "length_mm": 40.0,
            "thickness_mm": 2.0}
     problems = problems_of({"fins": [fin]})
-    assert ("fins[1].base_temperature" in [w for w, _ in problems])
+    assert ("fins[1].temp_base" in [w for w, _ in problems])
     with pytest.raises(HeatLedgerError, match="absolute zero"):
         StraightFin(0.04, 200.0, 10.0, thickness=0.002).evaluate(ABSOLUTE_ZERO_C, 20.0)
     with pytest.raises(HeatLedgerError, match="nodes must be at most"):
@@ -313,7 +313,7 @@ def test_a_bad_material_is_reported_once_not_at_every_reference():
     data = wall(material="my board", name="board")
     data["materials"] = [{"name": "my board", "conductivity": -0.03}]
     data["fins"] = [{"name": "F", "kind": "straight", "material": "my board", "h": 10.0,
-                     "base_temperature": 60.0, "ambient": 20.0, "length_mm": 40.0,
+                     "temp_base": 60.0, "temp_fluid": 20.0, "length_mm": 40.0,
                      "thickness_mm": 2.0}]
     problems = problems_of(data)
     assert [w for w, _ in problems] == ["materials[1].conductivity"]
@@ -401,7 +401,7 @@ def _bad_projects():
         change(data)
         yield data
     fin = {"name": "F", "kind": "straight", "conductivity": 200.0, "h": 10.0,
-           "base_temperature": 60.0, "ambient": 20.0, "length_mm": 40.0, "thickness_mm": 2.0}
+           "temp_base": 60.0, "temp_fluid": 20.0, "length_mm": 40.0, "thickness_mm": 2.0}
     for key, value in (("kind", None), ("tip", None), ("profile", 3), ("corrected_length", 1),
                        ("notes", [1]), ("fv", {"cells": None}), ("array", {"count": None}),
                        ("tip", "temperature")):

@@ -31,7 +31,7 @@ def test_total_resistance_is_the_same_for_every_order_of_the_layers():
 
 
 def _room(elements) -> Room:
-    return Room(name="Invented room", internal_temperature=20.0, volume=40.0,
+    return Room(name="Invented room", temp_inside=20.0, volume=40.0,
                 elements=[Element(f"element {i}", a, u) for i, (a, u) in elements],
                 ventilation=Ventilation("air_change", ventilation=0.5))
 

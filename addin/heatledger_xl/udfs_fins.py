@@ -11,14 +11,14 @@ Three groups, lengths in millimetres as on a data sheet, everything else SI:
   ``HL_FIN_HEATRATE``, ``HL_FIN_EFFICIENCY``, ``HL_FIN_EFFECTIVENESS``,
   ``HL_FIN_RESISTANCE``, ``HL_FIN_TIPTEMP``, ``HL_FIN_TEMPS`` (spill), ``HL_FIN_RESULTS``
   (spill with warnings and the finite-volume cross-check). Arguments in one order:
-  ``length_mm, size_mm, conductivity, h, base_temperature, ambient`` then the optional
+  ``length_mm, size_mm, conductivity, h, temp_base, temp_fluid`` then the optional
   ``shape`` ("plate"/"pin"), ``tip`` ("convective", "adiabatic", "temperature",
   "infinite", or "corrected" = convective tip by the corrected length), ``width_mm``
   (plates; blank = 1000 mm, results per metre of base), ``tip_temperature``, ``profile``.
 - **Annular fins** on a tube: ``HL_ANNULAR_HEATRATE``, ``HL_ANNULAR_EFFICIENCY``,
   ``HL_ANNULAR_EFFECTIVENESS``, ``HL_ANNULAR_TIPTEMP``, ``HL_ANNULAR_TEMPS`` (spill), with
-  ``tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h, base_temperature,
-  ambient`` and the optional ``tip`` ("adiabatic", "convective", "corrected").
+  ``tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h, temp_base,
+  temp_fluid`` and the optional ``tip`` ("adiabatic", "convective", "corrected").
 - **Fin sets** described by a two-column range of keys and values, the keys of a
   ``[[fins]]`` table of the project file (``kind``, ``material`` or ``conductivity``,
   ``length_mm``, ``thickness_mm``, ... and, flat, the array keys ``count``, ``base_area``,
@@ -90,8 +90,8 @@ _D = {
                "profiled fins). [mm]",
     "conductivity": "Thermal conductivity of the fin material. [W/(m K)]",
     "h": "Convection coefficient on the fin surface. [W/(m2 K)]",
-    "base_temperature": "Temperature of the fin base. [degC]",
-    "ambient": "Temperature of the surrounding fluid (air). [degC]",
+    "temp_base": "Temperature of the fin base. [degC]",
+    "temp_fluid": "Temperature of the surrounding fluid (air). [degC]",
     "shape": "\"plate\" (default) or \"pin\". [-]",
     "tip": ("Tip condition: \"convective\" (default), \"adiabatic\", \"temperature\", "
             "\"infinite\" or \"corrected\" (convective tip by the corrected length). [-]"),
@@ -109,70 +109,70 @@ _D = {
     "annular_tip": ("Rim condition: \"adiabatic\" (default), \"convective\" or "
                     "\"corrected\" (adiabatic on r2 + t/2). [-]"),
     "spec": ("Two-column range of keys and values as in a [[fins]] project table: kind, "
-             "material or conductivity, h, base_temperature, ambient, length_mm, "
+             "material or conductivity, h, temp_base, temp_fluid, length_mm, "
              "thickness_mm, ...; array and FV keys flat. [mm, SI]"),
     "quantity": "Name of the result, as in the first column of HL_FINSET; default "
                 "heat_rate. [-]",
 }
 _STRAIGHT = {k: _D[k] for k in ("length_mm", "size_mm", "conductivity", "h",
-                                "base_temperature", "ambient", "shape", "tip", "width_mm",
+                                "temp_base", "temp_fluid", "shape", "tip", "width_mm",
                                 "tip_temperature", "profile")}
 _ANNULAR = {k: _D[k] for k in ("tube_diameter_mm", "fin_diameter_mm", "thickness_mm",
-                               "conductivity", "h", "base_temperature", "ambient")}
+                               "conductivity", "h", "temp_base", "temp_fluid")}
 _ANNULAR["tip"] = _D["annular_tip"]
 
 
 # --------------------------------------------------------------------------- straight fins
 @udf(FAMILY, returns="heat rate [W]", args=_STRAIGHT)
-def HL_FIN_HEATRATE(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape=None,
+def HL_FIN_HEATRATE(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
                     tip=None, width_mm=None, tip_temperature=None, profile=None):
     """Heat rate a straight fin sheds from its base (Incropera & DeWitt Table 3.4 for
     uniform fins, Table 3.5 for profiled fins); positive when the base is warmer. [W]"""
-    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+    return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
                             shape, tip, width_mm, tip_temperature, profile).heat_rate
 
 
 @udf(FAMILY, returns="fin efficiency [-]", args=_STRAIGHT)
-def HL_FIN_EFFICIENCY(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+def HL_FIN_EFFICIENCY(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
                       shape=None, tip=None, width_mm=None, tip_temperature=None, profile=None):
     """Fin efficiency eta_f = q_f/(h A_f theta_b) of a straight fin (Incropera & DeWitt
     eq. 3.86, Tables 3.4 and 3.5). [-]"""
-    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+    return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
                             shape, tip, width_mm, tip_temperature, profile).efficiency
 
 
 @udf(FAMILY, returns="fin effectiveness [-]", args=_STRAIGHT)
-def HL_FIN_EFFECTIVENESS(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+def HL_FIN_EFFECTIVENESS(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
                          shape=None, tip=None, width_mm=None, tip_temperature=None,
                          profile=None):
     """Fin effectiveness q_f/(h A_c theta_b); below 1 the fin reduces the heat rate of the
     base it covers (see HL_FIN_RESULTS for the warning). [-]"""
-    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+    return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
                             shape, tip, width_mm, tip_temperature, profile).effectiveness
 
 
 @udf(FAMILY, returns="fin thermal resistance [K/W]", args=_STRAIGHT)
-def HL_FIN_RESISTANCE(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+def HL_FIN_RESISTANCE(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
                       shape=None, tip=None, width_mm=None, tip_temperature=None, profile=None):
     """Fin thermal resistance R_t,f = theta_b/q_f of a straight fin (Incropera & DeWitt
     eq. 3.83). [K/W]"""
-    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
-                            shape, tip, width_mm, tip_temperature, profile).resistance
+    return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
+                            shape, tip, width_mm, tip_temperature, profile).fin_resistance
 
 
 @udf(FAMILY, returns="tip temperature [degC]", args=_STRAIGHT)
-def HL_FIN_TIPTEMP(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape=None,
+def HL_FIN_TIPTEMP(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
                    tip=None, width_mm=None, tip_temperature=None, profile=None):
     """Temperature at the tip of a straight fin from the closed-form temperature
     distribution (Incropera & DeWitt Table 3.4). [degC]"""
-    return _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient,
+    return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
                             shape, tip, width_mm, tip_temperature, profile).tip_temperature
 
 
 @udf(FAMILY, returns="spill: x [mm], temperature [degC]",
      args={**_STRAIGHT, "points": _D["points"], "nodes": _D["nodes"], "header": _D["header"]},
      spills=True)
-def HL_FIN_TEMPS(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape=None,
+def HL_FIN_TEMPS(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
                  tip=None, width_mm=None, tip_temperature=None, profile=None, points=None,
                  nodes=None, header=None):
     """Temperature along a straight fin as rows of distance from the base and temperature:
@@ -180,8 +180,8 @@ def HL_FIN_TEMPS(length_mm, size_mm, conductivity, h, base_temperature, ambient,
     [mm, degC]"""
     opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
     n_pts, n_fv, head = _table_options(points, nodes, header)
-    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, base_temperature,
-                                    ambient, opts)
+    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, temp_base,
+                                    temp_fluid, opts)
     temps = _guard(lambda: fin.temperatures(t_b, t_inf, nodes=n_fv, points=n_pts))
     rows = [[float(x) * 1000.0, float(t)] for x, t in zip(temps.x, temps.temperature,
                                                             strict=True)]
@@ -190,7 +190,7 @@ def HL_FIN_TEMPS(length_mm, size_mm, conductivity, h, base_temperature, ambient,
 
 @udf(FAMILY, returns="spill: quantity, value, unit",
      args={**_STRAIGHT, "nodes": _D["nodes"], "header": _D["header"]}, spills=True)
-def HL_FIN_RESULTS(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape=None,
+def HL_FIN_RESULTS(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
                    tip=None, width_mm=None, tip_temperature=None, profile=None, nodes=None,
                    header=None):
     """Every result of a straight fin: heat rate, efficiency, effectiveness, resistance,
@@ -198,59 +198,59 @@ def HL_FIN_RESULTS(length_mm, size_mm, conductivity, h, base_temperature, ambien
     estimate, and the warnings. [W, -, K/W, degC]"""
     opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
     _, n_fv, head = _table_options(None, nodes, header)
-    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, base_temperature,
-                                    ambient, opts)
+    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, temp_base,
+                                    temp_fluid, opts)
     return _with_header(_result_rows(fin, t_b, t_inf, n_fv or 200), _TITLES, head)
 
 
 # --------------------------------------------------------------------------- annular fins
 @udf(FAMILY, returns="heat rate [W]", args=_ANNULAR)
 def HL_ANNULAR_HEATRATE(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                        base_temperature, ambient, tip=None):
+                        temp_base, temp_fluid, tip=None):
     """Heat rate of one annular fin of rectangular profile on a tube (Bessel-function
     solution, Incropera & DeWitt section 3.6.3). [W]"""
     return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                           base_temperature, ambient, tip).heat_rate
+                           temp_base, temp_fluid, tip).heat_rate
 
 
 @udf(FAMILY, returns="fin efficiency [-]", args=_ANNULAR)
 def HL_ANNULAR_EFFICIENCY(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                          base_temperature, ambient, tip=None):
+                          temp_base, temp_fluid, tip=None):
     """Efficiency of an annular fin of rectangular profile (adiabatic rim: Kern eq. 16.58;
     convective rim: exact Bessel solution). [-]"""
     return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                           base_temperature, ambient, tip).efficiency
+                           temp_base, temp_fluid, tip).efficiency
 
 
 @udf(FAMILY, returns="fin effectiveness [-]", args=_ANNULAR)
 def HL_ANNULAR_EFFECTIVENESS(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                             base_temperature, ambient, tip=None):
+                             temp_base, temp_fluid, tip=None):
     """Effectiveness of an annular fin, q_f/(h 2 pi r1 t theta_b); below 1 the fin does not
     help. [-]"""
     return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                           base_temperature, ambient, tip).effectiveness
+                           temp_base, temp_fluid, tip).effectiveness
 
 
 @udf(FAMILY, returns="rim temperature [degC]", args=_ANNULAR)
 def HL_ANNULAR_TIPTEMP(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                       base_temperature, ambient, tip=None):
+                       temp_base, temp_fluid, tip=None):
     """Temperature at the outer radius (rim) of an annular fin from the Bessel-function
     temperature distribution. [degC]"""
     return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                           base_temperature, ambient, tip).tip_temperature
+                           temp_base, temp_fluid, tip).tip_temperature
 
 
 @udf(FAMILY, returns="spill: radius [mm], temperature [degC]",
      args={**_ANNULAR, "points": _D["points"], "nodes": _D["nodes"], "header": _D["header"]},
      spills=True)
 def HL_ANNULAR_TEMPS(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                     base_temperature, ambient, tip=None, points=None, nodes=None, header=None):
+                     temp_base, temp_fluid, tip=None, points=None, nodes=None, header=None):
     """Temperature across an annular fin as rows of radius and temperature: the Bessel
     solution, or finite volumes when nodes is given. [mm, degC]"""
     mode = _annular_tip(tip)
     n_pts, n_fv, head = _table_options(points, nodes, header)
     fin, t_b, t_inf = _annular_fin(tube_diameter_mm, fin_diameter_mm, thickness_mm,
-                                   conductivity, h, base_temperature, ambient, mode)
+                                   conductivity, h, temp_base, temp_fluid, mode)
     temps = _guard(lambda: fin.temperatures(t_b, t_inf, nodes=n_fv, points=n_pts))
     rows = [[float(x) * 1000.0, float(t)] for x, t in zip(temps.x, temps.temperature,
                                                             strict=True)]
@@ -333,22 +333,22 @@ def _straight_options(shape, tip, width_mm, tip_temperature, profile) -> dict:
             "profile": prof}
 
 
-def _common(conductivity, h, base_temperature, ambient):
+def _common(conductivity, h, temp_base, temp_fluid):
     k = number("conductivity", conductivity, low=0.0, high=MAX_CONDUCTIVITY, unit="W/(m K)")
     hh = number("h", h, low=0.0, high=MAX_H, unit="W/(m2 K)")
-    t_b = number("base_temperature", base_temperature, low=_ABS_ZERO, high=_MAX_TEMP,
+    t_b = number("temp_base", temp_base, low=_ABS_ZERO, high=_MAX_TEMP,
                  low_inclusive=True, unit="degC")
-    t_inf = number("ambient", ambient, low=_ABS_ZERO, high=_MAX_TEMP, low_inclusive=True,
+    t_inf = number("temp_fluid", temp_fluid, low=_ABS_ZERO, high=_MAX_TEMP, low_inclusive=True,
                    unit="degC")
     return k, hh, t_b, t_inf
 
 
-def _straight_fin(length_mm, size_mm, conductivity, h, base_temperature, ambient, opts):
+def _straight_fin(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, opts):
     length = number("length_mm", length_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True,
                     unit="mm") / 1000.0
     size = number("size_mm", size_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True,
                   unit="mm") / 1000.0
-    k, hh, t_b, t_inf = _common(conductivity, h, base_temperature, ambient)
+    k, hh, t_b, t_inf = _common(conductivity, h, temp_base, temp_fluid)
     if opts["profile"] != "rectangular" and size / length < MIN_PROFILE_RATIO:
         raise HeatLedgerError(f"size_mm/length_mm must be at least {MIN_PROFILE_RATIO:g} for "
                               "a profiled fin")
@@ -364,11 +364,11 @@ def _straight_fin(length_mm, size_mm, conductivity, h, base_temperature, ambient
     return fin, t_b, t_inf
 
 
-def _straight_result(length_mm, size_mm, conductivity, h, base_temperature, ambient, shape,
+def _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape,
                      tip, width_mm, tip_temperature, profile):
     opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
-    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, base_temperature,
-                                    ambient, opts)
+    fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, temp_base,
+                                    temp_fluid, opts)
     return _evaluate(fin, t_b, t_inf)
 
 
@@ -380,7 +380,7 @@ def _annular_tip(tip) -> str:
     return mode
 
 
-def _annular_fin(d1_mm, d2_mm, t_mm, conductivity, h, base_temperature, ambient, mode):
+def _annular_fin(d1_mm, d2_mm, t_mm, conductivity, h, temp_base, temp_fluid, mode):
     d1 = number("tube_diameter_mm", d1_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True,
                 unit="mm")
     d2 = number("fin_diameter_mm", d2_mm, low=MIN_MM, high=MAX_MM, low_inclusive=True,
@@ -389,25 +389,25 @@ def _annular_fin(d1_mm, d2_mm, t_mm, conductivity, h, base_temperature, ambient,
     if not d2 > d1 * (1.0 + 1e-9):
         raise HeatLedgerError(f"fin_diameter_mm must exceed tube_diameter_mm ({d1:g} mm); "
                               f"got {d2:g} mm")
-    k, hh, t_b, t_inf = _common(conductivity, h, base_temperature, ambient)
+    k, hh, t_b, t_inf = _common(conductivity, h, temp_base, temp_fluid)
     fin = _guard(lambda: AnnularFin(d1 / 2000.0, d2 / 2000.0, t / 1000.0, k, hh,
                                     tip="adiabatic" if mode == "adiabatic" else "convective",
                                     corrected_length=mode == "corrected"))
     return fin, t_b, t_inf
 
 
-def _annular_result(d1_mm, d2_mm, t_mm, conductivity, h, base_temperature, ambient, tip):
+def _annular_result(d1_mm, d2_mm, t_mm, conductivity, h, temp_base, temp_fluid, tip):
     mode = _annular_tip(tip)
-    fin, t_b, t_inf = _annular_fin(d1_mm, d2_mm, t_mm, conductivity, h, base_temperature,
-                                   ambient, mode)
+    fin, t_b, t_inf = _annular_fin(d1_mm, d2_mm, t_mm, conductivity, h, temp_base,
+                                   temp_fluid, mode)
     return _evaluate(fin, t_b, t_inf)
 
 
 def _evaluate(fin, t_b, t_inf):
     res = _guard(lambda: fin.evaluate(t_b, t_inf))
-    for name in ("heat_rate", "efficiency", "effectiveness", "resistance", "tip_temperature"):
+    for name in ("heat_rate", "efficiency", "effectiveness", "fin_resistance", "tip_temperature"):
         if not math.isfinite(getattr(res, name)):
-            raise HeatLedgerError(f"{name} is undefined when base_temperature equals ambient "
+            raise HeatLedgerError(f"{name} is undefined when temp_base equals temp_fluid "
                                   f"({t_b:g} degC) for this tip condition")
     return res
 
@@ -437,7 +437,7 @@ def _result_rows(fin, t_b, t_inf, cells):
     res = _evaluate(fin, t_b, t_inf)
     fv = _guard(lambda: fin.finite_volume(t_b, t_inf, nodes=cells))
     rows = [["heat_rate", res.heat_rate, "W"], ["efficiency", res.efficiency, "-"],
-            ["effectiveness", res.effectiveness, "-"], ["resistance", res.resistance, "K/W"],
+            ["effectiveness", res.effectiveness, "-"], ["resistance", res.fin_resistance, "K/W"],
             ["tip_temperature", res.tip_temperature, "degC"], ["m", res.m, "1/m"],
             ["fin_area", res.fin_area, "m2"],
             ["cross_section_area", res.cross_section_area, "m2"],
@@ -520,7 +520,7 @@ def _spec_row(spec):
         where[name] = i
     if filled == 0:
         raise HeatLedgerError("spec is empty: give key/value rows (kind, conductivity, h, "
-                              "base_temperature, ambient and the dimensions)")
+                              "temp_base, temp_fluid and the dimensions)")
     return row, where
 
 
@@ -572,7 +572,7 @@ def _finset_rows(entry):
 
 
 def _finset_rows_of(entry):
-    rows = _result_rows(entry.fin, entry.base_temperature, entry.ambient, entry.fv.cells)
+    rows = _result_rows(entry.fin, entry.temp_base, entry.temp_fluid, entry.fv.cells)
     warns = [r for r in rows if r[0] == "warning"]
     rows = [r for r in rows if r[0] != "warning"]
     if entry.fv.nonlinear:
@@ -585,7 +585,7 @@ def _finset_rows_of(entry):
         arr = _guard(entry.evaluate_array)
         rows += [["array_heat_rate", arr.heat_rate, "W"],
                  ["overall_efficiency", arr.overall_efficiency, "-"],
-                 ["array_resistance", arr.resistance, "K/W"],
+                 ["array_resistance", arr.fin_resistance, "K/W"],
                  ["total_area", arr.total_area, "m2"],
                  ["fin_heat_rate_in_array", arr.fin_heat_rate, "W"]]
         warns += [["warning", t, ""] for t in arr.warnings]

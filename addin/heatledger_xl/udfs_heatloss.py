@@ -30,7 +30,7 @@ col  heading (suggested)        rule
                                 (psi times length) or ``point`` (chi times count).
 2    quantity                   Area [m2], length [m] or count [-].
 3    transmittance              U [W/(m2 K)], psi [W/(m K)] or chi [W/K].
-4    temperature other side     [degC]; blank = outside air at ``temp_external``; the text
+4    temperature other side     [degC]; blank = outside air at ``temp_outside``; the text
                                 ``ground`` = the ground (EN 12831-1 factor f_g1 f_g2 G_w
                                 from ``annual_mean_external_temperature`` and
                                 ``groundwater``; U_equiv from ``HL_SLAB_U`` ...).
@@ -158,8 +158,8 @@ _D = {
                                          "rows marked \"ground\". [degC]"),
     "groundwater": ("\"deep\" (water table more than 1 m below the floor, G_w 1.00, default) "
                     "or \"shallow\" (G_w 1.15). [-]"),
-    "temp_room": "Design internal temperature of the room. [degC]",
-    "temp_external": "Design external temperature, below temp_room. [degC]",
+    "temp_inside": "Design internal temperature of the room. [degC]",
+    "temp_outside": "Design external temperature, below temp_inside. [degC]",
     "ventilation_coefficient": "Ventilation heat-loss coefficient H_V (HL_VENTILATION_H); "
                                "blank = 0. [W/K]",
     "reheat": "Heating-up allowance Phi_hu = f_RH A_floor; blank = 0. [W]",
@@ -293,46 +293,46 @@ def HL_VENTILATION_H(air_flow_m3_per_h, heat_recovery=None):
 
 
 # --------------------------------------------------------------------------- rooms
-_ROOM_ARGS = _args("elements", "temp_room", "temp_external",
+_ROOM_ARGS = _args("elements", "temp_inside", "temp_outside",
                    "annual_mean_external_temperature", "groundwater")
 
 
 @udf(FAMILY, returns="H_T [W/K]", args=_ROOM_ARGS, ranges=("elements",))
-def HL_ROOM_HT(elements, temp_room, temp_external, annual_mean_external_temperature=None,
+def HL_ROOM_HT(elements, temp_inside, temp_outside, annual_mean_external_temperature=None,
                groundwater=None):
     """Transmission heat-loss coefficient H_T = sum A (U + dU_TB) f + sum psi l f + sum chi f
     of a room's element range (EN 12831-1 style). [W/K]"""
     ground = _ground(annual_mean_external_temperature, groundwater)
-    room = _room(elements, temp_room, temp_external, 0.0, 0.0, ground)
-    return room.heat_load(room.design_external_temperature).transmission_coefficient
+    room = _room(elements, temp_inside, temp_outside, 0.0, 0.0, ground)
+    return room.heat_load(room.temp_outside).transmission_coefficient
 
 
 @udf(FAMILY, returns="design heat load [W]",
      args={**_ROOM_ARGS, **_args("ventilation_coefficient", "reheat")},
      ranges=("elements",))
-def HL_ROOM_LOAD(elements, temp_room, temp_external, annual_mean_external_temperature=None,
+def HL_ROOM_LOAD(elements, temp_inside, temp_outside, annual_mean_external_temperature=None,
                  groundwater=None, ventilation_coefficient=None, reheat=None):
-    """Design heat load of a room Phi_HL = (H_T + H_V)(temp_room - temp_external) + Phi_hu
+    """Design heat load of a room Phi_HL = (H_T + H_V)(temp_inside - temp_outside) + Phi_hu
     from its element range (EN 12831-1 style). [W]"""
     h_v, phi_hu = _ventilation_and_reheat(ventilation_coefficient, reheat)
     ground = _ground(annual_mean_external_temperature, groundwater)
-    room = _room(elements, temp_room, temp_external, h_v, phi_hu, ground)
-    return room.design_heat_load(room.design_external_temperature)
+    room = _room(elements, temp_inside, temp_outside, h_v, phi_hu, ground)
+    return room.design_heat_load(room.temp_outside)
 
 
 @udf(FAMILY, returns="spill: line, kind, H [W/K], heat flow [W], share [-]",
      args={**_ROOM_ARGS, **_args("ventilation_coefficient", "reheat", "header")},
      ranges=("elements",), spills=True)
-def HL_ROOM_SHARES(elements, temp_room, temp_external, annual_mean_external_temperature=None,
+def HL_ROOM_SHARES(elements, temp_inside, temp_outside, annual_mean_external_temperature=None,
                    groundwater=None, ventilation_coefficient=None, reheat=None, header=None):
     """Breakdown of a room's design heat load: one row per element row, then ventilation and
     heating-up, with H, heat flow and share of Phi_HL (EN 12831-1 style). [W/K, W, -]"""
     show_header = flag("header", header, False)
     h_v, phi_hu = _ventilation_and_reheat(ventilation_coefficient, reheat)
     ground = _ground(annual_mean_external_temperature, groundwater)
-    room = _room(elements, temp_room, temp_external, h_v, phi_hu, ground)
-    res = room.heat_load(room.design_external_temperature)
-    rows = [[ln.name, ln.kind, ln.coefficient, ln.heat_flow,
+    room = _room(elements, temp_inside, temp_outside, h_v, phi_hu, ground)
+    res = room.heat_load(room.temp_outside)
+    rows = [[ln.name, ln.kind, ln.coefficient, ln.heat_loss,
              ln.share if math.isfinite(ln.share) else None] for ln in res.lines]
     titles = ["line", "kind", "H [W/K]", "heat flow [W]", "share [-]"]
     return [titles] + rows if show_header else rows
@@ -430,18 +430,18 @@ def _ventilation_and_reheat(ventilation_coefficient, reheat):
     return h_v, phi_hu
 
 
-def _room(cells, temp_room, temp_external, h_v, phi_hu, ground):
-    ti = number("temp_room", temp_room, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
-    te = number("temp_external", temp_external, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
+def _room(cells, temp_inside, temp_outside, h_v, phi_hu, ground):
+    ti = number("temp_inside", temp_inside, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
+    te = number("temp_outside", temp_outside, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
     if not te < ti:
-        raise HeatLedgerError(f"temp_external {te:g} degC must be below temp_room {ti:g} degC "
+        raise HeatLedgerError(f"temp_outside {te:g} degC must be below temp_inside {ti:g} degC "
                               "for a design heat load")
     elements, bridges = _element_rows(cells, ground)
     vent = Ventilation("flow", ventilation=h_v / _VOLUMETRIC)
     try:
         return Room("room", ti, 1.0, elements, vent, thermal_bridges=bridges,
                     floor_area=1.0 if phi_hu > 0.0 else 0.0, reheat_factor=phi_hu,
-                    design_external_temperature=te)
+                    temp_outside=te)
     except HeatLedgerError as exc:
         raise HeatLedgerError(f"elements: {str(exc).replace(chr(39) + 'room' + chr(39), '')}"
                               ) from None

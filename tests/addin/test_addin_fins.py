@@ -169,7 +169,7 @@ def test_results_spill_carries_the_fv_check_and_the_warning():
 
 # Invented aluminium heat sink on a drive: 14 plate fins 40 x 2 x 120 mm on a 0.0216 m2 base.
 SINK = [["key", "value"], ["kind", "straight"], ["material", "aluminium alloy"], ["h", 12],
-        ["base_temperature", 70], ["ambient", 40], ["length_mm", 40], ["thickness_mm", 2],
+        ["temp_base", 70], ["temp_fluid", 40], ["length_mm", 40], ["thickness_mm", 2],
         ["width_mm", 120], ["count", 14], ["base_area", 0.0216], ["target_heat_rate", 60]]
 
 
@@ -216,7 +216,7 @@ def test_finset_problems_name_the_key_and_row():
                                 "parabolic"), "tip must be"),
     (lambda: uf.HL_ANNULAR_HEATRATE(50, 40, 1, 200, 25, 80, 20), "fin_diameter_mm must exceed"),
     (lambda: uf.HL_FIN_EFFICIENCY(50, 2, 200, 25, 20, 20, None, "temperature", None, 30),
-     "base_temperature equals ambient"),
+     "temp_base equals temp_fluid"),
 ])
 def test_bad_input_gives_one_line_naming_the_argument(call, fragment):
     out = call()
@@ -242,8 +242,8 @@ PLAUSIBLE = {
                                                                                 positive),
     "conductivity": st.floats(min_value=1e-3, max_value=1e4),
     "h": st.floats(min_value=1e-3, max_value=1e6),
-    "base_temperature": st.floats(min_value=-273.15, max_value=2000),
-    "ambient": st.floats(min_value=-273.15, max_value=2000),
+    "temp_base": st.floats(min_value=-273.15, max_value=2000),
+    "temp_fluid": st.floats(min_value=-273.15, max_value=2000),
     "tip_temperature": st.one_of(st.none(), st.floats(min_value=-273.15, max_value=2000)),
     "shape": st.sampled_from([None, "plate", "pin"]),
     "tip": st.sampled_from([None, "convective", "adiabatic", "temperature", "infinite",
@@ -259,8 +259,8 @@ PLAUSIBLE = {
                                st.one_of(st.floats(min_value=-10, max_value=500),
                                          st.sampled_from(["straight", "annular", "steel",
                                                           "adiabatic"]))).map(list),
-                     max_size=10).map(lambda rows: [["base_temperature", 80],
-                                                    ["ambient", 20]] + rows),
+                     max_size=10).map(lambda rows: [["temp_base", 80],
+                                                    ["temp_fluid", 20]] + rows),
 }
 
 
@@ -291,7 +291,7 @@ def test_a_bad_optional_argument_is_named_even_with_blank_required_ones(name, ba
 _SPEC_NUMBERS = st.one_of(st.floats(min_value=1e-6, max_value=1e6),
                           st.floats(allow_nan=False, allow_infinity=False),
                           st.integers(min_value=-5, max_value=10**7))
-_SPEC_KEYS = ["h", "base_temperature", "ambient", "length_mm", "thickness_mm", "width_mm",
+_SPEC_KEYS = ["h", "temp_base", "temp_fluid", "length_mm", "thickness_mm", "width_mm",
               "count", "base_area", "contact_resistance", "target_heat_rate", "cells",
               "emissivity", "temp_surroundings", "h_coefficient", "h_exponent",
               "tube_diameter_mm", "fin_diameter_mm", "diameter_mm", "conductivity",
@@ -308,8 +308,8 @@ def near_valid_specs(draw):
     if draw(st.booleans()):
         base = {r[0]: r[1] for r in SINK[1:]}
     else:
-        base = {"kind": "annular", "conductivity": 200.0, "h": 58.0, "base_temperature": 80.0,
-                "ambient": 20.0, "tube_diameter_mm": 25.4, "fin_diameter_mm": 57.15,
+        base = {"kind": "annular", "conductivity": 200.0, "h": 58.0, "temp_base": 80.0,
+                "temp_fluid": 20.0, "tube_diameter_mm": 25.4, "fin_diameter_mm": 57.15,
                 "thickness_mm": 0.38, "count": 100, "base_area": 0.08}
     for key in draw(st.lists(st.sampled_from(_SPEC_KEYS), max_size=4)):
         base[key] = draw(_SPEC_NUMBERS)

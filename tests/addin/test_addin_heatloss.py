@@ -175,7 +175,7 @@ def test_annual_energy_is_the_degree_day_equation():
     assert udfs.HL_ANNUAL_ENERGY(120.0, 2900.0) == pytest.approx(
         24 * 120.0 * 2900.0 / 1000, rel=rtol_same)
     # the base temperature lies in the degree-days; no argument that changes nothing
-    assert "base_temperature" not in [a.name for a in REGISTRY["HL_ANNUAL_ENERGY"].args]
+    assert "degree_day_base" not in [a.name for a in REGISTRY["HL_ANNUAL_ENERGY"].args]
 
 
 @pytest.mark.parametrize(("call", "fragment"), [
@@ -195,7 +195,7 @@ def test_annual_energy_is_the_degree_day_equation():
     (lambda: udfs.HL_ROOM_LOAD([["wall", -1, 1]], 20, -5), "elements row 1 quantity"),
     (lambda: udfs.HL_ROOM_LOAD([["wall", 1, 1, 5, 0.5]], 20, -5), "elements row 1"),
     (lambda: udfs.HL_ROOM_LOAD([["point", 2.5, 1]], 20, -5), "whole count"),
-    (lambda: udfs.HL_ROOM_LOAD([["wall", 1, 1]], 20, 25), "temp_external"),
+    (lambda: udfs.HL_ROOM_LOAD([["wall", 1, 1]], 20, 25), "temp_outside"),
     (lambda: udfs.HL_ANNUAL_ENERGY(100, None), "degree_days"),
 ])
 def test_bad_input_gives_one_line_naming_the_argument(call, fragment):
@@ -248,11 +248,11 @@ PLAUSIBLE = {
         st.floats(0.01, 100), st.floats(0, 5),
         st.one_of(st.none(), st.floats(-10, 30), st.just("ground")),
         st.none(), st.one_of(st.none(), st.floats(0, 0.2))).map(list), max_size=8),
-    "temp_room": st.floats(5, 30), "temp_external": st.floats(-30, 4),
+    "temp_inside": st.floats(5, 30), "temp_outside": st.floats(-30, 4),
     "ventilation_coefficient": st.one_of(st.none(), st.floats(0, 500)),
     "reheat": st.one_of(st.none(), st.floats(0, 2000)),
     "heat_loss_coefficient": st.floats(0, 5000), "degree_days": st.floats(0, 6000),
-    "base_temperature": st.floats(8, 20),
+    "degree_day_base": st.floats(8, 20),
     "annual_mean_external_temperature": st.one_of(st.none(), st.floats(-5, 20)),
     "groundwater": st.sampled_from([None, "deep", "shallow"]),
     "header": st.one_of(st.none(), st.booleans()),

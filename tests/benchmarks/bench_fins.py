@@ -44,7 +44,7 @@ def linear_solve():
 
 def fin(linearisation="newton", emissivity=0.0, mesh_estimate=True):
     return solve_fin_fv(LENGTH, K, PowerLawCoefficient(1.32, 0.25), area=A_C, perimeter=P,
-                        base_temperature=T_B, ambient=T_INF, nodes=NODES, tip="convective",
+                        temp_base=T_B, temp_fluid=T_INF, nodes=NODES, tip="convective",
                         emissivity=emissivity, linearisation=linearisation,
                         tolerance=1e-8, mesh_estimate=mesh_estimate)
 

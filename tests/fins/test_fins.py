@@ -105,7 +105,7 @@ def test_uniform_fin_matches_table_3_4(name, make):
                                atol=1e-10)
     res = fin.evaluate(T_B, T_INF)
     assert res.tip_temperature == pytest.approx(T_INF + theta_ref[-1], rel=rtol_closed)
-    assert res.resistance == pytest.approx(THETA_B / q_ref, rel=rtol_closed)
+    assert res.fin_resistance == pytest.approx(THETA_B / q_ref, rel=rtol_closed)
     # source: Incropera & DeWitt 6th ed., eq. 3.86 (efficiency) and 3.81 (effectiveness),
     # numbers recalled: eta = q/(h A_f theta_b), eps = q/(h A_c theta_b)
     a_c = fin.cross_section_area
@@ -499,7 +499,7 @@ def test_fv_slender_profile_matches_closed_form(profile):
     power = 1.0 if profile == "triangular" else 2.0
     fin = StraightFin(big_l, k, h, thickness=t, width=w, profile=profile)
     fv = solve_fin_fv(big_l, k, h, area=lambda x: w * t * (1 - x / big_l) ** power,
-                      perimeter=2 * w, base_temperature=T_B, ambient=T_INF, nodes=1600)
+                      perimeter=2 * w, temp_base=T_B, temp_fluid=T_INF, nodes=1600)
     q_slender = fin.efficiency * h * 2 * w * big_l * THETA_B
     assert fv.mesh_estimate.extrapolated == pytest.approx(q_slender, rel=2e-5)
 
@@ -532,8 +532,8 @@ def test_fv_power_law_h_and_radiation_against_solve_bvp(linearisation):
     k, t, w, big_l = 200.0, 0.002, 0.1, 0.08
     a_c, p = w * t, 2 * (w + t)
     law = PowerLawCoefficient(1.32, 0.25)
-    fv = solve_fin_fv(big_l, k, law, area=a_c, perimeter=p, base_temperature=T_B,
-                      ambient=T_INF, nodes=400, tip="convective", emissivity=0.85,
+    fv = solve_fin_fv(big_l, k, law, area=a_c, perimeter=p, temp_base=T_B,
+                      temp_fluid=T_INF, nodes=400, tip="convective", emissivity=0.85,
                       temp_surroundings=10.0, linearisation=linearisation, tolerance=1e-10)
     q_bvp, tip_bvp = _nonlinear_bvp(k, a_c, p, law, 0.85, 10.0, big_l, a_c)
     assert fv.mesh_estimate.extrapolated == pytest.approx(q_bvp, rel=1e-6)
@@ -547,7 +547,7 @@ def test_fv_power_law_h_and_radiation_against_solve_bvp(linearisation):
 
 
 def test_fv_newton_converges_faster_than_picard():
-    kw = dict(area=2e-4, perimeter=0.204, base_temperature=T_B, ambient=T_INF, nodes=200,
+    kw = dict(area=2e-4, perimeter=0.204, temp_base=T_B, temp_fluid=T_INF, nodes=200,
               emissivity=0.9, tolerance=1e-10, mesh_estimate=False)
     law = PowerLawCoefficient(2.0, 1.0 / 3.0)
     newton = solve_fin_fv(0.1, 200.0, law, linearisation="newton", **kw)
@@ -557,7 +557,7 @@ def test_fv_newton_converges_faster_than_picard():
 
 
 def test_fv_callable_h_equals_power_law_and_iteration_limit():
-    kw = dict(area=2e-4, perimeter=0.204, base_temperature=T_B, ambient=T_INF, nodes=100,
+    kw = dict(area=2e-4, perimeter=0.204, temp_base=T_B, temp_fluid=T_INF, nodes=100,
               mesh_estimate=False)
     law = PowerLawCoefficient(1.5, 0.25)
     a = solve_fin_fv(0.08, 200.0, law, **kw)
@@ -586,7 +586,7 @@ def test_array_overall_efficiency_against_direct_sum():
     a_t = 12 * fin.fin_area + a_b
     eta_o = 1 - 12 * fin.fin_area / a_t * (1 - fin.efficiency)
     assert arr.overall_efficiency == pytest.approx(eta_o, rel=1e-13)
-    assert arr.resistance == pytest.approx(1 / (eta_o * fin.h * a_t), rel=1e-13)
+    assert arr.fin_resistance == pytest.approx(1 / (eta_o * fin.h * a_t), rel=1e-13)
     res = arr.evaluate(T_B, T_INF)
     assert res.heat_rate == pytest.approx(q_direct, rel=1e-12) and res.contact_factor == 1.0
 
@@ -697,7 +697,7 @@ def test_property_annular_efficiency(r1, ratio, t, k, h, tip):
        t_b=st.floats(-20.0, 300.0))
 def test_property_fv_energy_balance(c, n, eps, t_b):
     fv = solve_fin_fv(0.06, 150.0, PowerLawCoefficient(c, n), area=3e-4, perimeter=0.3,
-                      base_temperature=t_b, ambient=T_INF, nodes=60, tip="convective",
+                      temp_base=t_b, temp_fluid=T_INF, nodes=60, tip="convective",
                       emissivity=eps, mesh_estimate=False)
     assert abs(fv.energy_residual) < 1e-8
     lo, hi = min(t_b, T_INF), max(t_b, T_INF)
@@ -745,17 +745,17 @@ BAD = [
                                   tip_temperature=30.0), 2, 0.1), 'got tip "temperature"'),
     (lambda: FinArray(StraightFin(0.05, 200, 25, thickness=0.002), 2, 0.1,
                       contact_resistance=-1e-4), "contact_resistance must not be negative"),
-    (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, base_temperature=80,
-                          ambient=20, nodes=0), "nodes must be a whole number"),
-    (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, base_temperature=80,
-                          ambient=20, linearisation="guess"), "linearisation must be one of"),
-    (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, base_temperature=80,
-                          ambient=20, tip="temperature"), "needs tip_temperature"),
+    (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, temp_base=80,
+                          temp_fluid=20, nodes=0), "nodes must be a whole number"),
+    (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, temp_base=80,
+                          temp_fluid=20, linearisation="guess"), "linearisation must be one of"),
+    (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, temp_base=80,
+                          temp_fluid=20, tip="temperature"), "needs tip_temperature"),
     (lambda: solve_fin_fv(0.05, 200, PowerLawCoefficient(1, 0.25), area=1e-4, perimeter=0.1,
-                          base_temperature=80, ambient=20, tip="infinite"), "constant h"),
-    (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, base_temperature=80,
-                          ambient=20, emissivity=1.5), "emissivity must be between"),
-    (lambda: PowerLawCoefficient(1.0, 1.5), "exponent must be between 0 and 1"),
+                          temp_base=80, temp_fluid=20, tip="infinite"), "constant h"),
+    (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, temp_base=80,
+                          temp_fluid=20, emissivity=1.5), "emissivity must be between"),
+    (lambda: PowerLawCoefficient(1.0, 1.5), "h_exponent must be between 0 and 1"),
     (lambda: plate().temperatures(T_B, T_INF, points=1), "points must be"),
 ]
 
@@ -773,7 +773,7 @@ def test_heat_rate_accepts_arrays():
     assert isinstance(q, np.ndarray) and q.shape == (3,)
     np.testing.assert_allclose(q, [fin.heat_rate(t, T_INF) for t in t_b], rtol=1e-15)
     arr = FinArray(fin, 5, 0.02)
-    np.testing.assert_allclose(arr.heat_rate(t_b, T_INF) / (t_b - T_INF), 1 / arr.resistance)
+    np.testing.assert_allclose(arr.heat_rate(t_b, T_INF) / (t_b - T_INF), 1 / arr.fin_resistance)
 
 
 def test_results_keep_provenance():
@@ -782,7 +782,7 @@ def test_results_keep_provenance():
     assert {"m", "mL", "M_per_K", "h_over_mk"} <= set(res.coefficients)
     fv = plate().finite_volume(T_B, T_INF, nodes=20, h=PowerLawCoefficient(1.3, 0.25))
     assert fv.settings["h_law"].startswith("power law")
-    assert fv.settings["h_parameters"] == {"coefficient": 1.3, "exponent": 0.25}
+    assert fv.settings["h_parameters"] == {"h_coefficient": 1.3, "h_exponent": 0.25}
 
 
 # ----------------------------------------------------------------------------- docstrings
@@ -822,7 +822,7 @@ def test_public_docstrings_give_units():
 
 def test_fv_base_at_ambient_gives_zero_heat_and_undefined_efficiency():
     fv = solve_fin_fv(0.05, 200.0, PowerLawCoefficient(1.3, 0.25), area=2e-4, perimeter=0.2,
-                      base_temperature=T_INF, ambient=T_INF, nodes=20, mesh_estimate=False)
+                      temp_base=T_INF, temp_fluid=T_INF, nodes=20, mesh_estimate=False)
     assert abs(fv.heat_rate) < 1e-9 and math.isnan(fv.efficiency)  # round-off only
     np.testing.assert_allclose(fv.temperature, T_INF)
 
@@ -834,7 +834,7 @@ def test_infinite_fin_array_has_no_length_to_size():
 
 
 def test_cooling_fin_negative_heat_rate():
-    # a fin on a chilled base (base below ambient): heat flows into the fin, q < 0, and the
+    # a fin on a chilled base (base below temp_fluid): heat flows into the fin, q < 0, and the
     # efficiency is the same as for heating (linear problem)
     fin = plate(tip="convective")
     assert fin.heat_rate(5.0, 20.0) == pytest.approx(-fin.heat_rate(35.0, 20.0), rel=1e-14)
@@ -850,7 +850,7 @@ def test_fv_h_varying_along_the_fin_against_solve_bvp():
     # independent solution of k A theta'' = h(x) P theta by solve_bvp in xi = x/L
     k, a_c, p, big_l, h0 = 200.0, 2e-4, 0.204, 0.1, 10.0
     fv = solve_fin_fv(big_l, k, lambda x, temp: h0 * (1 + 2 * x / big_l), area=a_c,
-                      perimeter=p, base_temperature=T_B, ambient=T_INF, nodes=400)
+                      perimeter=p, temp_base=T_B, temp_fluid=T_INF, nodes=400)
 
     def fun(xi, y):
         return np.vstack([y[1], big_l**2 * h0 * (1 + 2 * xi) * p / (k * a_c) * y[0]])

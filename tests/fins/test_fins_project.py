@@ -25,8 +25,8 @@ name = "HS1 drive heat sink"
 kind = "straight"                 # "straight" or "annular"
 material = "aluminium alloy"      # library name, or conductivity = 160.0 (W/(m K))
 h = 8.0                           # W/(m2 K)
-base_temperature = 65.0           # degC
-ambient = 35.0                    # degC
+temp_base = 65.0           # degC
+temp_fluid = 35.0                    # degC
 length_mm = 40.0
 thickness_mm = 2.0                # plate fin; diameter_mm = ... for a pin fin
 width_mm = 150.0
@@ -46,8 +46,8 @@ name = "TH1 finned tube"
 kind = "annular"
 conductivity = 200.0
 h = 6.0
-base_temperature = 55.0
-ambient = 20.0
+temp_base = 55.0
+temp_fluid = 20.0
 tube_diameter_mm = 15.0
 fin_diameter_mm = 45.0
 thickness_mm = 0.4
@@ -117,7 +117,7 @@ def test_every_problem_is_reported_with_its_key_path():
     ({"tip": "temperature"}, "fins[1].tip_temperature", "needs tip_temperature"),
     ({"tip_temperature": 30.0}, "fins[1].tip_temperature", "only with tip"),
     ({"corrected_length": "yes"}, "fins[1].corrected_length", "true or false"),
-    ({"base_temperature": -300.0}, "fins[1].base_temperature", "absolute zero"),
+    ({"temp_base": -300.0}, "fins[1].temp_base", "absolute zero"),
     ({"h": "high"}, "fins[1].h", "must be a number"),
     ({"material": "aluminum"}, "fins[1].material", "aluminium alloy"),
     ({"profile": "triangular", "tip": "infinite"}, "fins[1].tip", "edge or point"),

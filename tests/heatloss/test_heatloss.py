@@ -106,7 +106,7 @@ RHO_CP_WH = AIR_DENSITY * AIR_SPECIFIC_HEAT / 3600.0  # W h/(m3 K)
 def simple_room(**over):
     kw = dict(
         name="Study",
-        internal_temperature=20.0,
+        temp_inside=20.0,
         volume=40.0,
         elements=[
             Element("north wall", 12.0, 0.25),
@@ -145,7 +145,7 @@ def test_outside_room_against_en12831_sums():
 def test_shares_add_up_and_lines_are_complete():
     r = simple_room().heat_load(-5.0)
     assert sum(ln.share for ln in r.lines) == pytest.approx(1.0, abs=1e-12)
-    assert sum(ln.heat_flow for ln in r.lines) == pytest.approx(r.design_heat_load)
+    assert sum(ln.heat_loss for ln in r.lines) == pytest.approx(r.design_heat_load)
     names = [ln.name for ln in r.lines]
     assert names == ["north wall", "window", "roof", "window reveals", "balcony fixings",
                      "ventilation", "heating-up allowance"]
@@ -174,7 +174,7 @@ def test_unheated_by_temperature_equals_physical_flow(tu, te):
     r = room.heat_load(te)
     line = r.lines[0]
     assert line.factor == pytest.approx((20.0 - tu) / (20.0 - te))
-    assert line.heat_flow == pytest.approx(10.0 * 0.5 * (20.0 - tu), rel=1e-12)
+    assert line.heat_loss == pytest.approx(10.0 * 0.5 * (20.0 - tu), rel=1e-12)
 
 
 def test_unheated_by_adjustment_factor():
@@ -192,10 +192,10 @@ def test_ground_element_flow_uses_annual_mean_temperature():
     room = Room("Kitchen", 20.0, 50.0,
                 [Element("floor", 20.0, slab, Ground(9.0, groundwater_factor=1.15),
                          kind="floor")],
-                Ventilation("flow"), design_external_temperature=-10.0)
+                Ventilation("flow"), temp_outside=-10.0)
     for te in (-10.0, -3.0):
         r = room.heat_load(te)
-        assert r.lines[0].heat_flow == pytest.approx(1.45 * 1.15 * 20 * slab.u_value * (20 - 9))
+        assert r.lines[0].heat_loss == pytest.approx(1.45 * 1.15 * 20 * slab.u_value * (20 - 9))
         fg2 = (20 - 9) / (20 - te)
         assert r.lines[0].factor == pytest.approx(1.45 * fg2 * 1.15)
     assert room.transmission_coefficient == pytest.approx(
@@ -272,7 +272,7 @@ def two_room_house():
          Element("to neighbour", 8.0, 0.9, AdjacentRoom(temperature=12.0))],
         Ventilation("air_change", ventilation=0.5),
     )
-    return Building("House", [living, hall], design_external_temperature=-4.0)
+    return Building("House", [living, hall], temp_outside=-4.0)
 
 
 def test_building_is_sum_of_rooms_less_internal_exchange():
@@ -287,16 +287,16 @@ def test_building_is_sum_of_rooms_less_internal_exchange():
     assert r.ventilation_coefficient == pytest.approx(sum(x.ventilation_coefficient
                                                           for x in r.rooms))
     # both sides of the party wall are modelled: the exchange cancels in heat-flow terms
-    assert r.internal_exchange_heat_flow == pytest.approx(0.0, abs=1e-9)
+    assert r.internal_exchange_heat_loss == pytest.approx(0.0, abs=1e-9)
     # building load = sum over rooms of everything except the room-to-room lines
-    external = sum(ln.heat_flow for x in r.rooms for ln in x.lines if not ln.internal)
+    external = sum(ln.heat_loss for x in r.rooms for ln in x.lines if not ln.internal)
     assert r.design_heat_load == pytest.approx(external)
     assert sum(ln.share for ln in r.lines) == pytest.approx(1.0)
     assert sum(r.by_kind.values()) == pytest.approx(r.design_heat_load)
     # the neighbouring dwelling at 12 degC is a loss of this building, not internal
     neighbour = [ln for ln in r.lines if ln.name == "to neighbour"][0]
     assert not neighbour.internal
-    assert neighbour.heat_flow == pytest.approx(8 * 0.9 * (16 - 12))
+    assert neighbour.heat_loss == pytest.approx(8 * 0.9 * (16 - 12))
 
 
 def test_room_facing_only_rooms_at_its_own_temperature_loses_nothing():
@@ -322,12 +322,12 @@ def test_annual_energy_from_degree_days():
     h = b.heat_loss_coefficient
     # from memory: Q (kWh) = 24 H DD / 1000 (REFERENCES.md s.5)
     assert b.annual_energy(2200.0) == pytest.approx(24 * h * 2200 / 1000)
-    res = b.annual_energy_result(2200.0, base_temperature=15.5)
-    assert res.base_temperature == 15.5
+    res = b.annual_energy_result(2200.0, degree_day_base=15.5)
+    assert res.degree_day_base == 15.5
     assert any("15.5 degC" in p for p in res.provenance)
     assert any("NOT STATED" in p for p in b.annual_energy_result(2200.0).provenance)
     living = b.heat_load(-4.0).rooms[0]
-    per_room = b.room_annual_energy(1000.0, base_temperature=15.5)
+    per_room = b.room_annual_energy(1000.0, degree_day_base=15.5)
     assert per_room["Living"].energy == pytest.approx(
         24 * (living.transmission_coefficient + living.ventilation_coefficient) * 1000 / 1000)
     # a room of the building cannot resolve its neighbour by name on its own
@@ -379,7 +379,7 @@ def test_unknown_room_name_in_building():
 def test_temperature_boundary_needs_design_external_temperature():
     room = Room("Hall", 20.0, 30.0, [Element("garage", 10.0, 0.5, Unheated(temperature=5.0))],
                 Ventilation("flow"))
-    with pytest.raises(HeatLedgerError, match="design_external_temperature"):
+    with pytest.raises(HeatLedgerError, match="temp_outside"):
         _ = room.transmission_coefficient
     assert room.heat_load(-10.0).transmission_coefficient == pytest.approx(10 * 0.5 * 15 / 30)
 
@@ -414,8 +414,8 @@ def test_other_room_level_errors():
     with pytest.raises(HeatLedgerError, match="appears twice"):
         Building("B", [simple_room(), simple_room()])
     with pytest.raises(HeatLedgerError, match="different design external temperatures"):
-        Building("B", [simple_room(design_external_temperature=-3.0)],
-                 design_external_temperature=-5.0)
+        Building("B", [simple_room(temp_outside=-3.0)],
+                 temp_outside=-5.0)
 
 
 def test_boundary_string_outside_and_object_agree():
@@ -442,7 +442,7 @@ def test_internal_exchange_cancels_for_any_temperatures(t_a, t_b, te, u_party):
                               Element("party", 9.0, u_party, AdjacentRoom(room="A"))],
              Ventilation("air_change", ventilation=0.5))
     r = Building("Pair", [a, b]).heat_load(te)
-    assert r.internal_exchange_heat_flow == pytest.approx(0.0, abs=1e-9)
+    assert r.internal_exchange_heat_loss == pytest.approx(0.0, abs=1e-9)
     # the building load equals that of the same rooms with the party wall left out
     a0 = Room("A", t_a, 40.0, [Element("out", 10.0, 0.3)], Ventilation("air_change",
                                                                         ventilation=0.5))
@@ -459,7 +459,7 @@ def test_room_alone_next_to_spaces_at_its_own_temperature_loses_nothing():
                          kind="ceiling"),
                  Element("to flat below", 30.0, 0.8, AdjacentRoom(temperature=20.0),
                          kind="floor")],
-                Ventilation("flow"), design_external_temperature=-5.0)
+                Ventilation("flow"), temp_outside=-5.0)
     assert room.transmission_coefficient == 0.0
     assert room.design_heat_load(-5.0) == 0.0
     # shares are undefined for a zero load and say so (nan), rather than dividing by zero

@@ -66,7 +66,7 @@ def test_demo_has_rooms_marked_invented():
     assert office.ventilation.heat_recovery > 0
     kinds = {el.kind for r in bi.rooms for el in r.elements}
     assert {"wall", "window", "door", "roof", "floor"} <= kinds
-    assert bi.degree_days and bi.base_temperature is not None
+    assert bi.degree_days and bi.degree_day_base is not None
 
 
 def test_small_project_by_hand():

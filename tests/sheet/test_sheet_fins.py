@@ -37,7 +37,7 @@ FIN_FUNCTIONS = {"IF", "ABS", "MAX", "SUM", "COUNTIF", "AND", "OR", "ROUND", "SQ
                  "COSH", "SINH", "TANH", "BESSELI", "BESSELK", "PI", "LN", "ASINH",
                  "SUMPRODUCT"}
 
-_COMMON = {"h": 25.0, "base_temperature": 80.0, "ambient": 20.0}
+_COMMON = {"h": 25.0, "temp_base": 80.0, "temp_fluid": 20.0}
 
 
 def _fin(name, **kw):
@@ -125,14 +125,14 @@ def test_every_fin_check_ok_and_values_equal_engine(project, tmp_path, recalc, s
     for entry in project.fins:
         refs = plan.index[("fins", entry.name)]
         res = entry.evaluate()
-        for attr in ("heat_rate", "efficiency", "effectiveness", "resistance",
+        for attr in ("heat_rate", "efficiency", "effectiveness", "fin_resistance",
                      "tip_temperature"):
             assert _value(wb, getattr(refs, attr)) == pytest.approx(getattr(res, attr),
                                                                     rel=REL), attr
         ws = wb[refs.sheet]
         p0, p1 = refs.extras["profile"]
         profile = np.array([ws[f"E{r}"].value for r in range(p0, p1 + 1)], dtype=float)
-        engine = entry.fin.temperatures(entry.base_temperature, entry.ambient,
+        engine = entry.fin.temperatures(entry.temp_base, entry.temp_fluid,
                                         points=p1 - p0 + 1).temperature
         np.testing.assert_allclose(profile, engine, rtol=REL, atol=0)
         n0, n1 = refs.extras["fv"]
@@ -143,7 +143,7 @@ def test_every_fin_check_ok_and_values_equal_engine(project, tmp_path, recalc, s
             arr = entry.evaluate_array()
             for key, value in (("heat_rate", arr.heat_rate),
                                ("overall_efficiency", arr.overall_efficiency),
-                               ("resistance", arr.resistance)):
+                               ("fin_resistance", arr.fin_resistance)):
                 assert _value(wb, refs.array[key]) == pytest.approx(value, rel=REL), key
 
     # against sources outside the project ------------------------------------------------

@@ -43,7 +43,7 @@ class FinBase:
         return float(g_b / (self.h * self.cross_section_area))
 
     @property
-    def resistance(self) -> float:
+    def fin_resistance(self) -> float:
         """Fin thermal resistance ``R_t,f = theta_b / q_f``. [K/W]"""
         self._need_linear_tip("resistance")
         g_b, _ = self._conductances()
@@ -66,14 +66,14 @@ class FinBase:
         return self._warnings_notes(None)[1]
 
     # ------------------------------------------------------------------ methods
-    def heat_rate(self, base_temperature, ambient):
+    def heat_rate(self, temp_base, temp_fluid):
         """Heat rate into the fin at its base.
 
         Parameters
         ----------
-        base_temperature : float or array_like
+        temp_base : float or array_like
             Base temperature ``T_b``. [degC]
-        ambient : float or array_like
+        temp_fluid : float or array_like
             Fluid temperature ``T_inf``. [degC]
 
         Returns
@@ -81,23 +81,23 @@ class FinBase:
         float or ndarray
             ``q_f``; positive when the fin sheds heat. [W]
         """
-        t_b = np.asanyarray(base_temperature, dtype=float)
-        t_inf = np.asanyarray(ambient, dtype=float)
+        t_b = np.asanyarray(temp_base, dtype=float)
+        t_inf = np.asanyarray(temp_fluid, dtype=float)
         g_b, g_l = self._conductances()
         q = g_b * (t_b - t_inf)
         if g_l:
             q = q - g_l * (self.tip_temperature - t_inf)
         return float(q) if np.ndim(q) == 0 else q
 
-    def evaluate(self, base_temperature: float, ambient: float, *,
+    def evaluate(self, temp_base: float, temp_fluid: float, *,
                  warn: bool = False) -> FinResult:
         """All closed-form results at one pair of temperatures.
 
         Parameters
         ----------
-        base_temperature : float
+        temp_base : float
             Base temperature ``T_b``. [degC]
-        ambient : float
+        temp_fluid : float
             Fluid temperature ``T_inf``. [degC]
         warn : bool
             Also emit the result's warnings as ``HeatLedgerWarning`` (default quiet). [-]
@@ -106,8 +106,8 @@ class FinBase:
         -------
         FinResult
         """
-        t_b = v.within("base_temperature", base_temperature, "temperature")
-        t_inf = v.within("ambient", ambient, "temperature")
+        t_b = v.within("temp_base", temp_base, "temperature")
+        t_inf = v.within("temp_fluid", temp_fluid, "temperature")
         theta_b = t_b - t_inf
         g_b, g_l = self._conductances()
         theta_l = (self.tip_temperature - t_inf) if g_l else 0.0
@@ -117,8 +117,8 @@ class FinBase:
                                       theta_l)[0])
         warns, notes = self._warnings_notes(effect)
         result = FinResult(
-            heat_rate=float(q), efficiency=eff, effectiveness=effect, resistance=res,
-            tip_temperature=t_inf + tip_theta, base_temperature=t_b, ambient=t_inf,
+            heat_rate=float(q), efficiency=eff, effectiveness=effect, fin_resistance=res,
+            tip_temperature=t_inf + tip_theta, temp_base=t_b, temp_fluid=t_inf,
             m=self.m, fin_area=self.fin_area, cross_section_area=self.cross_section_area,
             method=self._method, coefficients=self._coefficients(),
             inputs=dict(self.inputs), warnings=warns, notes=notes,
@@ -128,15 +128,15 @@ class FinBase:
             emit(result.warnings)
         return result
 
-    def temperatures(self, base_temperature: float, ambient: float, *, nodes: int | None = None,
+    def temperatures(self, temp_base: float, temp_fluid: float, *, nodes: int | None = None,
                      points: int = 51) -> FinTemperatures:
         """Temperature along the fin.
 
         Parameters
         ----------
-        base_temperature : float
+        temp_base : float
             Base temperature ``T_b``. [degC]
-        ambient : float
+        temp_fluid : float
             Fluid temperature ``T_inf``. [degC]
         nodes : int, optional
             ``None`` for the closed form; a number of control volumes for finite volumes
@@ -148,8 +148,8 @@ class FinBase:
         -------
         FinTemperatures
         """
-        t_b = v.within("base_temperature", base_temperature, "temperature")
-        t_inf = v.within("ambient", ambient, "temperature")
+        t_b = v.within("temp_base", temp_base, "temperature")
+        t_inf = v.within("temp_fluid", temp_fluid, "temperature")
         if nodes is not None:
             fv = self.finite_volume(t_b, t_inf, nodes=nodes)
             tip = self._length_axis()[1]
@@ -175,7 +175,7 @@ class FinBase:
                                method=f"closed form: {self._method}",
                                warnings=self._warnings_notes(None)[0])
 
-    def finite_volume(self, base_temperature: float, ambient: float, *, nodes: int = 200,
+    def finite_volume(self, temp_base: float, temp_fluid: float, *, nodes: int = 200,
                       h=None, emissivity: float = 0.0, temp_surroundings: float | None = None,
                       linearisation: str = "newton", tolerance: float = 1e-8,
                       max_iterations: int = 100, mesh_estimate: bool = True):
@@ -183,9 +183,9 @@ class FinBase:
 
         Parameters
         ----------
-        base_temperature : float
+        temp_base : float
             Base temperature. [degC]
-        ambient : float
+        temp_fluid : float
             Fluid temperature. [degC]
         nodes : int
             Number of control volumes. [-]
@@ -216,7 +216,7 @@ class FinBase:
             raise HeatLedgerError('tip "infinite" takes only the fin\'s constant h')
         return solve_fin_fv(
             setup.pop("length"), self.conductivity, self.h if h is None else h,
-            base_temperature=base_temperature, ambient=ambient, nodes=nodes,
+            temp_base=temp_base, temp_fluid=temp_fluid, nodes=nodes,
             emissivity=emissivity, temp_surroundings=temp_surroundings,
             linearisation=linearisation, tolerance=tolerance, max_iterations=max_iterations,
             mesh_estimate=mesh_estimate, **setup,
@@ -227,7 +227,7 @@ class FinBase:
         if getattr(self, "tip", None) == "temperature":
             raise HeatLedgerError(
                 f'{what} of a fin with tip "temperature" depends on the base and ambient '
-                "temperatures; use evaluate(base_temperature, ambient)"
+                "temperatures; use evaluate(temp_base, temp_fluid)"
             )
 
     def _ratios(self, q, theta_b, theta_l, g_b):

@@ -68,11 +68,11 @@ class FinResult:
         Fin efficiency ``eta_f``. [-]
     effectiveness : float
         Fin effectiveness ``epsilon_f = q_f / (h A_c,b theta_b)``. [-]
-    resistance : float
+    fin_resistance : float
         Fin thermal resistance ``R_t,f = theta_b / q_f`` (``inf`` when ``theta_b = 0``). [K/W]
     tip_temperature : float
         Temperature at the fin tip (outer radius for annular fins). [degC]
-    base_temperature, ambient : float
+    temp_base, temp_fluid : float
         Inputs. [degC]
     m : float
         Fin parameter. [1/m]
@@ -98,10 +98,10 @@ class FinResult:
     heat_rate: float
     efficiency: float
     effectiveness: float
-    resistance: float
+    fin_resistance: float
     tip_temperature: float
-    base_temperature: float
-    ambient: float
+    temp_base: float
+    temp_fluid: float
     m: float
     fin_area: float
     cross_section_area: float
@@ -232,7 +232,7 @@ class FinArrayResult:
         Total heat rate from fins and exposed base ``q_t``. [W]
     overall_efficiency : float
         Overall surface efficiency ``eta_o`` (with the contact correction if any). [-]
-    resistance : float
+    fin_resistance : float
         Overall thermal resistance ``R_t,o = 1/(eta_o h A_t)``. [K/W]
     total_area : float
         ``A_t = N A_f + A_b``. [m2]
@@ -254,7 +254,7 @@ class FinArrayResult:
 
     heat_rate: float
     overall_efficiency: float
-    resistance: float
+    fin_resistance: float
     total_area: float
     exposed_base_area: float
     fin_efficiency: float

@@ -117,19 +117,19 @@ class FinArray:
         return 1.0 - share * (1.0 - f.conductance / (f.h * f.fin_area) / self.contact_factor)
 
     @property
-    def resistance(self) -> float:
+    def fin_resistance(self) -> float:
         """Overall thermal resistance ``R_t,o = 1/(eta_o h A_t)``. [K/W]"""
         return 1.0 / (self.overall_efficiency * self.fin.h * self.total_area)
 
     # ---------------------------------------------------------------- methods
-    def heat_rate(self, base_temperature, ambient):
+    def heat_rate(self, temp_base, temp_fluid):
         """Total heat rate ``q_t = eta_o h A_t (T_b - T_inf)``.
 
         Parameters
         ----------
-        base_temperature : float or array_like
+        temp_base : float or array_like
             Base temperature. [degC]
-        ambient : float or array_like
+        temp_fluid : float or array_like
             Fluid temperature. [degC]
 
         Returns
@@ -137,20 +137,20 @@ class FinArray:
         float or ndarray
             Heat rate. [W]
         """
-        theta = np.asanyarray(base_temperature, dtype=float) - np.asanyarray(ambient,
+        theta = np.asanyarray(temp_base, dtype=float) - np.asanyarray(temp_fluid,
                                                                               dtype=float)
-        q = theta / self.resistance
+        q = theta / self.fin_resistance
         return float(q) if np.ndim(q) == 0 else q
 
-    def evaluate(self, base_temperature: float, ambient: float, *,
+    def evaluate(self, temp_base: float, temp_fluid: float, *,
                  warn: bool = False) -> FinArrayResult:
         """All array results at one pair of temperatures.
 
         Parameters
         ----------
-        base_temperature : float
+        temp_base : float
             Base temperature. [degC]
-        ambient : float
+        temp_fluid : float
             Fluid temperature. [degC]
         warn : bool
             Also emit the warnings as ``HeatLedgerWarning``. [-]
@@ -159,8 +159,8 @@ class FinArray:
         -------
         FinArrayResult
         """
-        t_b = v.within("base_temperature", base_temperature, "temperature")
-        t_inf = v.within("ambient", ambient, "temperature")
+        t_b = v.within("temp_base", temp_base, "temperature")
+        t_inf = v.within("temp_fluid", temp_fluid, "temperature")
         theta = t_b - t_inf
         f = self.fin
         c1 = self.contact_factor
@@ -170,8 +170,9 @@ class FinArray:
             warns += ("each fin (with its contact resistance) sheds no more than the base "
                       "area it covers: the array is no better than the bare base",)
         result = FinArrayResult(
-            heat_rate=float(theta / self.resistance), overall_efficiency=self.overall_efficiency,
-            resistance=self.resistance, total_area=self.total_area,
+            heat_rate=float(theta / self.fin_resistance),
+            overall_efficiency=self.overall_efficiency,
+            fin_resistance=self.fin_resistance, total_area=self.total_area,
             exposed_base_area=self.exposed_base_area, fin_efficiency=f.efficiency,
             fin_heat_rate=float(fin_q), count=self.count, contact_factor=c1,
             method="Incropera & DeWitt section 3.6.5, overall surface efficiency"
@@ -181,24 +182,24 @@ class FinArray:
                           "h": f.h},
             inputs={"fin": dict(f.inputs), "count": self.count, "base_area": self.base_area,
                     "contact_resistance": self.contact_resistance,
-                    "base_temperature": t_b, "ambient": t_inf},
+                    "temp_base": t_b, "temp_fluid": t_inf},
             warnings=warns, notes=tuple(f.notes),
         )
         if warn:
             emit(result.warnings)
         return result
 
-    def length_for_heat_rate(self, target_heat_rate: float, base_temperature: float,
-                             ambient: float) -> FinSizing:
+    def length_for_heat_rate(self, target_heat_rate: float, temp_base: float,
+                             temp_fluid: float) -> FinSizing:
         """Fin length that makes the array shed ``target_heat_rate``.
 
         Parameters
         ----------
         target_heat_rate : float
             Required total heat rate (same sign as ``T_b - T_inf``). [W]
-        base_temperature : float
+        temp_base : float
             Base temperature. [degC]
-        ambient : float
+        temp_fluid : float
             Fluid temperature. [degC]
 
         Returns
@@ -217,7 +218,7 @@ class FinArray:
         ``q_t(L) - q_target = 0`` by :func:`scipy.optimize.brentq` on
         ``[1e-9 L_long, L_long]`` with ``m L_long = 40`` (tanh 40 = 1 in double precision).
         """
-        q_goal, theta = self._target(target_heat_rate, base_temperature, ambient)
+        q_goal, theta = self._target(target_heat_rate, temp_base, temp_fluid)
         if self.count == 0:
             raise HeatLedgerError("count is 0: fin length cannot change the heat rate")
         if getattr(self.fin, "tip", None) == "infinite":
@@ -255,23 +256,23 @@ class FinArray:
         sized = replace(self, fin=self.fin.with_length(root))
         return FinSizing(
             quantity="length", value=float(root), target_heat_rate=float(target_heat_rate),
-            heat_rate=sized.heat_rate(base_temperature, ambient), array=sized,
+            heat_rate=sized.heat_rate(temp_base, temp_fluid), array=sized,
             continuous_value=float(root), bracket=(lo, long), iterations=info.iterations,
             tolerance=_XTOL_LENGTH,
             method="scipy.optimize.brentq on q_t(L) - q_target",
         )
 
-    def count_for_heat_rate(self, target_heat_rate: float, base_temperature: float,
-                            ambient: float, *, max_count: int | None = None) -> FinSizing:
+    def count_for_heat_rate(self, target_heat_rate: float, temp_base: float,
+                            temp_fluid: float, *, max_count: int | None = None) -> FinSizing:
         """Smallest whole number of fins that makes the array shed ``target_heat_rate``.
 
         Parameters
         ----------
         target_heat_rate : float
             Required total heat rate (same sign as ``T_b - T_inf``). [W]
-        base_temperature : float
+        temp_base : float
             Base temperature. [degC]
-        ambient : float
+        temp_fluid : float
             Fluid temperature. [degC]
         max_count : int, optional
             Largest count that fits; default the count whose roots fill the base area (a
@@ -292,7 +293,7 @@ class FinArray:
         ``eta_f A_f / C_1``); the continuous root is found by :func:`scipy.optimize.brentq`
         and rounded up.
         """
-        q_goal, theta = self._target(target_heat_rate, base_temperature, ambient)
+        q_goal, theta = self._target(target_heat_rate, temp_base, temp_fluid)
         f = self.fin
         limit = math.ceil(self.base_area / f.cross_section_area) - 1
         if max_count is not None:
@@ -308,7 +309,7 @@ class FinArray:
             return (bare + n * per_fin) * abs(theta)
 
         if q_goal <= q_of(0.0):
-            return self._count_answer(0, 0.0, target_heat_rate, base_temperature, ambient,
+            return self._count_answer(0, 0.0, target_heat_rate, temp_base, temp_fluid,
                                       (0.0, float(limit)), 0,
                                       ("the bare base already meets the target",))
         if per_fin <= 0.0:
@@ -329,18 +330,18 @@ class FinArray:
         count = min(int(math.ceil(root)), limit)
         if count >= 1 and q_of(count - 1) >= q_goal:  # root landed just above a whole number
             count -= 1
-        return self._count_answer(count, root, target_heat_rate, base_temperature, ambient,
+        return self._count_answer(count, root, target_heat_rate, temp_base, temp_fluid,
                                   (0.0, float(limit)), info.iterations, ())
 
     # ---------------------------------------------------------------- internals
     def _target(self, target, t_b, t_inf):
         target = v.finite("target_heat_rate", target)
-        theta = (v.within("base_temperature", t_b, "temperature")
-                 - v.within("ambient", t_inf, "temperature"))
+        theta = (v.within("temp_base", t_b, "temperature")
+                 - v.within("temp_fluid", t_inf, "temperature"))
         if theta == 0.0 or target == 0.0 or math.copysign(1.0, target) != math.copysign(
                 1.0, theta):
             raise HeatLedgerError(
-                f"target_heat_rate must be non-zero with the sign of base_temperature - "
+                f"target_heat_rate must be non-zero with the sign of temp_base - "
                 f"ambient ({theta:g} K); got {target:g} W"
             )
         return abs(target), abs(theta)

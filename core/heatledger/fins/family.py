@@ -74,7 +74,7 @@ def report(results: dict, write, shown: set) -> None:
         if f["array"] is not None:
             a = f["array"]
             write(f"  array of {a['count']} fins: {a['heat_rate']:.2f} W, resistance "
-              f"{a['resistance']:.4f} K/W\n")
+              f"{a['fin_resistance']:.4f} K/W\n")
         for key, sz in f["sizing"].items():
             what = "fin length" if key == "length" else "fin count"
             if sz["value"] is None:

@@ -47,9 +47,9 @@ class PowerLawCoefficient:
 
     Parameters
     ----------
-    coefficient : float
+    h_coefficient : float
         ``C``, the coefficient at a 1 K difference. [W/(m2 K^(1+n))]
-    exponent : float
+    h_exponent : float
         ``n``, between 0 and 1. [-]
 
     References
@@ -58,18 +58,19 @@ class PowerLawCoefficient:
     (simplified natural-convection correlations of the form h = C dT^n, recalled).
     """
 
-    coefficient: float
-    exponent: float
+    h_coefficient: float
+    h_exponent: float
 
     def __post_init__(self) -> None:
-        v.positive("coefficient", self.coefficient, "W/(m2 K^(1+n))")
-        n = v.finite("exponent", self.exponent)
+        v.positive("h_coefficient", self.h_coefficient, "W/(m2 K^(1+n))")
+        n = v.finite("h_exponent", self.h_exponent)
         if not 0.0 <= n <= 1.0:
-            raise HeatLedgerError(f"exponent must be between 0 and 1; got {n:g}")
+            raise HeatLedgerError(f"h_exponent must be between 0 and 1; got {n:g}")
 
     def __call__(self, delta_temp):
         """Return ``h`` for a temperature difference ``delta_temp`` [K]. [W/(m2 K)]"""
-        return self.coefficient * np.abs(np.asanyarray(delta_temp, dtype=float)) ** self.exponent
+        theta = np.abs(np.asanyarray(delta_temp, dtype=float))
+        return self.h_coefficient * theta ** self.h_exponent
 
 
 def solve_fin_fv(
@@ -79,8 +80,8 @@ def solve_fin_fv(
     *,
     area,
     perimeter,
-    base_temperature: float,
-    ambient: float,
+    temp_base: float,
+    temp_fluid: float,
     nodes: int = 200,
     tip: str = "adiabatic",
     tip_temperature: float | None = None,
@@ -110,9 +111,9 @@ def solve_fin_fv(
         Conduction area ``A(x)``, constant or a callable of distance from the base. [m2]
     perimeter : float or callable
         Heated perimeter ``P(x)`` (surface area per unit length), constant or callable. [m]
-    base_temperature : float
+    temp_base : float
         Temperature of the base. [degC]
-    ambient : float
+    temp_fluid : float
         Temperature of the surrounding fluid ``T_inf``. [degC]
     nodes : int
         Number of control volumes (uniform). [-]
@@ -174,8 +175,8 @@ def solve_fin_fv(
     """
     length = v.positive("length", length, "m")
     k = v.positive("conductivity", conductivity, "W/(m K)")
-    t_b = v.finite("base_temperature", base_temperature)
-    t_inf = v.finite("ambient", ambient)
+    t_b = v.finite("temp_base", temp_base)
+    t_inf = v.finite("temp_fluid", temp_fluid)
     nodes = _count("nodes", nodes, 1)
     max_iterations = _count("max_iterations", max_iterations, 1)
     tip = v.choice("tip", tip, FV_TIPS)
@@ -232,8 +233,8 @@ def solve_fin_fv(
         "max_iterations": max_iterations,
         "mesh_refinement": (f"three meshes {mesh_q.meshes}, {mesh_q.basis}" if mesh_q
                             else "none"),
-        "base_temperature": t_b,
-        "ambient": t_inf,
+        "temp_base": t_b,
+        "temp_fluid": t_inf,
         "tip_temperature": t_tip_fixed if tip == "temperature" else None,
         "length": length,
         "conductivity": k,
@@ -263,7 +264,7 @@ def _h_law(h):
     """Return (kind, object, parameters) for a convection-coefficient input."""
     if isinstance(h, PowerLawCoefficient):
         return ("power law C|T - T_inf|^n", h,
-                {"coefficient": h.coefficient, "exponent": h.exponent})
+                {"h_coefficient": h.h_coefficient, "h_exponent": h.h_exponent})
     if callable(h):
         return ("callable h(x, temperature)", h, {"callable": getattr(h, "__name__", repr(h))})
     return ("constant", v.positive("h", h, "W/(m2 K)"), {"h": float(h)})
@@ -306,7 +307,7 @@ def _flux_slope(law, eps, x, temp, t_inf, t_sur) -> np.ndarray:
     if kind == "constant":
         g1 = np.full(temp.shape, obj)
     elif isinstance(obj, PowerLawCoefficient):
-        g1 = obj.coefficient * (obj.exponent + 1.0) * np.abs(temp - t_inf) ** obj.exponent
+        g1 = obj.h_coefficient * (obj.h_exponent + 1.0) * np.abs(temp - t_inf) ** obj.h_exponent
     else:
         step = 1e-4 * np.maximum(1.0, np.abs(temp - t_inf))
         up = _h_of(law, x, temp + step, t_inf) * (temp + step - t_inf)
@@ -322,9 +323,9 @@ def _flux_and_slope(law, eps, x, temp, t_inf, t_sur):
     obj = law[1]
     if isinstance(obj, PowerLawCoefficient):
         theta = temp - t_inf
-        h_c = obj.coefficient * np.abs(theta) ** obj.exponent
+        h_c = obj.h_coefficient * np.abs(theta) ** obj.h_exponent
         g0 = h_c * theta
-        g1 = (obj.exponent + 1.0) * h_c
+        g1 = (obj.h_exponent + 1.0) * h_c
         if eps > 0.0:
             tk = temp + zero_Celsius
             tk3 = tk * tk * tk
@@ -483,7 +484,7 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
         num, den = loss_side + loss_tip, ideal_side + ideal_tip
     else:  # prescribed or infinite tip: the lateral loss on the stated length (at most 1)
         num, den = loss_side, ideal_side
-    efficiency = num / den if den != 0.0 else float("nan")  # base at ambient: undefined
+    efficiency = num / den if den != 0.0 else float("nan")  # base at temp_fluid: undefined
     scale = max(abs(q_base), abs(loss_side), abs(loss_tip), np.finfo(float).tiny)
     residual = (q_base - loss_side - loss_tip) / scale
     return {"sol": sol, "q": q_base, "loss_side": loss_side, "loss_tip": loss_tip,

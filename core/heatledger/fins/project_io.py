@@ -17,8 +17,8 @@ Schema (one ``[[fins]]`` table per fin or finned surface)::
     material = "aluminium alloy"       # a library material name, or:
     # conductivity = 160.0             # W/(m K) (one of material / conductivity)
     h = 12.0                           # W/(m2 K), convection coefficient on the fin
-    base_temperature = 70.0            # degC, temperature of the fin base
-    ambient = 40.0                     # degC, fluid (air) temperature
+    temp_base = 70.0            # degC, temperature of the fin base
+    temp_fluid = 40.0                     # degC, fluid (air) temperature
     # straight fins:
     length_mm = 40.0                   # base to tip
     thickness_mm = 2.0                 # plate fin (or diameter_mm = 6.0 for a pin fin)
@@ -44,7 +44,7 @@ Schema (one ``[[fins]]`` table per fin or finned surface)::
       [fins.fv]                        # optional finite-volume settings
       cells = 40                       # control volumes (default 40, at most 500)
       emissivity = 0.0                 # radiation to surroundings (default 0 = none)
-      temp_surroundings = 40.0         # degC, radiating surroundings (default ambient)
+      temp_surroundings = 40.0         # degC, radiating surroundings (default temp_fluid)
       h_coefficient = 3.0              # with h_exponent: h = C |T - T_inf|^n in the FV
       h_exponent = 0.25                # solution (natural convection), replacing h
 """
@@ -115,7 +115,7 @@ class FinEntry:
         One fin, SI units.
     array : FinArray or None
         The fins on their base when ``[fins.array]`` is given.
-    base_temperature, ambient : float
+    temp_base, temp_fluid : float
         Base and fluid temperatures. [degC]
     fv : FinFVSettings
         Finite-volume settings.
@@ -133,8 +133,8 @@ class FinEntry:
     name: str
     fin: object
     array: FinArray | None
-    base_temperature: float
-    ambient: float
+    temp_base: float
+    temp_fluid: float
     fv: FinFVSettings
     target_heat_rate: float | None
     material: object
@@ -149,19 +149,19 @@ class FinEntry:
 
     def evaluate(self):
         """Closed-form result of one fin (:class:`~heatledger.fins.FinResult`)."""
-        return self.fin.evaluate(self.base_temperature, self.ambient)
+        return self.fin.evaluate(self.temp_base, self.temp_fluid)
 
     def evaluate_array(self):
         """Array result (:class:`~heatledger.fins.FinArrayResult`) or None."""
         if self.array is None:
             return None
-        return self.array.evaluate(self.base_temperature, self.ambient)
+        return self.array.evaluate(self.temp_base, self.temp_fluid)
 
     def finite_volume(self):
         """Finite-volume result of one fin with this entry's settings
         (:class:`~heatledger.fins.FinFVResult`)."""
         s = self.fv
-        return self.fin.finite_volume(self.base_temperature, self.ambient, nodes=s.cells,
+        return self.fin.finite_volume(self.temp_base, self.temp_fluid, nodes=s.cells,
                                       h=s.h_law, emissivity=s.emissivity,
                                       temp_surroundings=s.temp_surroundings)
 
@@ -174,7 +174,7 @@ class FinEntry:
         for key, method in (("length", self.array.length_for_heat_rate),
                             ("count", self.array.count_for_heat_rate)):
             try:
-                out[key] = method(self.target_heat_rate, self.base_temperature, self.ambient)
+                out[key] = method(self.target_heat_rate, self.temp_base, self.temp_fluid)
             except HeatLedgerError as exc:
                 out[key] = str(exc)
         return out
@@ -250,9 +250,9 @@ def fin_results(entries) -> list:
                                "unit": "mm" if key == "length" else "-"}
         out.append({
             "name": e.name, "kind": e.kind, "method": res.method,
-            "base_temperature": e.base_temperature, "ambient": e.ambient,
+            "temp_base": e.temp_base, "temp_fluid": e.temp_fluid,
             "heat_rate": res.heat_rate, "efficiency": res.efficiency,
-            "effectiveness": res.effectiveness, "resistance": res.resistance,
+            "effectiveness": res.effectiveness, "fin_resistance": res.fin_resistance,
             "tip_temperature": res.tip_temperature,
             "fv": {"heat_rate": fv.heat_rate, "tip_temperature": fv.tip_temperature,
                    "energy_residual": fv.energy_residual,
@@ -261,7 +261,7 @@ def fin_results(entries) -> list:
                    "nonlinear": e.fv.nonlinear},
             "array": None if arr is None else {
                 "count": arr.count, "heat_rate": arr.heat_rate,
-                "overall_efficiency": arr.overall_efficiency, "resistance": arr.resistance,
+                "overall_efficiency": arr.overall_efficiency, "fin_resistance": arr.fin_resistance,
                 "target_heat_rate": e.target_heat_rate},
             "sizing": sizing, "warnings": warns, "notes": list(res.notes),
         })
@@ -272,7 +272,7 @@ def fin_results(entries) -> list:
 def _entry(row, where, library, problems):
     if not isinstance(row, dict):
         problems.append((where, "must be a table with name, kind, material or conductivity, "
-                         "h, base_temperature, ambient and the dimensions"))
+                         "h, temp_base, temp_fluid and the dimensions"))
         return None
     start = len(problems)
     name = row.get("name")
@@ -289,8 +289,8 @@ def _entry(row, where, library, problems):
     unknown(row, FIN_KEYS[kind], where, problems)
     material, k = _conductivity(row, where, library, problems)
     h = number(row, "h", where, problems, required=True, positive=True, limit="h")
-    t_b = number(row, "base_temperature", where, problems, required=True, above_absolute_zero=True)
-    t_inf = number(row, "ambient", where, problems, required=True, above_absolute_zero=True)
+    t_b = number(row, "temp_base", where, problems, required=True, above_absolute_zero=True)
+    t_inf = number(row, "temp_fluid", where, problems, required=True, above_absolute_zero=True)
     corrected = row.get("corrected_length", False)
     if not isinstance(corrected, bool):
         problems.append((f"{where}.corrected_length", f"must be true or false; got "
@@ -327,8 +327,8 @@ def _entry(row, where, library, problems):
         problems.append((f"{where}.fv.h_coefficient", 'tip = "infinite" takes only the fin\'s '
                          "constant h; use a finite tip with h_coefficient"))
         return None
-    return FinEntry(name=name.strip(), fin=fin, array=array, base_temperature=t_b,
-                    ambient=t_inf, fv=fv, target_heat_rate=target, material=material,
+    return FinEntry(name=name.strip(), fin=fin, array=array, temp_base=t_b,
+                    temp_fluid=t_inf, fv=fv, target_heat_rate=target, material=material,
                     row=row, where=where, notes=notes if isinstance(notes, str) else "")
 
 

@@ -338,7 +338,7 @@ def _factor(ctx, b, ti, te, room_temps, own_name):
         if te is None:
             raise HeatLedgerError(
                 f"{ctx}: {what} is expressed as a coefficient only at a design external "
-                "temperature; give the room's (or building's) design_external_temperature"
+                "temperature; give the room's (or building's) temp_outside"
             )
         return te
 

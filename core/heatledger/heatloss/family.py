@@ -65,7 +65,7 @@ def results(project) -> dict:
         return {}
     res = bi.heat_load()
     per_room = bi.room_annual_energy()
-    rooms = [{"name": r.room, "temp_inside": r.internal_temperature,
+    rooms = [{"name": r.room, "temp_inside": r.temp_inside,
               "transmission_coefficient": r.transmission_coefficient,
               "internal_exchange_coefficient": r.internal_exchange_coefficient,
               "ventilation_coefficient": r.ventilation_coefficient,
@@ -73,17 +73,17 @@ def results(project) -> dict:
               "design_heat_load": r.design_heat_load, "reheat_allowance": r.reheat_allowance,
               "annual_energy_kwh": per_room[r.room].energy if per_room else None,
               "lines": [{"name": ln.name, "kind": ln.kind, "boundary": ln.boundary,
-                         "coefficient": ln.coefficient, "heat_flow": ln.heat_flow,
+                         "coefficient": ln.coefficient, "heat_loss": ln.heat_loss,
                          "share": ln.share} for ln in r.lines]}
              for r in res.rooms]
     ann = bi.annual_energy()
     return {"rooms": rooms, "building": {
-        "name": res.name, "temp_outside": res.external_temperature,
+        "name": res.name, "temp_outside": res.temp_outside,
         "transmission_coefficient": res.transmission_coefficient,
         "ventilation_coefficient": res.ventilation_coefficient,
         "heat_loss_coefficient": res.heat_loss_coefficient,
         "design_heat_load": res.design_heat_load, "by_kind": dict(res.by_kind),
-        "degree_days": bi.degree_days, "degree_day_base": bi.base_temperature,
+        "degree_days": bi.degree_days, "degree_day_base": bi.degree_day_base,
         "annual_energy_kwh": None if ann is None else ann.energy}}
 
 

@@ -91,11 +91,11 @@ class BuildingInput:
     ----------
     building : Building
         Rooms, constructions and the design external temperature. [-]
-    external_temperature : float
+    temp_outside : float
         Design external temperature ``theta_e``. [degC]
     degree_days : float or None
         Heating degree-days for the annual energy. [K day]
-    base_temperature : float or None
+    degree_day_base : float or None
         Base temperature of the degree-days. [degC]
     annual_mean_external_temperature : float or None
         ``theta_m,e`` for ground elements. [degC]
@@ -112,9 +112,9 @@ class BuildingInput:
     """
 
     building: Building
-    external_temperature: float
+    temp_outside: float
     degree_days: float | None = None
-    base_temperature: float | None = None
+    degree_day_base: float | None = None
     annual_mean_external_temperature: float | None = None
     groundwater: str = "deep"
     f_g1: float = GROUND_FACTOR_FG1
@@ -128,8 +128,8 @@ class BuildingInput:
         return self.building.rooms
 
     def heat_load(self):
-        """Design heat load at :attr:`external_temperature`. [-]"""
-        return self.building.heat_load(self.external_temperature)
+        """Design heat load at :attr:`temp_outside`. [-]"""
+        return self.building.heat_load(self.temp_outside)
 
     def annual_energy(self):
         """Building :class:`~heatledger.heatloss.AnnualEnergy`, or None without
@@ -137,14 +137,14 @@ class BuildingInput:
         if self.degree_days is None:
             return None
         return self.building.annual_energy_result(self.degree_days,
-                                                  base_temperature=self.base_temperature)
+                                                  degree_day_base=self.degree_day_base)
 
     def room_annual_energy(self) -> dict:
         """Per-room annual energy (empty without degree-days). [-]"""
         if self.degree_days is None:
             return {}
         return self.building.room_annual_energy(self.degree_days,
-                                                base_temperature=self.base_temperature)
+                                                degree_day_base=self.degree_day_base)
 
 
 def building_from_dict(data, constructions, library, temp_inside, temp_outside, problems):
@@ -215,16 +215,16 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
     try:
         building = Building(bname, rooms, constructions={k: v for k, v in constructions.items()
                                                          if v is not None},
-                            design_external_temperature=temp_outside)
+                            temp_outside=temp_outside)
         load = building.heat_load(temp_outside)
     except HeatLedgerError as exc:
         problems.append(("rooms", str(exc)))
         return None
     warnings = [(where.get((r.room, None), "rooms"), text) for r in load.rooms
                 for text in r.warnings]
-    return BuildingInput(building=building, external_temperature=float(temp_outside),
+    return BuildingInput(building=building, temp_outside=float(temp_outside),
                          degree_days=settings["degree_days"],
-                         base_temperature=settings["degree_day_base"],
+                         degree_day_base=settings["degree_day_base"],
                          annual_mean_external_temperature=settings["theta_me"],
                          groundwater=settings["groundwater"], f_g1=settings["f_g1"],
                          groundwater_factor=settings["g_w"], where=where, warnings=warnings)
@@ -312,7 +312,7 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
     try:
         return Room(name, ti, volume, elements, vent, thermal_bridges=bridges,
                     floor_area=floor_area, reheat_factor=reheat,
-                    design_external_temperature=ctx.temp_outside)
+                    temp_outside=ctx.temp_outside)
     except HeatLedgerError as exc:
         problems.append((where, str(exc)))
         return None

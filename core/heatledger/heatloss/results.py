@@ -40,7 +40,7 @@ class LossLine:
         How the factor was found. [-]
     coefficient : float
         Heat-loss coefficient of the line (0 for reheat). [W/K]
-    heat_flow : float
+    heat_loss : float
         Heat flow at the external temperature of the result. [W]
     share : float
         Share of the design heat load of the room (or building). [-]
@@ -63,7 +63,7 @@ class LossLine:
     factor: float
     factor_rule: str
     coefficient: float
-    heat_flow: float
+    heat_loss: float
     share: float
     internal: bool
     source: str
@@ -77,7 +77,7 @@ class RoomHeatLoad:
     ----------
     room : str
         Room name. [-]
-    internal_temperature, external_temperature : float
+    temp_inside, temp_outside : float
         Design temperatures. [degC]
     temperature_difference : float
         ``theta_int - theta_e``. [K]
@@ -101,8 +101,8 @@ class RoomHeatLoad:
     """
 
     room: str
-    internal_temperature: float
-    external_temperature: float
+    temp_inside: float
+    temp_outside: float
     temperature_difference: float
     transmission_coefficient: float
     internal_exchange_coefficient: float
@@ -126,7 +126,7 @@ class BuildingHeatLoad:
     ----------
     name : str
         Building name. [-]
-    external_temperature : float
+    temp_outside : float
         Design external temperature. [degC]
     rooms : tuple of RoomHeatLoad
         Per-room results (internal exchange included, as a room sees it). [-]
@@ -142,7 +142,7 @@ class BuildingHeatLoad:
         ``H_T + H_V``. [W/K]
     rooms_design_heat_load : float
         Sum of the rooms' design heat loads. [W]
-    internal_exchange_heat_flow : float
+    internal_exchange_heat_loss : float
         Net heat flow between rooms of this building, as summed over rooms. [W]
     transmission_heat_loss, ventilation_heat_loss, reheat_allowance : float
         Building totals. [W]
@@ -159,7 +159,7 @@ class BuildingHeatLoad:
     """
 
     name: str
-    external_temperature: float
+    temp_outside: float
     rooms: tuple[RoomHeatLoad, ...]
     rooms_transmission_coefficient: float
     internal_exchange_coefficient: float
@@ -167,7 +167,7 @@ class BuildingHeatLoad:
     ventilation_coefficient: float
     heat_loss_coefficient: float
     rooms_design_heat_load: float
-    internal_exchange_heat_flow: float
+    internal_exchange_heat_loss: float
     transmission_heat_loss: float
     ventilation_heat_loss: float
     reheat_allowance: float
@@ -192,7 +192,7 @@ class AnnualEnergy:
         Its parts. [W/K]
     degree_days : float
         Heating degree-days. [K day]
-    base_temperature : float or None
+    degree_day_base : float or None
         Base temperature of the degree-days, as stated by the user (None: not stated). [degC]
     energy : float
         ``Q = 24 H DD / 1000``. [kWh]
@@ -205,7 +205,7 @@ class AnnualEnergy:
     transmission_coefficient: float
     ventilation_coefficient: float
     degree_days: float
-    base_temperature: float | None
+    degree_day_base: float | None
     energy: float
     provenance: tuple[str, ...]
 

@@ -49,7 +49,7 @@ class Room:
     ----------
     name : str
         Room name, unique within a building. [-]
-    internal_temperature : float
+    temp_inside : float
         Design internal temperature ``theta_int``. [degC]
     volume : float
         Internal air volume ``V``. [m3]
@@ -64,7 +64,7 @@ class Room:
     reheat_factor : float, optional
         Heating-up (reheat) factor ``f_RH``, from a national table by reheat time and
         temperature drop; 0 for none. [W/m2]
-    design_external_temperature : float, optional
+    temp_outside : float, optional
         Design external temperature ``theta_e`` at which ``transmission_coefficient`` is
         stated; needed when a boundary is given by temperature or is the ground. [degC]
     constructions : mapping, optional
@@ -72,14 +72,14 @@ class Room:
     """
 
     name: str
-    internal_temperature: float
+    temp_inside: float
     volume: float
     elements: Sequence[Element]
     ventilation: Ventilation
     thermal_bridges: Sequence[LinearBridge | PointBridge] = ()
     floor_area: float = 0.0
     reheat_factor: float = 0.0
-    design_external_temperature: float | None = None
+    temp_outside: float | None = None
     constructions: Mapping[str, Any] | None = field(default=None, compare=False)
 
     def __post_init__(self) -> None:
@@ -87,9 +87,9 @@ class Room:
             raise HeatLedgerError(f"room name must be a non-empty text; got "
                                   f"{_show(self.name)}")
         ctx = f"room {_show(self.name)}"
-        object.__setattr__(self, "internal_temperature",
-                           _validate.within(f"{ctx}: internal_temperature",
-                                            self.internal_temperature, "temperature"))
+        object.__setattr__(self, "temp_inside",
+                           _validate.within(f"{ctx}: temp_inside",
+                                            self.temp_inside, "temperature"))
         volume = _validate.positive(f"{ctx}: volume", self.volume, "m3")
         object.__setattr__(self, "volume", _validate.within(f"{ctx}: volume", volume, "volume"))
         floor = _validate.non_negative(f"{ctx}: floor_area", self.floor_area, "m2")
@@ -102,10 +102,10 @@ class Room:
                 f"{ctx}: a reheat_factor of {self.reheat_factor:g} W/m2 needs the floor_area "
                 "it applies to; got floor_area 0 m2"
             )
-        if self.design_external_temperature is not None:
-            te = _validate.within(f"{ctx}: design_external_temperature",
-                                  self.design_external_temperature, "temperature")
-            object.__setattr__(self, "design_external_temperature", te)
+        if self.temp_outside is not None:
+            te = _validate.within(f"{ctx}: temp_outside",
+                                  self.temp_outside, "temperature")
+            object.__setattr__(self, "temp_outside", te)
         if not isinstance(self.ventilation, Ventilation):
             raise HeatLedgerError(
                 f"{ctx}: ventilation must be a Ventilation; got {_show(self.ventilation)}"
@@ -125,8 +125,8 @@ class Room:
 
     @property
     def transmission_coefficient(self) -> float:
-        """``H_T`` at :attr:`design_external_temperature`. [W/K]"""
-        return self._evaluate(self.design_external_temperature, None, None).transmission_coefficient
+        """``H_T`` at :attr:`temp_outside`. [W/K]"""
+        return self._evaluate(self.temp_outside, None, None).transmission_coefficient
 
     @property
     def ventilation_coefficient(self) -> float:
@@ -148,12 +148,12 @@ class Room:
         """
         return _ventilation(self.ventilation, self.volume)
 
-    def heat_load(self, external_temperature) -> RoomHeatLoad:
+    def heat_load(self, temp_outside) -> RoomHeatLoad:
         """Design heat load of this room alone, with every step.
 
         Parameters
         ----------
-        external_temperature : float
+        temp_outside : float
             Design external temperature ``theta_e``. [degC]
 
         Returns
@@ -188,15 +188,15 @@ class Room:
         ----------
         EN 12831-1:2017, clause 6 [M: recalled].
         """
-        te = _validate.finite("external_temperature", external_temperature)
+        te = _validate.finite("temp_outside", temp_outside)
         return self._evaluate(te, None, None)
 
-    def design_heat_load(self, external_temperature) -> float:
+    def design_heat_load(self, temp_outside) -> float:
         """Design heat load ``Phi_HL`` of this room.
 
         Parameters
         ----------
-        external_temperature : float
+        temp_outside : float
             Design external temperature. [degC]
 
         Returns
@@ -209,16 +209,16 @@ class Room:
         HeatLedgerError
             As :meth:`heat_load`.
         """
-        return self.heat_load(external_temperature).design_heat_load
+        return self.heat_load(temp_outside).design_heat_load
 
-    def annual_energy_result(self, degree_days, *, base_temperature=None) -> AnnualEnergy:
+    def annual_energy_result(self, degree_days, *, degree_day_base=None) -> AnnualEnergy:
         """Annual heating energy of this room from heating degree-days, with provenance.
 
         Parameters
         ----------
         degree_days : float
             Heating degree-days on the base appropriate to the room. [K day]
-        base_temperature : float, optional
+        degree_day_base : float, optional
             Base temperature of the degree-days, recorded in the result. [degC]
 
         Returns
@@ -228,16 +228,16 @@ class Room:
         """
         h_t = self.transmission_coefficient
         return _annual(self.name, h_t, self.ventilation_coefficient, degree_days,
-                       base_temperature, self.design_external_temperature)
+                       degree_day_base, self.temp_outside)
 
-    def annual_energy(self, degree_days, *, base_temperature=None) -> float:
+    def annual_energy(self, degree_days, *, degree_day_base=None) -> float:
         """Annual heating energy of this room from heating degree-days.
 
         Parameters
         ----------
         degree_days : float
             Heating degree-days. [K day]
-        base_temperature : float, optional
+        degree_day_base : float, optional
             Base temperature of the degree-days, recorded by
             :meth:`annual_energy_result`. [degC]
 
@@ -246,16 +246,16 @@ class Room:
         float
             ``Q = 24 H DD / 1000``. [kWh]
         """
-        return self.annual_energy_result(degree_days, base_temperature=base_temperature).energy
+        return self.annual_energy_result(degree_days, degree_day_base=degree_day_base).energy
 
     # -- the evaluation proper
 
     def _evaluate(self, te, room_temps, building_constructions) -> RoomHeatLoad:
         ctx = f"room {_show(self.name)}"
-        ti = self.internal_temperature
+        ti = self.temp_inside
         if te is not None and not te < ti:
             raise HeatLedgerError(
-                f"{ctx}: external_temperature {te:g} degC must be below the internal "
+                f"{ctx}: temp_outside {te:g} degC must be below the internal "
                 f"temperature {ti:g} degC for a design heat load"
             )
         lines: list[dict] = []
@@ -303,14 +303,14 @@ class Room:
                           internal=False, source="input f_RH"))
         dt = math.nan if te is None else ti - te
         for ln in lines:
-            ln["heat_flow"] = reheat if ln["category"] == "reheat" else ln["coefficient"] * dt
+            ln["heat_loss"] = reheat if ln["category"] == "reheat" else ln["coefficient"] * dt
         h_t = math.fsum(ln["coefficient"] for ln in lines if ln["category"] == "transmission")
         h_int = math.fsum(ln["coefficient"] for ln in lines if ln["internal"])
         phi_t = h_t * dt
         phi_v = vent.coefficient * dt
         total = phi_t + phi_v + reheat
         frozen = tuple(
-            LossLine(room=self.name, share=_share(ln["heat_flow"], total), **ln) for ln in lines
+            LossLine(room=self.name, share=_share(ln["heat_loss"], total), **ln) for ln in lines
         )
         prov = (
             f"design external temperature: {_temp_text(te)}; internal {ti:g} degC",
@@ -323,7 +323,7 @@ class Room:
             "heating-up: none (f_RH 0)",
         )
         return RoomHeatLoad(
-            room=self.name, internal_temperature=ti, external_temperature=te,
+            room=self.name, temp_inside=ti, temp_outside=te,
             temperature_difference=dt, transmission_coefficient=h_t,
             internal_exchange_coefficient=h_int, ventilation_coefficient=vent.coefficient,
             heat_loss_coefficient=h_t + vent.coefficient, transmission_heat_loss=phi_t,
@@ -349,7 +349,7 @@ class Building:
     constructions : mapping, optional
         Constructions by name for elements whose ``u`` is a name (looked up after the room's
         own mapping; a name in both must be the same object). [-]
-    design_external_temperature : float, optional
+    temp_outside : float, optional
         Design external temperature at which the coefficients are stated; rooms that state
         their own must agree with it. [degC]
     """
@@ -357,7 +357,7 @@ class Building:
     name: str
     rooms: Sequence[Room]
     constructions: Mapping[str, Any] | None = field(default=None, compare=False)
-    design_external_temperature: float | None = None
+    temp_outside: float | None = None
 
     def __post_init__(self) -> None:
         rooms = tuple(self.rooms)
@@ -375,12 +375,12 @@ class Building:
                                       "unique")
             names.add(r.name)
         object.__setattr__(self, "rooms", rooms)
-        temps = {r.design_external_temperature for r in rooms} - {None}
-        te = self.design_external_temperature
+        temps = {r.temp_outside for r in rooms} - {None}
+        te = self.temp_outside
         if te is not None:
-            te = _validate.within(f"building {_show(self.name)}: design_external_temperature",
+            te = _validate.within(f"building {_show(self.name)}: temp_outside",
                                   te, "temperature")
-            object.__setattr__(self, "design_external_temperature", te)
+            object.__setattr__(self, "temp_outside", te)
             temps.add(te)
         if len(temps) > 1:
             raise HeatLedgerError(
@@ -389,7 +389,7 @@ class Building:
                 "building has one design value"
             )
         object.__setattr__(self, "_te", temps.pop() if temps else None)
-        temps_by_room = {r.name: r.internal_temperature for r in rooms}
+        temps_by_room = {r.name: r.temp_inside for r in rooms}
         object.__setattr__(self, "_room_temps", temps_by_room)
 
     @property
@@ -407,12 +407,12 @@ class Building:
         """``H_T + H_V``. [W/K]"""
         return self.transmission_coefficient + self.ventilation_coefficient
 
-    def heat_load(self, external_temperature) -> BuildingHeatLoad:
+    def heat_load(self, temp_outside) -> BuildingHeatLoad:
         """Design heat load of the building and of every room, with every step.
 
         Parameters
         ----------
-        external_temperature : float
+        temp_outside : float
             Design external temperature. [degC]
 
         Returns
@@ -440,15 +440,15 @@ class Building:
         ----------
         EN 12831-1:2017, clause 6 (building heat load) [M].
         """
-        te = _validate.finite("external_temperature", external_temperature)
+        te = _validate.finite("temp_outside", temp_outside)
         return self._evaluate(te)
 
-    def design_heat_load(self, external_temperature) -> float:
+    def design_heat_load(self, temp_outside) -> float:
         """Building design heat load.
 
         Parameters
         ----------
-        external_temperature : float
+        temp_outside : float
             Design external temperature. [degC]
 
         Returns
@@ -456,16 +456,16 @@ class Building:
         float
             Design heat load of the building. [W]
         """
-        return self.heat_load(external_temperature).design_heat_load
+        return self.heat_load(temp_outside).design_heat_load
 
-    def annual_energy_result(self, degree_days, *, base_temperature=None) -> AnnualEnergy:
+    def annual_energy_result(self, degree_days, *, degree_day_base=None) -> AnnualEnergy:
         """Annual heating energy of the building from heating degree-days, with provenance.
 
         Parameters
         ----------
         degree_days : float
             Heating degree-days. [K day]
-        base_temperature : float, optional
+        degree_day_base : float, optional
             Base temperature of the degree-days, recorded in the result. [degC]
 
         Returns
@@ -474,16 +474,16 @@ class Building:
             ``Q = 24 H DD / 1000`` with the building's coefficients. [-]
         """
         return _annual(self.name, self.transmission_coefficient, self.ventilation_coefficient,
-                       degree_days, base_temperature, self._te)  # type: ignore[attr-defined]
+                       degree_days, degree_day_base, self._te)  # type: ignore[attr-defined]
 
-    def annual_energy(self, degree_days, *, base_temperature=None) -> float:
+    def annual_energy(self, degree_days, *, degree_day_base=None) -> float:
         """Annual heating energy of the building from heating degree-days.
 
         Parameters
         ----------
         degree_days : float
             Heating degree-days. [K day]
-        base_temperature : float, optional
+        degree_day_base : float, optional
             Base temperature of the degree-days. [degC]
 
         Returns
@@ -491,16 +491,16 @@ class Building:
         float
             ``Q = 24 H DD / 1000``. [kWh]
         """
-        return self.annual_energy_result(degree_days, base_temperature=base_temperature).energy
+        return self.annual_energy_result(degree_days, degree_day_base=degree_day_base).energy
 
-    def room_annual_energy(self, degree_days, *, base_temperature=None) -> dict:
+    def room_annual_energy(self, degree_days, *, degree_day_base=None) -> dict:
         """Annual heating energy of every room, with the room-to-room exchange resolved.
 
         Parameters
         ----------
         degree_days : float
             Heating degree-days. [K day]
-        base_temperature : float, optional
+        degree_day_base : float, optional
             Base temperature of the degree-days. [degC]
 
         Returns
@@ -512,7 +512,7 @@ class Building:
         result = self._evaluate(self._te)  # type: ignore[attr-defined]
         return {
             r.room: _annual(r.room, r.transmission_coefficient, r.ventilation_coefficient,
-                            degree_days, base_temperature, self._te)  # type: ignore[attr-defined]
+                            degree_days, degree_day_base, self._te)  # type: ignore[attr-defined]
             for r in result.rooms
         }
 
@@ -524,7 +524,7 @@ class Building:
         h_sum = math.fsum(r.transmission_coefficient for r in results)
         h_int = math.fsum(r.internal_exchange_coefficient for r in results)
         h_v = math.fsum(r.ventilation_coefficient for r in results)
-        q_int = math.fsum(ln.heat_flow for r in results for ln in r.lines if ln.internal)
+        q_int = math.fsum(ln.heat_loss for r in results for ln in r.lines if ln.internal)
         phi_t = math.fsum(r.transmission_heat_loss for r in results) - q_int
         phi_v = math.fsum(r.ventilation_heat_loss for r in results)
         reheat = math.fsum(r.reheat_allowance for r in results)
@@ -534,7 +534,7 @@ class Building:
         )
         by_kind: dict[str, float] = {}
         for ln in lines:
-            by_kind[ln.kind] = by_kind.get(ln.kind, 0.0) + ln.heat_flow
+            by_kind[ln.kind] = by_kind.get(ln.kind, 0.0) + ln.heat_loss
         prov = (
             f"building {_show(self.name)}: {len(results)} rooms, design external temperature "
             f"{_temp_text(te)}",
@@ -545,12 +545,12 @@ class Building:
             results[0].provenance[3],
         )
         return BuildingHeatLoad(
-            name=self.name, external_temperature=te, rooms=results,
+            name=self.name, temp_outside=te, rooms=results,
             rooms_transmission_coefficient=h_sum, internal_exchange_coefficient=h_int,
             transmission_coefficient=h_sum - h_int, ventilation_coefficient=h_v,
             heat_loss_coefficient=h_sum - h_int + h_v,
             rooms_design_heat_load=math.fsum(r.design_heat_load for r in results),
-            internal_exchange_heat_flow=q_int, transmission_heat_loss=phi_t,
+            internal_exchange_heat_loss=q_int, transmission_heat_loss=phi_t,
             ventilation_heat_loss=phi_v, reheat_allowance=reheat, design_heat_load=total,
             lines=lines, by_kind=by_kind, provenance=prov,
             warnings=tuple(dict.fromkeys(w for r in results for w in r.warnings)),
@@ -570,13 +570,13 @@ def _share(value: float, total: float) -> float:
 
 
 def _replace_share(line: LossLine, total: float) -> LossLine:
-    return replace(line, share=_share(line.heat_flow, total))
+    return replace(line, share=_share(line.heat_loss, total))
 
 
-def _annual(subject, h_t, h_v, degree_days, base_temperature, te) -> AnnualEnergy:
+def _annual(subject, h_t, h_v, degree_days, degree_day_base, te) -> AnnualEnergy:
     dd = _validate.non_negative("degree_days", degree_days, "K day")
-    base = None if base_temperature is None else _validate.finite("base_temperature",
-                                                                  base_temperature)
+    base = None if degree_day_base is None else _validate.finite("degree_day_base",
+                                                                  degree_day_base)
     h = h_t + h_v
     energy = 24.0 * h * dd / 1000.0
     base_text = (f"base temperature {base:g} degC (as stated)" if base is not None else
@@ -590,7 +590,7 @@ def _annual(subject, h_t, h_v, degree_days, base_temperature, te) -> AnnualEnerg
         "deducted (allow for them through the base temperature)",
     )
     return AnnualEnergy(subject=subject, heat_loss_coefficient=h, transmission_coefficient=h_t,
-                        ventilation_coefficient=h_v, degree_days=dd, base_temperature=base,
+                        ventilation_coefficient=h_v, degree_days=dd, degree_day_base=base,
                         energy=energy, provenance=prov)
 
 

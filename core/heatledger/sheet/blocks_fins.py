@@ -92,10 +92,10 @@ class FinRefs:
     Attributes
     ----------
     sheet, name : str
-    heat_rate, efficiency, effectiveness, resistance, tip_temperature : str
+    heat_rate, efficiency, effectiveness, fin_resistance, tip_temperature : str
         Closed-form results of one fin.
     array : dict
-        ``heat_rate``, ``overall_efficiency``, ``resistance`` of the array (empty without).
+        ``heat_rate``, ``overall_efficiency``, ``fin_resistance`` of the array (empty without).
     checks_ok : str
     check_count : int
     extras : dict
@@ -107,7 +107,7 @@ class FinRefs:
     heat_rate: str
     efficiency: str
     effectiveness: str
-    resistance: str
+    fin_resistance: str
     tip_temperature: str
     checks_ok: str
     check_count: int
@@ -201,10 +201,10 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
     sheet.merges.append("C4:E4")  # wraps in the room left of the check counts
     w.row = 5
     w.put(2, "Base temperature T_b [degC]")
-    r = {"tb": w.put(3, float(entry.base_temperature), role="input", fmt="0.00")}
+    r = {"tb": w.put(3, float(entry.temp_base), role="input", fmt="0.00")}
     w.row = 6
     w.put(2, "Fluid temperature T_inf [degC]")
-    r["tinf"] = w.put(3, float(entry.ambient), role="input", fmt="0.00")
+    r["tinf"] = w.put(3, float(entry.temp_fluid), role="input", fmt="0.00")
     w.row = 7
     w.put(2, "Base excess temperature θ_b = T_b − T_inf [K]")
     r["theta"] = w.put(3, formula=f"={r['tb']}-{r['tinf']}", fmt="0.00")
@@ -269,14 +269,14 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
     s = sheet_name
     return FinRefs(sheet=s, name=entry.name, heat_rate=sheet_ref(s, r["q"]),
                    efficiency=sheet_ref(s, r["eta"]), effectiveness=sheet_ref(s, r["eps"]),
-                   resistance=sheet_ref(s, r["R"]), tip_temperature=sheet_ref(s, r["tip"]),
+                   fin_resistance=sheet_ref(s, r["R"]), tip_temperature=sheet_ref(s, r["tip"]),
                    checks_ok=sheet_ref(s, ok), check_count=w.checks,
                    array={k: sheet_ref(s, v) for k, v in array_refs.items()},
                    extras={"profile": profile, "fv": fv_rows})
 
 
 def _profile_table(w, r, fin, entry):
-    temps = fin.temperatures(entry.base_temperature, entry.ambient, points=PROFILE_POINTS)
+    temps = fin.temperatures(entry.temp_base, entry.temp_fluid, points=PROFILE_POINTS)
     annular = isinstance(fin, AnnularFin)
     w.start("profile", "Temperature along the fin (closed form)")
     w.headers(["Point", "s [-]", "r [mm]" if annular else "x [mm]", "θ/θ_b [-]", "T [degC]",
@@ -323,7 +323,7 @@ def _array(w, r, entry):
                    formula=f"=1-{n}*{r['Af']}/{at}*(1-{g_f}/({r['h']}*{r['Af']})/{c1})",
                    engine=res.overall_efficiency, note="eqs. 3.107 and 3.110")
     res_o = w.line("R_t,o = 1/(η_o h A_t) [K/W]", formula=f"=1/({eta_o}*{r['h']}*{at})",
-                   engine=res.resistance, note="eq. 3.108")
+                   engine=res.fin_resistance, note="eq. 3.108")
     q_t = w.line("q_t = θ_b/R_t,o [W]", formula=f"={r['theta']}/{res_o}", engine=res.heat_rate)
     w.line("q per fin = (η_f/C_1) h A_f θ_b [W]",
            formula=f"={g_f}/{c1}*{r['theta']}", engine=res.fin_heat_rate)
@@ -353,7 +353,7 @@ def _array(w, r, entry):
             w.checks += 1
             w.put(12, formula=chk, role="check")
             w.row += 1
-    return {"heat_rate": q_t, "overall_efficiency": eta_o, "resistance": res_o}
+    return {"heat_rate": q_t, "overall_efficiency": eta_o, "fin_resistance": res_o}
 
 
 # --------------------------------------------------------------------------- finite volumes
@@ -378,8 +378,8 @@ def _fv(w, r, fin, entry):
                 fmt=F_E)
     law = st["h_law"]
     w.stated("convection law in the finite volumes", law if law == "constant" else
-             f"{law}: C = {st['h_parameters']['coefficient']:g}, n = "
-             f"{st['h_parameters']['exponent']:g}")
+             f"{law}: C = {st['h_parameters']['h_coefficient']:g}, n = "
+             f"{st['h_parameters']['h_exponent']:g}")
     w.stated("emissivity for radiation to the surroundings [-]", st["emissivity"], "0.000")
     w.stated("linearisation; iterations; tolerance [K]",
              f"{st['linearisation']}; {fv.iterations}; {st['tolerance_K']:g}")
@@ -524,7 +524,7 @@ def _fv_geometry(fin, r, xc: str) -> tuple[str, str]:
 def _loss(fin, r, entry, temp: str, p_dx: str, sig, t_sur) -> str:
     theta = f"({temp}-{r['tinf']})"
     law = entry.fv.h_law
-    conv = (f"{law.coefficient!r}*ABS({theta})^{law.exponent!r}*{theta}" if law is not None
+    conv = (f"{law.h_coefficient!r}*ABS({theta})^{law.h_exponent!r}*{theta}" if law is not None
             else f"{r['h']}*{theta}")
     if entry.fv.emissivity > 0.0:
         tk = f"({temp}+{zero_Celsius!r})"
@@ -556,11 +556,11 @@ def _overview(sheet, entries, refs) -> dict:
         b.put(f"B{row}", entry.name, style="hl text")
         b.put(f"C{row}", ref.sheet, style="hl text")
         for col, target, fmt in (("D", ref.heat_rate, F_T), ("E", ref.efficiency, F_T),
-                                 ("F", ref.effectiveness, "0.00"), ("G", ref.resistance, F_T),
+                                 ("F", ref.effectiveness, "0.00"), ("G", ref.fin_resistance, F_T),
                                  ("H", ref.tip_temperature, "0.00"),
                                  ("I", ref.array.get("heat_rate"), "0.00"),
                                  ("J", ref.array.get("overall_efficiency"), F_T),
-                                 ("K", ref.array.get("resistance"), F_T)):
+                                 ("K", ref.array.get("fin_resistance"), F_T)):
             if target:
                 b.put(f"{col}{row}", formula=f"={target}", number_format=fmt)
         b.put(f"L{row}", ref.check_count, role="engine", number_format="0")

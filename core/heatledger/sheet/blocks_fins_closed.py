@@ -184,7 +184,8 @@ def _straight(w, r, fin, res):
                           note="heat convected from the side over h A_f θ_b")
         r["eps"] = w.line("ε_f = q_f/(h A_c θ_b) [-]",
                           formula=f"={r['q']}/({r['h']}*{r['Ac']}*{th})", engine=res.effectiveness)
-        r["R"] = w.line("R_t,f = θ_b/q_f [K/W]", formula=f"={th}/{r['q']}", engine=res.resistance)
+        r["R"] = w.line("R_t,f = θ_b/q_f [K/W]", formula=f"={th}/{r['q']}",
+                        engine=res.fin_resistance)
         tip = f"={r['tinf']}+{r['thL']}"
     else:
         g = {"convective": (f"={big_m}*(SINH({ml})+{beta}*COSH({ml}))/(COSH({ml})+{beta}"
@@ -207,7 +208,7 @@ def _straight(w, r, fin, res):
                               note="eq. 3.86")
         r["eps"] = w.line("ε_f = G_f/(h A_c) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
                           engine=res.effectiveness, note="eq. 3.81")
-        r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.resistance,
+        r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance,
                         note="eq. 3.83")
         tip = f"={r['tinf']}+{th}*" + _theta_ratio(fin, r, r["L"], beta_on)
     r["tip"] = w.line("T at the tip [degC]", formula=tip, engine=res.tip_temperature, fmt=F_T)
@@ -265,7 +266,7 @@ def _profiled(w, r, fin, res):
     r["q"] = w.line("q_f = G_f θ_b [W]", formula=f"={r['G']}*{r['theta']}", engine=res.heat_rate)
     r["eps"] = w.line("ε_f = G_f/(h A_c,b) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
                       engine=res.effectiveness)
-    r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.resistance)
+    r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance)
     r["tip"] = w.line("T at the tip [degC]",
                       formula=f"={r['tinf']}+{r['theta']}*{_profile_ratio(fin, r, '0')}",
                       engine=res.tip_temperature, fmt=F_T)
@@ -360,7 +361,7 @@ def _annular(w, r, fin, res, entry):
                engine=res.efficiency, note="adiabatic rim (Incropera & DeWitt eq. 3.96)")
     r["eps"] = w.line("ε_f = G_f/(h A_c,b) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
                       engine=res.effectiveness)
-    r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.resistance)
+    r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance)
     r["tip"] = w.line("T at the fin's outer radius r_2 [degC]",
                       formula=f"={r['tinf']}+{r['theta']}*{_annular_ratio(r, r['r2'], nodes)}",
                       engine=res.tip_temperature, fmt=F_T)

@@ -236,7 +236,7 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
     w.put(1, "EN 12831-1 style: H = A (U + ΔU_TB) f, Φ_HL = (H_T + H_V)(θ_int − θ_e) + Φ_hu. "
              "Sand cells are inputs, teal cells formulas, grey cells the engine's values, green "
              "cells compare them.", role="note")
-    rows = (("Design internal temperature θ_int [degC]", float(room.internal_temperature),
+    rows = (("Design internal temperature θ_int [degC]", float(room.temp_inside),
              None, FMT_T),
             ("Design external temperature θ_e [degC]", None, f"={bref['te']}", FMT_T),
             ("Temperature difference Δθ = θ_int − θ_e [K]", None, f"={_TI}-{_TE}", FMT_T),
@@ -341,7 +341,7 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
     w.put(7, float(room.reheat_factor), role="input", fmt="0.00")
     w.put(11, 0.0, role="engine", fmt=FMT_H)
     phi_hu = w.put(14, formula=f"=E{r}*G{r}", fmt=FMT_W)
-    w.check(13, phi_hu, w.put(12, float(rline.heat_flow), role="engine", fmt=FMT_W))
+    w.check(13, phi_hu, w.put(12, float(rline.heat_loss), role="engine", fmt=FMT_W))
     _share_cells(w, r, total_ref, rline)
     w.put(18, 0, role="engine", fmt="0")
     w.put(19, "Φ_hu = f_RH A_floor (f_RH [W/m2] input; check compares Φ_hu)", role="note",
@@ -631,12 +631,12 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
     w.put(1, "The building loses the sum over its rooms less the heat its rooms exchange with "
              "each other. Sand cells are inputs; room values are live references.", role="note")
     header = (
-        (_B_TE, "Design external temperature θ_e [degC]", float(bi.external_temperature),
+        (_B_TE, "Design external temperature θ_e [degC]", float(bi.temp_outside),
          FMT_T),
         (_B_DD, "Heating degree-days DD [K day]",
          None if bi.degree_days is None else float(bi.degree_days), "0"),
         (_B_BASE, "Base temperature of the degree-days [degC]",
-         None if bi.base_temperature is None else float(bi.base_temperature), FMT_T),
+         None if bi.degree_day_base is None else float(bi.degree_day_base), FMT_T),
         (_B_TOL, "Check tolerance, relative [-]", float(tolerance), FMT_SMALL),
         (_B_FG1, "f_g1 ground factor [-]", float(bi.f_g1), "0.00"),
         (_B_GW, f"G_w groundwater factor ({bi.groundwater}) [-]", float(bi.groundwater_factor),
@@ -673,7 +673,7 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
         w.put(7, formula=f"={ref['ventilation']}", fmt=FMT_H)
         q_int = w.put(8, formula=f"=F{r}*(D{r}-{_B_TE})", fmt=FMT_W)
         w.put(9, formula=f"={ref['load']}", fmt=FMT_W)
-        engine_q = math.fsum(ln.heat_flow for ln in rres.lines if ln.internal)
+        engine_q = math.fsum(ln.heat_loss for ln in rres.lines if ln.internal)
         w.check(11, q_int, w.put(10, float(engine_q), role="engine", fmt=FMT_W))
         w.put(12, formula=f"={ref['count']}", fmt="0")
         w.put(13, formula=f"={ref['ok']}", fmt="0")
@@ -695,7 +695,7 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
     w.value_row("Σ Φ_HL of the rooms [W]", formula=f"=SUM(I{first}:I{last})",
                 engine=result.rooms_design_heat_load, fmt=FMT_W)
     w.value_row("Σ Φ_int, net exchange between rooms [W]", formula=f"=SUM(H{first}:H{last})",
-                engine=result.internal_exchange_heat_flow, fmt=FMT_W)
+                engine=result.internal_exchange_heat_loss, fmt=FMT_W)
     load = w.value_row("Φ_HL building = Σ Φ_HL − Σ Φ_int [W]",
                        formula=f"=SUM(I{first}:I{last})-SUM(H{first}:H{last})",
                        engine=result.design_heat_load, fmt=FMT_W,
