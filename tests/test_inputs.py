@@ -48,7 +48,7 @@ def rooms_data() -> dict:
         "constructions": [{"name": "W", "layers": [{"conductivity": 0.04,
                                                     "thickness_mm": 200}]}],
         "rooms": [{"name": "A", "volume": 150.0, "floor_area": 50.0,
-                   "ventilation": {"basis": "air_change", "ventilation": 0.5},
+                   "ventilation": {"basis": "air_change", "ventilation_rate": 0.5},
                    "elements": [{"name": "wall", "method": "construction",
                                  "construction": "W", "area": 30.0}]}],
     }

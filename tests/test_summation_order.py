@@ -33,7 +33,7 @@ def test_total_resistance_is_the_same_for_every_order_of_the_layers():
 def _room(elements) -> Room:
     return Room(name="Invented room", temp_inside=20.0, volume=40.0,
                 elements=[Element(f"element {i}", a, u) for i, (a, u) in elements],
-                ventilation=Ventilation("air_change", ventilation=0.5))
+                ventilation=Ventilation("air_change", ventilation_rate=0.5))
 
 
 def test_room_transmission_is_the_same_for_every_order_of_the_elements():

@@ -348,7 +348,7 @@ def HL_ANNUAL_ENERGY(heat_loss_coefficient, degree_days):
                low_inclusive=True, unit="W/K")
     dd = number("degree_days", degree_days, low=0.0, high=20000.0, low_inclusive=True,
                 unit="K day")
-    room = Room("cell", 20.0, 1.0, (), Ventilation("flow", ventilation=h / _VOLUMETRIC))
+    room = Room("cell", 20.0, 1.0, (), Ventilation("flow", ventilation_rate=h / _VOLUMETRIC))
     return room.annual_energy(dd)
 
 
@@ -437,7 +437,7 @@ def _room(cells, temp_inside, temp_outside, h_v, phi_hu, ground):
         raise HeatLedgerError(f"temp_outside {te:g} degC must be below temp_inside {ti:g} degC "
                               "for a design heat load")
     elements, bridges = _element_rows(cells, ground)
-    vent = Ventilation("flow", ventilation=h_v / _VOLUMETRIC)
+    vent = Ventilation("flow", ventilation_rate=h_v / _VOLUMETRIC)
     try:
         return Room("room", ti, 1.0, elements, vent, thermal_bridges=bridges,
                     floor_area=1.0 if phi_hu > 0.0 else 0.0, reheat_factor=phi_hu,

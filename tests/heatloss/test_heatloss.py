@@ -113,7 +113,7 @@ def simple_room(**over):
             Element("window", 2.0, 1.4, kind="window"),
             Element("roof", 16.0, 0.15, kind="roof", thermal_bridge_allowance=0.05),
         ],
-        ventilation=Ventilation("air_change", ventilation=0.5, infiltration=0.1),
+        ventilation=Ventilation("air_change", ventilation_rate=0.5, infiltration=0.1),
         thermal_bridges=[LinearBridge("window reveals", 0.05, 6.0),
                          PointBridge("balcony fixings", 0.2, count=3)],
         floor_area=16.0,
@@ -213,7 +213,7 @@ def test_window_and_construction_objects_are_duck_typed():
     room = Room("Bed", 18.0, 30.0,
                 [Element("wall", 10.0, StandIn()), Element("w1", 1.6, w, kind="window"),
                  Element("w2", 1.0, d, kind="window"), Element("wall 2", 5.0, "cavity")],
-                Ventilation("flow", ventilation=20.0), constructions={"cavity": 0.4})
+                Ventilation("flow", ventilation_rate=20.0), constructions={"cavity": 0.4})
     assert room.transmission_coefficient == pytest.approx(3.0 + 1.6 * w.u_value + 1.3 + 2.0)
     srcs = [ln.source for ln in room.heat_load(-3).lines[:4]]
     assert "stand-in construction" in srcs[0] and "10077-1" in srcs[1]
@@ -232,7 +232,7 @@ def test_real_construction_object_works_as_u():
 
 
 def test_minimum_air_change_tops_up_without_recovery():
-    v = Ventilation("flow", ventilation=10.0, infiltration=2.0, heat_recovery=0.8,
+    v = Ventilation("flow", ventilation_rate=10.0, infiltration=2.0, heat_recovery=0.8,
                     minimum_air_change=0.5)
     room = Room("Office", 21.0, 60.0, [Element("wall", 5.0, 0.3)], v)
     r = room.ventilation_flows()
@@ -247,9 +247,9 @@ def test_minimum_air_change_tops_up_without_recovery():
 
 def test_air_change_and_flow_bases_agree():
     a = Room("A", 20.0, 50.0, [Element("w", 1.0, 1.0)],
-             Ventilation("air_change", ventilation=0.6, infiltration=0.2, heat_recovery=0.5))
+             Ventilation("air_change", ventilation_rate=0.6, infiltration=0.2, heat_recovery=0.5))
     b = Room("A", 20.0, 50.0, [Element("w", 1.0, 1.0)],
-             Ventilation("flow", ventilation=30.0, infiltration=10.0, heat_recovery=0.5))
+             Ventilation("flow", ventilation_rate=30.0, infiltration=10.0, heat_recovery=0.5))
     assert a.ventilation_coefficient == pytest.approx(b.ventilation_coefficient)
     assert a.ventilation_coefficient == pytest.approx(RHO_CP_WH * (10.0 + 30.0 * 0.5))
 
@@ -262,7 +262,7 @@ def two_room_house():
         "Living", 21.0, 60.0,
         [Element("front wall", 15.0, 0.3), Element("window", 4.0, 1.2, kind="window"),
          Element("to hall", 12.0, 1.8, AdjacentRoom(room="Hall"))],
-        Ventilation("air_change", ventilation=0.5, infiltration=0.2),
+        Ventilation("air_change", ventilation_rate=0.5, infiltration=0.2),
         floor_area=24.0, reheat_factor=4.0,
     )
     hall = Room(
@@ -270,7 +270,7 @@ def two_room_house():
         [Element("front wall", 6.0, 0.3), Element("door", 2.0, 1.8, kind="door"),
          Element("to living", 12.0, 1.8, AdjacentRoom(room="Living")),
          Element("to neighbour", 8.0, 0.9, AdjacentRoom(temperature=12.0))],
-        Ventilation("air_change", ventilation=0.5),
+        Ventilation("air_change", ventilation_rate=0.5),
     )
     return Building("House", [living, hall], temp_outside=-4.0)
 
@@ -437,17 +437,17 @@ def test_internal_exchange_cancels_for_any_temperatures(t_a, t_b, te, u_party):
     # heat leaving A through the party wall enters B: the building loses neither
     a = Room("A", t_a, 40.0, [Element("out", 10.0, 0.3),
                               Element("party", 9.0, u_party, AdjacentRoom(room="B"))],
-             Ventilation("air_change", ventilation=0.5))
+             Ventilation("air_change", ventilation_rate=0.5))
     b = Room("B", t_b, 40.0, [Element("out", 12.0, 0.3),
                               Element("party", 9.0, u_party, AdjacentRoom(room="A"))],
-             Ventilation("air_change", ventilation=0.5))
+             Ventilation("air_change", ventilation_rate=0.5))
     r = Building("Pair", [a, b]).heat_load(te)
     assert r.internal_exchange_heat_loss == pytest.approx(0.0, abs=1e-9)
     # the building load equals that of the same rooms with the party wall left out
     a0 = Room("A", t_a, 40.0, [Element("out", 10.0, 0.3)], Ventilation("air_change",
-                                                                        ventilation=0.5))
+                                                                        ventilation_rate=0.5))
     b0 = Room("B", t_b, 40.0, [Element("out", 12.0, 0.3)], Ventilation("air_change",
-                                                                        ventilation=0.5))
+                                                                        ventilation_rate=0.5))
     r0 = Building("Pair", [a0, b0]).heat_load(te)
     assert r.design_heat_load == pytest.approx(r0.design_heat_load, rel=1e-12)
     assert r.transmission_coefficient == pytest.approx(r0.transmission_coefficient, rel=1e-12)

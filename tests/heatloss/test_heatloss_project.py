@@ -37,7 +37,7 @@ def small_data() -> dict:
         ],
         "rooms": [
             {"name": "A", "volume": 150.0,
-             "ventilation": {"basis": "air_change", "ventilation": 0.5},
+             "ventilation": {"basis": "air_change", "ventilation_rate": 0.5},
              "elements": [
                  {"name": "wall", "method": "construction", "construction": "W", "area": 30.0},
                  {"name": "floor", "method": "slab_on_ground", "construction": "F",
@@ -46,7 +46,7 @@ def small_data() -> dict:
                   "area": 10.0, "boundary": "room", "room": "B"},
              ]},
             {"name": "B", "temp_inside": 16.0, "volume": 40.0,
-             "ventilation": {"basis": "flow", "ventilation": 20.0},
+             "ventilation": {"basis": "flow", "ventilation_rate": 20.0},
              "elements": [
                  {"name": "to A", "method": "declared", "u_value": 0.5, "u_source": "x",
                   "area": 10.0, "boundary": "room", "room": "A"},

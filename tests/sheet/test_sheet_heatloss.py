@@ -37,7 +37,7 @@ def variety_data() -> dict:
     data["building"]["groundwater"] = "shallow"
     data["rooms"].append({
         "name": "Archive", "temp_inside": 12.0, "volume": 90.0, "floor_area": 30.0,
-        "ventilation": {"basis": "air_change", "ventilation": 0.0, "infiltration": 0.1,
+        "ventilation": {"basis": "air_change", "ventilation_rate": 0.0, "infiltration": 0.1,
                         "minimum_air_change": 0.3},
         "elements": [
             {"name": "Basement", "method": "heated_basement", "kind": "floor",
@@ -164,7 +164,7 @@ def test_hand_calculation_of_a_small_room(tmp_path, recalc):
         "constructions": [],
         "rooms": [{
             "name": "Box", "volume": 100.0,
-            "ventilation": {"basis": "flow", "ventilation": 100.0, "heat_recovery": 0.5},
+            "ventilation": {"basis": "flow", "ventilation_rate": 100.0, "heat_recovery": 0.5},
             "elements": [
                 {"name": "glazing", "kind": "window", "method": "window",
                  "glazing_area": 1.2, "frame_area": 0.4, "glazing_u": 1.1, "frame_u": 1.4,

@@ -104,9 +104,9 @@ class Ventilation:
     Parameters
     ----------
     basis : str
-        ``"air_change"`` (``ventilation`` and ``infiltration`` in air changes per hour) or
+        ``"air_change"`` (``ventilation_rate`` and ``infiltration`` in air changes per hour) or
         ``"flow"`` (in m3/h). [-]
-    ventilation : float, optional
+    ventilation_rate : float, optional
         Design outdoor air for ventilation (natural or mechanical supply). [1/h or m3/h]
     infiltration : float, optional
         Infiltration through the envelope, entering at the external temperature. [1/h or m3/h]
@@ -118,7 +118,7 @@ class Ventilation:
     """
 
     basis: str
-    ventilation: float = 0.0
+    ventilation_rate: float = 0.0
     infiltration: float = 0.0
     heat_recovery: float = 0.0
     minimum_air_change: float = 0.0
@@ -170,7 +170,7 @@ class VentilationFlows:
 
 def _ventilation(v: Ventilation, volume: float) -> VentilationFlows:
     scale = volume if v.basis == "air_change" else 1.0
-    vent = v.ventilation * scale
+    vent = v.ventilation_rate * scale
     inf = v.infiltration * scale
     vmin = v.minimum_air_change * volume
     top_up = max(0.0, vmin - (vent + inf))
@@ -195,7 +195,7 @@ def _check_ventilation(ctx: str, v: Ventilation) -> None:
     _validate.choice(f"{ctx}: ventilation basis", v.basis, ("air_change", "flow"))
     object.__setattr__(v, "basis", v.basis.strip().lower())
     unit = "1/h" if v.basis == "air_change" else "m3/h"
-    for name in ("ventilation", "infiltration"):
+    for name in ("ventilation_rate", "infiltration"):
         _validate.non_negative(f"{ctx}: ventilation.{name}", getattr(v, name), unit)
     _validate.fraction(f"{ctx}: ventilation.heat_recovery", v.heat_recovery)
     _validate.non_negative(f"{ctx}: ventilation.minimum_air_change", v.minimum_air_change, "1/h")

@@ -321,7 +321,7 @@ def _room(row, where, ctx, temp_inside, problems, where_map):
 def _ventilation(raw, where, label, problems):
     if not isinstance(raw, dict):
         problems.append((where, f"{label}: give ventilation = {{ basis = \"air_change\" or "
-                         "\"flow\", ventilation = ..., infiltration = ..., heat_recovery = "
+                         "\"flow\", ventilation_rate = ..., infiltration = ..., heat_recovery = "
                          "..., minimum_air_change = ... }"))
         return None
     unknown(raw, VENTILATION_KEYS, where, problems)
@@ -333,7 +333,7 @@ def _ventilation(raw, where, label, problems):
     rate = "air_change" if basis == "air_change" else "air_flow"
     vals = {k: number(raw, k, where, problems, non_negative=True, default=0.0,
                       limit="air_change" if k == "minimum_air_change" else rate)
-            for k in ("ventilation", "infiltration", "minimum_air_change")}
+            for k in ("ventilation_rate", "infiltration", "minimum_air_change")}
     eta = number(raw, "heat_recovery", where, problems, non_negative=True, default=0.0)
     if eta is not None and eta > 1.0:
         problems.append((f"{where}.heat_recovery", f"{label}: the heat-recovery efficiency "
@@ -341,7 +341,7 @@ def _ventilation(raw, where, label, problems):
         return None
     if None in vals.values() or eta is None:
         return None
-    return Ventilation(basis, vals["ventilation"], vals["infiltration"], eta,
+    return Ventilation(basis, vals["ventilation_rate"], vals["infiltration"], eta,
                        vals["minimum_air_change"])
 
 

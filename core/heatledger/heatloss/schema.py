@@ -87,7 +87,7 @@ ROOM_TABLE = Table(
                "how ventilation is given: air changes (1/h) or a flow (m3/h)",
                choices=("air_change", "flow"), default="air_change", sub="ventilation",
                column="vent_basis"),
-        Column("ventilation", "Ventilation", "1/h or m3/h", "number",
+        Column("ventilation_rate", "Ventilation", "1/h or m3/h", "number",
                "design or mechanical ventilation", default=0.0, sub="ventilation",
                column="vent_rate", sign="non_negative"),
         Column("infiltration", "Infiltration", "1/h or m3/h", "number", "infiltration",

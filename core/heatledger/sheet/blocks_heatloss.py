@@ -579,7 +579,7 @@ def _ventilation_rows(w, room, rres) -> dict:
     v = room.ventilation
     vol = w.value_row("V internal air volume [m3]", value=float(room.volume), fmt="0.00")
     if vf.basis == "air_change":
-        nv = w.value_row("n_vent ventilation air change [1/h]", value=float(v.ventilation),
+        nv = w.value_row("n_vent ventilation air change [1/h]", value=float(v.ventilation_rate),
                          fmt="0.000")
         ni = w.value_row("n_inf infiltration air change [1/h]", value=float(v.infiltration),
                          fmt="0.000")
@@ -588,7 +588,7 @@ def _ventilation_rows(w, room, rres) -> dict:
         vi = w.value_row("V_inf = n_inf V [m3/h]", formula=f"={ni}*{vol}",
                          engine=vf.infiltration_flow, fmt="0.000")
     else:
-        vv = w.value_row("V_vent design ventilation flow [m3/h]", value=float(v.ventilation),
+        vv = w.value_row("V_vent design ventilation flow [m3/h]", value=float(v.ventilation_rate),
                          fmt="0.000")
         vi = w.value_row("V_inf infiltration flow [m3/h]", value=float(v.infiltration),
                          fmt="0.000")
