@@ -152,7 +152,7 @@ def ventilation_class(vent_area_mm2: float) -> str:
     ----------
     vent_area_mm2 : float
         Opening area per metre of length (vertical layers) or per square metre of surface
-        (horizontal layers). [mm2]
+        (horizontal layers). [mm2 per m or m2]
 
     Returns
     -------

@@ -482,16 +482,16 @@ def solve_conduction(
                        "refinements": refinements}, face_q)
 
 
-def solve_tridiagonal(lower, diag, upper, rhs) -> np.ndarray:
+def solve_tridiagonal(sub_diagonal, main_diagonal, super_diagonal, rhs) -> np.ndarray:
     """Solve a tridiagonal system in O(N) with LAPACK ``?gtsv``.
 
     Parameters
     ----------
-    lower : array_like
+    sub_diagonal : array_like
         Sub-diagonal, ``N - 1`` values (row i+1, column i). [-]
-    diag : array_like
+    main_diagonal : array_like
         Main diagonal, ``N`` values. [-]
-    upper : array_like
+    super_diagonal : array_like
         Super-diagonal, ``N - 1`` values (row i, column i+1). [-]
     rhs : array_like
         Right-hand side, ``N`` values. [-]
@@ -506,10 +506,10 @@ def solve_tridiagonal(lower, diag, upper, rhs) -> np.ndarray:
     >>> solve_tridiagonal([-1.0], [2.0, 2.0], [-1.0], [1.0, 1.0])
     array([1., 1.])
     """
-    d = np.array(diag, dtype=float)
+    d = np.array(main_diagonal, dtype=float)
     if d.size == 1:
         return np.asarray(rhs, dtype=float) / d
-    return _gtsv(np.array(lower, dtype=float), d, np.array(upper, dtype=float),
+    return _gtsv(np.array(sub_diagonal, dtype=float), d, np.array(super_diagonal, dtype=float),
                  np.array(rhs, dtype=float))
 
 
