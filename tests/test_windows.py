@@ -19,7 +19,6 @@ from heatledger.windows import (
     psi_glazing_default,
     psi_glazing_table,
     window,
-    window_u,
     window_with_shutter_u,
 )
 
@@ -55,7 +54,7 @@ def test_single_light_window_by_hand():
     lg = 2 * (1.03 + 1.28)
     # source: EN ISO 10077-1:2017 clause 6 equation, from memory (REFERENCES.md s.4)
     expected = (ag * 1.1 + af * 1.3 + lg * 0.08) / aw
-    got = window_u(ag, af, 1.1, 1.3, lg, 0.08, window_area=aw)
+    got = window(ag, af, 1.1, 1.3, lg, 0.08, window_area=aw).u_value
     assert got == pytest.approx(expected, abs=atol_same_equation)
     # and by hand: (1.3184*1.1 + 0.5020*1.3 + 4.62*0.08)/1.8204
     #            = (1.4502 + 0.6526 + 0.3696)/1.8204 = 2.4724/1.8204 = 1.3582
@@ -85,7 +84,7 @@ def test_window_with_panel_matches_written_out_sums():
 )
 def test_window_u_property_against_independent_equation(ag, af, ug, uf, psi, extra):
     lg = 4.0 * math.sqrt(ag) * extra  # always a possible perimeter
-    got = window_u(ag, af, ug, uf, lg, psi)
+    got = window(ag, af, ug, uf, lg, psi).u_value
     expected = iso10077_window_u([(ag, ug)], [(af, uf)], [(lg, psi)])
     assert got == pytest.approx(expected, rel=1e-12, abs=atol_same_equation)
 
@@ -94,29 +93,29 @@ def test_window_u_property_against_independent_equation(ag, af, ug, uf, psi, ext
 @given(u=st.floats(0.5, 5.0), ag=st.floats(0.2, 5.0), af=st.floats(0.05, 2.0))
 def test_equal_u_and_no_edge_loss_gives_that_u(u, ag, af):
     # a weighted mean of equal values is that value (no published source needed: algebra)
-    assert window_u(ag, af, u, u, 4.0 * math.sqrt(ag), 0.0) == pytest.approx(u, rel=1e-12)
+    assert window(ag, af, u, u, 4.0 * math.sqrt(ag), 0.0).u_value == pytest.approx(u, rel=1e-12)
 
 
 @settings(max_examples=40, deadline=None)
 @given(psi1=st.floats(0.0, 0.1), dpsi=st.floats(1e-4, 0.1))
 def test_more_edge_loss_raises_u(psi1, dpsi):
-    assert window_u(1.3, 0.5, 1.1, 1.3, 4.6, psi1 + dpsi) > window_u(1.3, 0.5, 1.1, 1.3, 4.6,
-                                                                       psi1)
+    assert window(1.3, 0.5, 1.1, 1.3, 4.6, psi1 + dpsi).u_value > window(1.3, 0.5, 1.1, 1.3, 4.6,
+                                                                       psi1).u_value
 
 
 def test_arrays_work_elementwise():
     ags = np.array([1.0, 1.5, 2.0])
-    got = window_u(ags, 0.5, 1.1, 1.4, 4.0 * np.sqrt(ags) + 0.5, 0.06)
+    got = window(ags, 0.5, 1.1, 1.4, 4.0 * np.sqrt(ags) + 0.5, 0.06).u_value
     assert isinstance(got, np.ndarray) and got.shape == (3,)
     for i, ag in enumerate(ags):
-        assert got[i] == pytest.approx(window_u(float(ag), 0.5, 1.1, 1.4,
-                                                4.0 * math.sqrt(ag) + 0.5, 0.06))
+        assert got[i] == pytest.approx(window(float(ag), 0.5, 1.1, 1.4,
+                                                4.0 * math.sqrt(ag) + 0.5, 0.06).u_value)
 
 
 def test_result_is_not_rounded_and_rounding_is_separate():
     from heatledger.constructions import round_significant
 
-    u = window_u(1.2, 0.4, 1.1, 1.4, 4.6, 0.08)
+    u = window(1.2, 0.4, 1.1, 1.4, 4.6, 0.08).u_value
     expected = (1.2 * 1.1 + 0.4 * 1.4 + 4.6 * 0.08) / 1.6  # source: EN ISO 10077-1 eq. [M]
     assert u == pytest.approx(expected, abs=atol_same_equation)
     assert u != round(u, 2)
@@ -144,34 +143,34 @@ def test_declared_window_records_source():
 
 def test_negative_area_rejected():
     with pytest.raises(HeatLedgerError, match="frame_area must not be negative"):
-        window_u(1.0, -0.2, 1.1, 1.4, 4.0, 0.08)
+        window(1.0, -0.2, 1.1, 1.4, 4.0, 0.08)
 
 
 def test_frame_area_larger_than_window_rejected():
     with pytest.raises(HeatLedgerError, match="frame_area must not be larger than the window"):
-        window_u(0.2, 1.5, 1.1, 1.4, 2.0, 0.08, window_area=1.2)
+        window(0.2, 1.5, 1.1, 1.4, 2.0, 0.08, window_area=1.2)
 
 
 def test_parts_must_add_up_to_stated_window_area():
     with pytest.raises(HeatLedgerError, match="must equal window_area"):
-        window_u(1.0, 0.3, 1.1, 1.4, 4.0, 0.08, window_area=1.6)
+        window(1.0, 0.3, 1.1, 1.4, 4.0, 0.08, window_area=1.6)
 
 
 def test_perimeter_too_short_for_rectangle_names_the_rule():
     # a 1 m2 pane needs at least 4 m of edge (the square)
     with pytest.raises(HeatLedgerError, match=r"at least 4 sqrt\(A\)"):
-        window_u(1.0, 0.3, 1.1, 1.4, 3.9, 0.08)
-    window_u(1.0, 0.3, 1.1, 1.4, 4.0, 0.08)  # the square itself is fine
+        window(1.0, 0.3, 1.1, 1.4, 3.9, 0.08)
+    window(1.0, 0.3, 1.1, 1.4, 4.0, 0.08)  # the square itself is fine
 
 
 def test_round_pane_needs_shape_any():
     a = 0.5
     circle = 2.0 * math.sqrt(math.pi * a)  # isoperimetric bound, the circle
     with pytest.raises(HeatLedgerError, match='glazing_shape "any"'):
-        window_u(a, 0.2, 1.1, 1.4, circle, 0.08)
-    assert window_u(a, 0.2, 1.1, 1.4, circle, 0.08, glazing_shape="any") > 0
+        window(a, 0.2, 1.1, 1.4, circle, 0.08)
+    assert window(a, 0.2, 1.1, 1.4, circle, 0.08, glazing_shape="any").u_value > 0
     with pytest.raises(HeatLedgerError, match=r"2 sqrt\(pi A\)"):
-        window_u(a, 0.2, 1.1, 1.4, 0.99 * circle, 0.08, glazing_shape="any")
+        window(a, 0.2, 1.1, 1.4, 0.99 * circle, 0.08, glazing_shape="any")
 
 
 def test_perimeter_lower_bound_values():
@@ -184,11 +183,11 @@ def test_perimeter_lower_bound_values():
 
 def test_zero_total_area_and_non_numbers_rejected():
     with pytest.raises(HeatLedgerError, match="greater than zero"):
-        window_u(0.0, 0.0, 1.1, 1.4, 0.0, 0.08)
+        window(0.0, 0.0, 1.1, 1.4, 0.0, 0.08)
     with pytest.raises(HeatLedgerError, match="glazing_u must be a number"):
-        window_u(1.0, 0.3, "one", 1.4, 4.0, 0.08)
+        window(1.0, 0.3, "one", 1.4, 4.0, 0.08)
     with pytest.raises(HeatLedgerError, match="finite"):
-        window_u(1.0, 0.3, math.nan, 1.4, 4.0, 0.08)
+        window(1.0, 0.3, math.nan, 1.4, 4.0, 0.08)
 
 
 # ----------------------------------------------------------------------------- psi_g table

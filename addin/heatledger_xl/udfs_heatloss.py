@@ -55,9 +55,9 @@ from heatledger.ground import (
     SOIL_TYPES,
     EdgeInsulation,
     ground_conductivity,
-    heated_basement_u,
-    slab_on_ground_u,
-    suspended_floor_u,
+    heated_basement,
+    slab_on_ground,
+    suspended_floor,
 )
 from heatledger.heatloss import (
     AIR_DENSITY,
@@ -76,7 +76,7 @@ from heatledger.heatloss import (
     Ventilation,
     ventilation_heat_loss_coefficient,
 )
-from heatledger.windows import window_u
+from heatledger.windows import window
 
 from .cells import ERROR_VALUES, flag, number, text
 from .ranges import check_blank_below
@@ -200,8 +200,8 @@ def HL_WINDOW_U(glazing_area, frame_area, glazing_u, frame_u, glazing_perimeter,
     if ag + af + ap < MIN_WINDOW_AREA:
         raise HeatLedgerError(f"glazing_area + frame_area + panel_area must be at least "
                               f"{MIN_WINDOW_AREA:g} m2; got {ag + af + ap:g} m2")
-    return float(window_u(ag, af, ug, uf, lg, psig, panel_area=ap, panel_u=up,
-                          panel_perimeter=lp, psi_panel=psip, window_area=aw))
+    return float(window(ag, af, ug, uf, lg, psig, panel_area=ap, panel_u=up,
+                          panel_perimeter=lp, psi_panel=psip, window_area=aw).u_value)
 
 
 # --------------------------------------------------------------------------- ground
@@ -220,8 +220,8 @@ def HL_SLAB_U(area, exposed_perimeter, wall_thickness_mm, floor_resistance,
     a, p, w = _floor(area, exposed_perimeter, wall_thickness_mm)
     rf = _resistance("floor_resistance", floor_resistance)
     try:
-        return float(slab_on_ground_u(a, p, w, rf, soil_conductivity=lam,
-                                      edge_insulation=edge, exposed_outline=outline))
+        return float(slab_on_ground(a, p, w, rf, soil_conductivity=lam,
+                                      edge_insulation=edge, exposed_outline=outline).u_value)
     except HeatLedgerError as exc:
         if str(exc).startswith("edge insulation"):
             raise HeatLedgerError(f"edge_resistance and edge_thickness_mm: {exc}") from None
@@ -252,10 +252,10 @@ def HL_SUSPENDED_FLOOR_U(area, exposed_perimeter, wall_thickness_mm, deck_resist
                  low_inclusive=True, unit="m2/m")
     v = number("wind_speed", wind_speed, low=0.0, high=100.0, low_inclusive=True, unit="m/s")
     shield = _choice("wind_shielding", wind_shielding, ("sheltered", "average", "exposed"))
-    return float(suspended_floor_u(a, p, w, rd, underfloor_height=h, underfloor_wall_u=uw,
+    return float(suspended_floor(a, p, w, rd, underfloor_height=h, underfloor_wall_u=uw,
                                    vent_area_per_perimeter=eps, wind_speed=v,
                                    wind_shielding=shield, ground_insulation_resistance=rg,
-                                   soil_conductivity=lam, exposed_outline=outline))
+                                   soil_conductivity=lam, exposed_outline=outline).u_value)
 
 
 @udf(FAMILY, returns="U' [W/(m2 K)]",
@@ -271,8 +271,8 @@ def HL_BASEMENT_U(area, exposed_perimeter, wall_thickness_mm, floor_resistance,
     rf = _resistance("floor_resistance", floor_resistance)
     rw = _resistance("wall_resistance", wall_resistance)
     z = number("depth", depth, low=0.0, high=100.0, unit="m")
-    return float(heated_basement_u(a, p, w, rf, rw, z, soil_conductivity=lam,
-                                   exposed_outline=outline))
+    return float(heated_basement(a, p, w, rf, rw, z, soil_conductivity=lam,
+                                   exposed_outline=outline).u_value)
 
 
 @udf(FAMILY, returns="ground conductivity [W/(m K)]", args=_args("soil"))

@@ -36,7 +36,6 @@ from ._arrays import pick as _pick
 from .errors import HeatLedgerError
 
 __all__ = [
-    "window_u",
     "window",
     "WindowResult",
     "DeclaredWindow",
@@ -64,100 +63,6 @@ _PSI_TABLE_FILE = "psi_glazing_defaults.csv"
 
 
 # ----------------------------------------------------------------------------- public API
-
-
-def window_u(
-    glazing_area,
-    frame_area,
-    glazing_u,
-    frame_u,
-    glazing_perimeter,
-    psi_glazing,
-    *,
-    panel_area=0.0,
-    panel_u=0.0,
-    panel_perimeter=0.0,
-    psi_panel=0.0,
-    window_area=None,
-    glazing_shape: str = "rectilinear",
-):
-    """Thermal transmittance of a whole window or glazed door, EN ISO 10077-1.
-
-    Parameters
-    ----------
-    glazing_area : float or array_like
-        Visible glazing area ``A_g`` (sum over all panes). [m2]
-    frame_area : float or array_like
-        Projected frame area ``A_f`` (the larger of the inside and outside projections). [m2]
-    glazing_u : float or array_like
-        Centre-of-glazing thermal transmittance ``U_g``. [W/(m2 K)]
-    frame_u : float or array_like
-        Frame thermal transmittance ``U_f``. [W/(m2 K)]
-    glazing_perimeter : float or array_like
-        Visible perimeter of the glazing ``l_g`` (sum over all panes). [m]
-    psi_glazing : float or array_like
-        Linear thermal transmittance of the glazing edge (spacer and frame junction) ``psi_g``;
-        see :func:`psi_glazing_default`. [W/(m K)]
-    panel_area : float or array_like, optional
-        Visible area of opaque infill panels ``A_p``. [m2]
-    panel_u : float or array_like, optional
-        Thermal transmittance of the opaque panels ``U_p``. [W/(m2 K)]
-    panel_perimeter : float or array_like, optional
-        Visible perimeter of the opaque panels ``l_p``. [m]
-    psi_panel : float or array_like, optional
-        Linear thermal transmittance of the panel edge ``psi_p``. [W/(m K)]
-    window_area : float or array_like, optional
-        Overall window area, if known, to check the parts against: the frame area must not
-        exceed it and ``A_g + A_f + A_p`` must equal it within :data:`WINDOW_AREA_RTOL`. [m2]
-    glazing_shape : str, optional
-        ``"rectilinear"`` (default; panes with right-angled corners need
-        ``l_g >= 4 sqrt(A_g)``) or ``"any"`` (any outline, ``l_g >= 2 sqrt(pi A_g)``). [-]
-
-    Returns
-    -------
-    float or ndarray
-        Whole-window thermal transmittance ``U_w``, unrounded. [W/(m2 K)]
-
-    Raises
-    ------
-    HeatLedgerError
-        For negative or non-finite inputs, a zero total area, a frame area larger than the
-        stated window area, parts that do not add up to it, or a glazing perimeter too short
-        to bound the glazing area.
-
-    Notes
-    -----
-    .. math::
-
-        U_w = \\frac{\\sum A_g U_g + \\sum A_f U_f + \\sum l_g \\psi_g
-                     + \\sum A_p U_p + \\sum l_p \\psi_p}{\\sum A_g + \\sum A_f + \\sum A_p}
-
-    Use :func:`window` for every intermediate value. Round ``U_w`` for a report separately,
-    to two significant figures (:func:`heatledger.constructions.round_significant`).
-
-    References
-    ----------
-    EN ISO 10077-1:2017, clause 6, whole-window equation with opaque panels [M: recalled].
-
-    Examples
-    --------
-    >>> round(window_u(1.2, 0.4, 1.1, 1.4, 4.6, 0.08), 3)
-    1.405
-    """
-    return window(
-        glazing_area,
-        frame_area,
-        glazing_u,
-        frame_u,
-        glazing_perimeter,
-        psi_glazing,
-        panel_area=panel_area,
-        panel_u=panel_u,
-        panel_perimeter=panel_perimeter,
-        psi_panel=psi_panel,
-        window_area=window_area,
-        glazing_shape=glazing_shape,
-    ).u_value
 
 
 @dataclass(frozen=True)
@@ -237,29 +142,32 @@ def window(
     Parameters
     ----------
     glazing_area : float or array_like
-        Visible glazing area ``A_g``. [m2]
+        Visible glazing area ``A_g`` (sum over all panes). [m2]
     frame_area : float or array_like
-        Projected frame area ``A_f``. [m2]
+        Projected frame area ``A_f`` (the larger of the inside and outside projections). [m2]
     glazing_u : float or array_like
-        Centre-of-glazing U-value ``U_g``. [W/(m2 K)]
+        Centre-of-glazing thermal transmittance ``U_g``. [W/(m2 K)]
     frame_u : float or array_like
-        Frame U-value ``U_f``. [W/(m2 K)]
+        Frame thermal transmittance ``U_f``. [W/(m2 K)]
     glazing_perimeter : float or array_like
-        Visible glazing perimeter ``l_g``. [m]
+        Visible perimeter of the glazing ``l_g`` (sum over all panes). [m]
     psi_glazing : float or array_like
-        Glazing-edge linear thermal transmittance ``psi_g``. [W/(m K)]
+        Linear thermal transmittance of the glazing edge (spacer and frame junction) ``psi_g``;
+        see :func:`psi_glazing_default`. [W/(m K)]
     panel_area : float or array_like, optional
-        Opaque panel area ``A_p``. [m2]
+        Visible area of opaque infill panels ``A_p``. [m2]
     panel_u : float or array_like, optional
-        Opaque panel U-value ``U_p``. [W/(m2 K)]
+        Thermal transmittance of the opaque panels ``U_p``. [W/(m2 K)]
     panel_perimeter : float or array_like, optional
-        Visible panel perimeter ``l_p``. [m]
+        Visible perimeter of the opaque panels ``l_p``. [m]
     psi_panel : float or array_like, optional
-        Panel-edge linear thermal transmittance ``psi_p``. [W/(m K)]
+        Linear thermal transmittance of the panel edge ``psi_p``. [W/(m K)]
     window_area : float or array_like, optional
-        Overall window area to check the parts against. [m2]
+        Overall window area, if known, to check the parts against: the frame area must not
+        exceed it and ``A_g + A_f + A_p`` must equal it within :data:`WINDOW_AREA_RTOL`. [m2]
     glazing_shape : str, optional
-        ``"rectilinear"`` or ``"any"``, for the perimeter check. [-]
+        ``"rectilinear"`` (default; panes with right-angled corners need
+        ``l_g >= 4 sqrt(A_g)``) or ``"any"`` (any outline, ``l_g >= 2 sqrt(pi A_g)``). [-]
 
     Returns
     -------
@@ -269,15 +177,27 @@ def window(
     Raises
     ------
     HeatLedgerError
-        As :func:`window_u`.
+        For negative or non-finite inputs, a zero total area, a frame area larger than the
+        stated window area, parts that do not add up to it, or a glazing perimeter too short
+        to bound the glazing area.
 
     Notes
     -----
-    Same equation as :func:`window_u`.
+    .. math::
+
+        U_w = \\frac{\\sum A_g U_g + \\sum A_f U_f + \\sum l_g \\psi_g
+                     + \\sum A_p U_p + \\sum l_p \\psi_p}{\\sum A_g + \\sum A_f + \\sum A_p}
+
+    to two significant figures (:func:`heatledger.constructions.round_significant`).
 
     References
     ----------
-    EN ISO 10077-1:2017, clause 6 [M: recalled].
+    EN ISO 10077-1:2017, clause 6, whole-window equation with opaque panels [M: recalled].
+
+    Examples
+    --------
+    >>> round(window(1.2, 0.4, 1.1, 1.4, 4.6, 0.08).u_value, 3)
+    1.405
     """
     shape = _validate.choice("glazing_shape", glazing_shape, PERIMETER_SHAPES)
     ag = _area_array("glazing_area", glazing_area)

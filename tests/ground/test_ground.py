@@ -15,11 +15,8 @@ from heatledger.ground import (
     ground_conductivity,
     ground_heat_capacity,
     heated_basement,
-    heated_basement_u,
     slab_on_ground,
-    slab_on_ground_u,
     suspended_floor,
-    suspended_floor_u,
 )
 
 #: Agreement between the module and the same equation written out in the test. [W/(m2 K)]
@@ -67,7 +64,7 @@ def test_worked_value_insulated_10x10():
     recomputed = 2.0 / (0.457 * 5.0 + 6.72)
     assert r.u_value == pytest.approx(recomputed, abs=atol_same_equation)
     assert r.u_value == pytest.approx(0.222, abs=atol_printed_3dp)
-    assert slab_on_ground_u(100.0, 40.0, 0.3, 3.0) == r.u_value
+    assert slab_on_ground(100.0, 40.0, 0.3, 3.0).u_value == r.u_value
 
 
 @settings(max_examples=80, deadline=None)
@@ -77,7 +74,7 @@ def test_worked_value_insulated_10x10():
 )
 def test_slab_against_independent_equation(side_a, side_b, w, rf, lam):
     area, per = side_a * side_b, 2 * (side_a + side_b)
-    got = slab_on_ground_u(area, per, w, rf, soil_conductivity=lam)
+    got = slab_on_ground(area, per, w, rf, soil_conductivity=lam).u_value
     assert got == pytest.approx(iso13370_slab(area, per, w, rf, lam), rel=1e-12)
 
 
@@ -100,14 +97,14 @@ def test_the_two_regimes_meet_at_dt_equal_b():
 def test_more_insulation_gives_lower_u(rf, extra, side):
     # physical monotonicity (common practice, no published source needed)
     a, p = side * side, 4 * side
-    assert slab_on_ground_u(a, p, 0.3, rf + extra) < slab_on_ground_u(a, p, 0.3, rf)
+    assert slab_on_ground(a, p, 0.3, rf + extra).u_value < slab_on_ground(a, p, 0.3, rf).u_value
 
 
 @settings(max_examples=40, deadline=None)
 @given(p_frac=st.floats(0.2, 0.95))
 def test_less_exposed_perimeter_gives_lower_u(p_frac):
-    full = slab_on_ground_u(100.0, 40.0, 0.3, 1.0)
-    part = slab_on_ground_u(100.0, 40.0 * p_frac, 0.3, 1.0, exposed_outline="partial")
+    full = slab_on_ground(100.0, 40.0, 0.3, 1.0).u_value
+    part = slab_on_ground(100.0, 40.0 * p_frac, 0.3, 1.0, exposed_outline="partial").u_value
     assert part < full
 
 
@@ -138,8 +135,8 @@ def test_soil_conductivity_defaults():
 
 def test_default_conductivity_is_category_2():
     # source: EN ISO 13370:2017 7.x, use category 2 when unknown [C] (REFERENCES.md s.2)
-    assert slab_on_ground_u(100, 40, 0.3, 0.0) == slab_on_ground_u(
-        100, 40, 0.3, 0.0, soil_conductivity=ground_conductivity("sand"))
+    assert slab_on_ground(100, 40, 0.3, 0.0).u_value == slab_on_ground(
+        100, 40, 0.3, 0.0, soil_conductivity=ground_conductivity("sand")).u_value
 
 
 # ----------------------------------------------------------------------------- edge insulation
@@ -207,7 +204,7 @@ def test_suspended_floor_against_independent_equation():
     assert r.u_value == pytest.approx(expected, rel=1e-12)
     assert r.wind_shielding_factor == 0.05
     assert r.exchange_u == pytest.approx(r.underfloor_wall_term + r.ventilation_term)
-    assert suspended_floor_u(90.0, 38.0, 0.3, 2.5, **kw) == r.u_value
+    assert suspended_floor(90.0, 38.0, 0.3, 2.5, **kw).u_value == r.u_value
 
 
 def test_suspended_floor_limits():
@@ -220,7 +217,7 @@ def test_suspended_floor_limits():
     # the ground under an unventilated, sealed void is the uninsulated slab equation
     assert r.ground_u == pytest.approx(iso13370_slab(100, 40, 0.3, 0.0, 2.0), rel=1e-12)
     # a much better deck lowers U towards zero
-    assert suspended_floor_u(100, 40, 0.3, 50.0, **kw) < 0.02
+    assert suspended_floor(100, 40, 0.3, 50.0, **kw).u_value < 0.02
 
 
 def test_suspended_floor_out_of_scope_height_rejected():
@@ -256,7 +253,7 @@ def test_heated_basement_against_independent_equation(rf, rw):
     assert r.floor_u == pytest.approx(ubf, rel=1e-12)
     assert r.wall_u == pytest.approx(ubw, rel=1e-12)
     assert r.u_value == pytest.approx(u, rel=1e-12)
-    assert heated_basement_u(120.0, 44.0, 0.35, rf, rw, 2.4) == r.u_value
+    assert heated_basement(120.0, 44.0, 0.35, rf, rw, 2.4).u_value == r.u_value
     branch = "d_w (d_w < d_t)" if r.wall_equivalent_thickness < r.floor_equivalent_thickness \
         else "d_t"
     assert branch in r.method
@@ -280,9 +277,9 @@ def test_deeper_basement_floor_loses_less():
 def test_perimeter_that_cannot_bound_the_area():
     # a rectilinear 100 m2 outline needs P >= 4 sqrt(100) = 40 m
     with pytest.raises(HeatLedgerError, match=r'4 sqrt\(A\) = 40 m.*exposed_outline "partial"'):
-        slab_on_ground_u(100.0, 30.0, 0.3, 0.0)
+        slab_on_ground(100.0, 30.0, 0.3, 0.0)
     # with party walls the exposed perimeter may be shorter: allowed when said so
-    assert slab_on_ground_u(100.0, 20.0, 0.3, 0.0, exposed_outline="partial") > 0
+    assert slab_on_ground(100.0, 20.0, 0.3, 0.0, exposed_outline="partial").u_value > 0
     with pytest.raises(HeatLedgerError, match="exposed_perimeter"):
         heated_basement(100.0, 30.0, 0.3, 0.0, 1.0, 2.0)
 
@@ -299,14 +296,14 @@ def test_perimeter_that_cannot_bound_the_area():
 )
 def test_bad_slab_inputs(args, match):
     with pytest.raises(HeatLedgerError, match=match):
-        slab_on_ground_u(*args)
+        slab_on_ground(*args)
 
 
 def test_bad_conductivity_and_depth():
     with pytest.raises(HeatLedgerError, match="soil_conductivity must be greater than zero"):
-        slab_on_ground_u(100, 40, 0.3, 0, soil_conductivity=0.0)
+        slab_on_ground(100, 40, 0.3, 0, soil_conductivity=0.0)
     with pytest.raises(HeatLedgerError, match="depth must be greater than zero"):
-        heated_basement_u(100, 40, 0.3, 0, 1.0, 0.0)
+        heated_basement(100, 40, 0.3, 0, 1.0, 0.0)
 
 
 def test_result_objects_carry_u_value_for_room_elements():

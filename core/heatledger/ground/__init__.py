@@ -28,11 +28,9 @@ from .floors import (
     HeatedBasementResult,
     SuspendedFloorResult,
     heated_basement,
-    heated_basement_u,
     suspended_floor,
-    suspended_floor_u,
 )
-from .slab import EdgeInsulation, SlabOnGroundResult, slab_on_ground, slab_on_ground_u
+from .slab import EdgeInsulation, SlabOnGroundResult, slab_on_ground
 from .soil import (
     DEFAULT_SOIL_CONDUCTIVITY,
     EXPOSED_OUTLINES,
@@ -47,14 +45,11 @@ from .soil import (
 )
 
 __all__ = [
-    "slab_on_ground_u",
     "slab_on_ground",
     "SlabOnGroundResult",
     "EdgeInsulation",
-    "suspended_floor_u",
     "suspended_floor",
     "SuspendedFloorResult",
-    "heated_basement_u",
     "heated_basement",
     "HeatedBasementResult",
     "ground_conductivity",

@@ -78,46 +78,6 @@ class SuspendedFloorResult:
     method: str
 
 
-def suspended_floor_u(area, exposed_perimeter, wall_thickness, deck_resistance, **kwargs):
-    """U-value of a suspended floor over a ventilated underfloor space, EN ISO 13370 8.3.
-
-    Parameters
-    ----------
-    area : float
-        Floor area ``A``. [m2]
-    exposed_perimeter : float
-        Exposed perimeter ``P``. [m]
-    wall_thickness : float
-        Full thickness of the perimeter walls ``w``. [m]
-    deck_resistance : float
-        Thermal resistance of the suspended deck, surface resistances excluded. [m2 K/W]
-    **kwargs : dict
-        Keyword arguments of :func:`suspended_floor` (``underfloor_height``,
-        ``underfloor_wall_u``, ``vent_area_per_perimeter``, ``wind_speed``,
-        ``wind_shielding`` ...). [-]
-
-    Returns
-    -------
-    float
-        Thermal transmittance ``U``, unrounded. [W/(m2 K)]
-
-    Raises
-    ------
-    HeatLedgerError
-        As :func:`suspended_floor`.
-
-    Notes
-    -----
-    See :func:`suspended_floor`.
-
-    References
-    ----------
-    EN ISO 13370:2017, clause 8.3 [M: recalled].
-    """
-    return suspended_floor(area, exposed_perimeter, wall_thickness, deck_resistance,
-                           **kwargs).u_value
-
-
 def suspended_floor(
     area,
     exposed_perimeter,
@@ -145,6 +105,10 @@ def suspended_floor(
         Full thickness of the perimeter walls ``w``. [m]
     deck_resistance : float
         Thermal resistance of the suspended deck, surface resistances excluded. [m2 K/W]
+    **kwargs : dict
+        Keyword arguments of :func:`suspended_floor` (``underfloor_height``,
+        ``underfloor_wall_u``, ``vent_area_per_perimeter``, ``wind_speed``,
+        ``wind_shielding`` ...). [-]
     underfloor_height : float
         Height ``h`` of the top of the deck above outside ground level; at most
         :data:`SUSPENDED_FLOOR_MAX_HEIGHT`. [m]
@@ -162,7 +126,7 @@ def suspended_floor(
     soil_conductivity : float, optional
         Ground conductivity ``lambda``. [W/(m K)]
     exposed_outline : str, optional
-        Perimeter check, see :func:`slab_on_ground_u`. [-]
+        Perimeter check, see :func:`heatledger.ground.slab_on_ground`. [-]
 
     Returns
     -------
@@ -172,11 +136,13 @@ def suspended_floor(
     Raises
     ------
     HeatLedgerError
-        For bad inputs, or ``h`` above 0.5 m (the standard then uses other formulas, not
-        implemented here).
+        As :func:`suspended_floor`.
 
     Notes
     -----
+    See :func:`suspended_floor`.
+
+
     .. math::
 
         \\frac{1}{U} = \\frac{1}{U_f} + \\frac{1}{U_g + U_x}, \\qquad
@@ -290,49 +256,6 @@ class HeatedBasementResult:
     method: str
 
 
-def heated_basement_u(area, exposed_perimeter, wall_thickness, floor_resistance,
-                      wall_resistance, depth, **kwargs):
-    """Combined U-value of the floor and walls of a heated basement, EN ISO 13370 8.4.
-
-    Parameters
-    ----------
-    area : float
-        Basement floor area ``A``. [m2]
-    exposed_perimeter : float
-        Exposed perimeter ``P``. [m]
-    wall_thickness : float
-        Full thickness of the basement walls ``w``. [m]
-    floor_resistance : float
-        Thermal resistance of the basement floor ``R_f``. [m2 K/W]
-    wall_resistance : float
-        Thermal resistance of the basement walls ``R_w``. [m2 K/W]
-    depth : float
-        Depth ``z`` of the basement floor below outside ground level. [m]
-    **kwargs : dict
-        Keyword arguments of :func:`heated_basement`. [-]
-
-    Returns
-    -------
-    float
-        Combined ``U'`` over floor and below-ground walls, unrounded. [W/(m2 K)]
-
-    Raises
-    ------
-    HeatLedgerError
-        As :func:`heated_basement`.
-
-    Notes
-    -----
-    See :func:`heated_basement`.
-
-    References
-    ----------
-    EN ISO 13370:2017, clause 8.4 [M: recalled].
-    """
-    return heated_basement(area, exposed_perimeter, wall_thickness, floor_resistance,
-                           wall_resistance, depth, **kwargs).u_value
-
-
 def heated_basement(
     area,
     exposed_perimeter,
@@ -361,12 +284,14 @@ def heated_basement(
         Thermal resistance of the basement walls ``R_w``. [m2 K/W]
     depth : float
         Depth ``z`` of the basement floor below outside ground level. [m]
+    **kwargs : dict
+        Keyword arguments of :func:`heated_basement`. [-]
     soil_conductivity : float, optional
         Ground conductivity ``lambda``. [W/(m K)]
     rsi_wall : float, optional
         Internal surface resistance of the walls (horizontal heat flow). [m2 K/W]
     exposed_outline : str, optional
-        Perimeter check, see :func:`slab_on_ground_u`. [-]
+        Perimeter check, see :func:`heatledger.ground.slab_on_ground`. [-]
 
     Returns
     -------
@@ -376,10 +301,13 @@ def heated_basement(
     Raises
     ------
     HeatLedgerError
-        For bad inputs (non-positive depth, area or perimeter; negative resistances).
+        As :func:`heated_basement`.
 
     Notes
     -----
+    See :func:`heated_basement`.
+
+
     .. math::
 
         d_t = w + \\lambda (R_{si} + R_f + R_{se}), \\qquad

@@ -132,7 +132,7 @@ class SlabOnGroundResult:
     method: str
 
 
-def slab_on_ground_u(
+def slab_on_ground(
     area,
     exposed_perimeter,
     wall_thickness,
@@ -141,8 +141,8 @@ def slab_on_ground_u(
     soil_conductivity=DEFAULT_SOIL_CONDUCTIVITY,
     edge_insulation: EdgeInsulation | None = None,
     exposed_outline: str = "rectilinear",
-):
-    """U-value of a slab-on-ground floor, EN ISO 13370 clause 8.2.
+) -> SlabOnGroundResult:
+    """Slab-on-ground U-value with every intermediate value, EN ISO 13370 8.2 and Annex B.
 
     Parameters
     ----------
@@ -168,8 +168,8 @@ def slab_on_ground_u(
 
     Returns
     -------
-    float or ndarray
-        Thermal transmittance ``U`` of the floor, unrounded. [W/(m2 K)]
+    SlabOnGroundResult
+        ``B'``, ``d_t``, the regime, ``U_0``, ``psi_ge`` and ``u_value``. [-]
 
     Raises
     ------
@@ -188,71 +188,8 @@ def slab_on_ground_u(
         U = \\frac{\\lambda}{0.457 B' + d_t} \\quad (d_t \\ge B')
 
     with :math:`R_{si} = 0.17` and :math:`R_{se} = 0.04` m2 K/W. Edge insulation adds
-    :math:`2\\psi_{ge}/B'` (see :func:`slab_on_ground`). Use :func:`slab_on_ground` for every
-    intermediate value.
-
-    References
-    ----------
-    EN ISO 13370:2017, clause 8.2 and Annex B [M: recalled; worked values 0.762 and 0.222
-    W/(m2 K) reproduced].
-
-    Examples
-    --------
-    >>> round(slab_on_ground_u(100.0, 40.0, 0.3, 0.0), 3)
-    0.762
-    """
-    return slab_on_ground(
-        area,
-        exposed_perimeter,
-        wall_thickness,
-        floor_resistance,
-        soil_conductivity=soil_conductivity,
-        edge_insulation=edge_insulation,
-        exposed_outline=exposed_outline,
-    ).u_value
 
 
-def slab_on_ground(
-    area,
-    exposed_perimeter,
-    wall_thickness,
-    floor_resistance,
-    *,
-    soil_conductivity=DEFAULT_SOIL_CONDUCTIVITY,
-    edge_insulation: EdgeInsulation | None = None,
-    exposed_outline: str = "rectilinear",
-) -> SlabOnGroundResult:
-    """Slab-on-ground U-value with every intermediate value, EN ISO 13370 8.2 and Annex B.
-
-    Parameters
-    ----------
-    area : float or array_like
-        Floor area ``A``. [m2]
-    exposed_perimeter : float or array_like
-        Exposed perimeter ``P``. [m]
-    wall_thickness : float or array_like
-        Full wall thickness ``w``. [m]
-    floor_resistance : float or array_like
-        Floor thermal resistance ``R_f``. [m2 K/W]
-    soil_conductivity : float, optional
-        Ground conductivity ``lambda``. [W/(m K)]
-    edge_insulation : EdgeInsulation, optional
-        Edge insulation (Annex B). [-]
-    exposed_outline : str, optional
-        Perimeter check, see :func:`slab_on_ground_u`. [-]
-
-    Returns
-    -------
-    SlabOnGroundResult
-        ``B'``, ``d_t``, the regime, ``U_0``, ``psi_ge`` and ``u_value``. [-]
-
-    Raises
-    ------
-    HeatLedgerError
-        As :func:`slab_on_ground_u`.
-
-    Notes
-    -----
     Edge insulation (Annex B), with :math:`R' = R_n - d_n/\\lambda` and
     :math:`d' = R'\\lambda`:
 
@@ -270,7 +207,13 @@ def slab_on_ground(
 
     References
     ----------
-    EN ISO 13370:2017, clause 8.2 and Annex B [M: recalled].
+    EN ISO 13370:2017, clause 8.2 and Annex B [M: recalled; worked values 0.762 and 0.222
+    W/(m2 K) reproduced].
+
+    Examples
+    --------
+    >>> round(slab_on_ground(100.0, 40.0, 0.3, 0.0).u_value, 3)
+    0.762
     """
     outline = _validate.choice("exposed_outline", exposed_outline, EXPOSED_OUTLINES)
     a, p = _area_perimeter(area, exposed_perimeter, outline)
