@@ -25,7 +25,8 @@ from pathlib import Path
 import openpyxl
 import pytest
 
-from heatledger.cli import demo_project, main, project_results
+from heatledger.cli import main, project_results
+from heatledger.demo import demo_project
 from heatledger.errors import HeatLedgerError, ProjectError
 from heatledger.fileio import TEMP_MARK, read_bytes_limited, write_bytes_atomic
 from heatledger.project import load_project

@@ -16,8 +16,9 @@ import numpy as np
 import pytest
 
 from heatledger import HeatLedgerError, ProjectError, project_from_dict
-from heatledger.cli import demo_project, main, project_results
+from heatledger.cli import main, project_results
 from heatledger.constructions import AirLayer, BridgedLayer, Construction, Layer
+from heatledger.demo import demo_project
 from heatledger.materials import default_library
 
 # source: definition of the Celsius scale, 0 K = -273.15 degC

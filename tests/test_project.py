@@ -5,7 +5,7 @@ import textwrap
 import pytest
 
 from heatledger import HeatLedgerError, ProjectError, load_project, project_from_dict
-from heatledger.cli import demo_project
+from heatledger.demo import demo_project
 
 
 def _write(tmp_path, text):

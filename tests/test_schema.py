@@ -23,9 +23,9 @@ from hypothesis import strategies as st
 from heatledger import HeatLedgerError, ProjectError
 from heatledger._validate import LIMITS
 from heatledger.construction_family.schema import DESIGN_TABLE, MATERIAL_TABLE, PROJECT_TABLE
-from heatledger.families import FAMILIES
+from heatledger.families import FAMILIES, project_file_reference
 from heatledger.project import project_from_dict, tomllib
-from heatledger.schema import TYPES, Column, check_value, project_file_reference, read_value
+from heatledger.schema import TYPES, Column, check_value, read_value
 from heatledger.sheet import template as tpl
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -154,11 +154,11 @@ def test_the_readme_key_tables_are_the_generated_ones():
     readme = (ROOT / "README.md").read_text(encoding="utf-8")
     section = readme.split("<!-- keys:begin -->\n")[1].split("<!-- keys:end -->")[0]
     assert section == project_file_reference(), (
-        "regenerate the README section with `python -m heatledger.schema`")
+        "regenerate the README section with `python -m heatledger.families`")
 
 
 def test_the_reference_command_prints_the_tables():
-    out = subprocess.run([sys.executable, "-m", "heatledger.schema"], capture_output=True,
+    out = subprocess.run([sys.executable, "-m", "heatledger.families"], capture_output=True,
                          text=True, check=True).stdout
     assert out == project_file_reference()
 

@@ -22,9 +22,8 @@ from .errors import HeatLedgerError
 if TYPE_CHECKING:  # the engine is imported by the commands that use it, not by --help
     from .project import Project
 
-__all__ = ["main", "demo_project", "project_results"]
+__all__ = ["main", "project_results"]
 
-DEMO_RESOURCE = "data/demo_project.toml"
 
 
 def main(argv=None) -> int:
@@ -59,22 +58,6 @@ def main(argv=None) -> int:
               "defect of heatledger: please report it with the input file (set "
               "HEATLEDGER_TRACEBACK=1 to see the details)", file=sys.stderr)
         return 3
-
-
-def demo_bytes() -> bytes:
-    """The demo project file shipped with heatledger (an invented scenario), as bytes."""
-    from importlib import resources
-
-    return resources.files("heatledger").joinpath(DEMO_RESOURCE).read_bytes()
-
-
-def demo_project() -> Project:
-    """The demo project shipped with heatledger (an invented scenario)."""
-    from .project import project_from_dict, tomllib
-
-    data = demo_bytes()
-    return project_from_dict(tomllib.loads(data.decode("utf-8")), source_bytes=data,
-                             source_name="demo_project.toml")
 
 
 def project_results(project: Project) -> dict:
@@ -158,6 +141,8 @@ def _clean(obj):
 
 
 def _cmd_demo(args) -> int:
+    from .demo import demo_bytes, demo_project
+
     if getattr(args, "output", None):
         from .sheet.commands import run_demo_audit
 

@@ -30,7 +30,7 @@ from __future__ import annotations
 import importlib
 from dataclasses import dataclass, field
 
-__all__ = ["Family", "FAMILIES", "family", "ParseContext"]
+__all__ = ["Family", "FAMILIES", "family", "ParseContext", "project_file_reference"]
 
 
 @dataclass(frozen=True)
@@ -180,3 +180,24 @@ def family(name: str) -> Family:
         if fam.name == name:
             return fam
     raise KeyError(name)
+
+
+def project_file_reference() -> str:
+    """Every key of the project file as Markdown tables: the project-wide tables, then each
+    registered family's (the README's "Keys of the project file" section). [-]
+
+    Returns
+    -------
+    str
+        Markdown, one table per project-file table.
+    """
+    from .construction_family.schema import DESIGN_TABLE, MATERIAL_TABLE, PROJECT_TABLE
+    from .schema import markdown
+
+    tables = (PROJECT_TABLE, DESIGN_TABLE, MATERIAL_TABLE) + tuple(
+        t for fam in FAMILIES for t in fam.tables)
+    return "\n".join(markdown(t) for t in tables)
+
+
+if __name__ == "__main__":  # python -m heatledger.families: the README's key tables
+    print(project_file_reference(), end="")

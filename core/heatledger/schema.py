@@ -9,7 +9,7 @@ description. Everything else is derived from that declaration:
 - the fill-in template's columns, headers, drop-down lists and instructions
   (:meth:`Table.template_columns`, :meth:`Table.subtables`, :attr:`Column.choices`);
 - the spreadsheet functions' argument checks (:func:`check_value`, which raises);
-- the key tables of the README (:func:`markdown`, ``python -m heatledger.schema``).
+- the key tables of the README (:func:`markdown`; ``python -m heatledger.families``).
 
 One validation core, two faces: :func:`value_problem` says what is wrong with one value (or
 None); :func:`check_value` raises it as a :class:`~heatledger.errors.HeatLedgerError` (engine
@@ -325,23 +325,3 @@ def _md_value(value) -> str:
         return "true" if value else "false"
     return f'"{value}"' if isinstance(value, str) else f"{value:g}"
 
-
-def project_file_reference() -> str:
-    """Every key of the project file as Markdown tables: the project-wide tables, then each
-    registered family's (the README's "Keys of the project file" section). [-]
-
-    Returns
-    -------
-    str
-        Markdown, one table per project-file table.
-    """
-    from .construction_family.schema import DESIGN_TABLE, MATERIAL_TABLE, PROJECT_TABLE
-    from .families import FAMILIES
-
-    tables = (PROJECT_TABLE, DESIGN_TABLE, MATERIAL_TABLE) + tuple(
-        t for fam in FAMILIES for t in fam.tables)
-    return "\n".join(markdown(t) for t in tables)
-
-
-if __name__ == "__main__":  # python -m heatledger.schema: the README's key tables
-    print(project_file_reference(), end="")

@@ -463,7 +463,7 @@ def test_whole_workbooks_render_the_same_through_both_renderers(which):
     """The demo project's audit (cover, materials, every construction, fins and rooms,
     summary; cross-sheet formulas and defined names) and the fill-in template (drop-down
     lists) through both renderers."""
-    from heatledger.cli import demo_project
+    from heatledger.demo import demo_project
     from heatledger.sheet.audit import audit_plan
     from heatledger.sheet.template import template_plan
 

@@ -27,7 +27,7 @@ from pathlib import Path
 from _bench import machine_line, paired
 from openpyxl import Workbook
 
-from heatledger.cli import demo_project
+from heatledger.demo import demo_project
 from heatledger.project import project_from_dict
 from heatledger.sheet.audit import audit_bytes, audit_plan
 from heatledger.sheet.plan import split_ref

@@ -11,7 +11,8 @@ import math
 
 import pytest
 
-from heatledger.cli import demo_project, main, project_results
+from heatledger.cli import main, project_results
+from heatledger.demo import demo_project
 from heatledger.errors import ProjectError
 from heatledger.fins import AnnularFin, FinArray, StraightFin
 from heatledger.project import project_from_dict, tomllib

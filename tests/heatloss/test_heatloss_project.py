@@ -14,7 +14,8 @@ import openpyxl
 import pytest
 
 from heatledger.cautions import CAUTIONS
-from heatledger.cli import demo_bytes, demo_project, main, project_results
+from heatledger.cli import main, project_results
+from heatledger.demo import demo_bytes, demo_project
 from heatledger.errors import ProjectError
 from heatledger.project import project_from_dict, tomllib
 from heatledger.sheet import template as tpl

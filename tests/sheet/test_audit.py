@@ -15,7 +15,7 @@ import numpy as np
 import openpyxl
 import pytest
 
-from heatledger.cli import demo_project
+from heatledger.demo import demo_project
 from heatledger.project import project_from_dict
 from heatledger.sheet import audit
 from heatledger.sheet.plan import split_ref

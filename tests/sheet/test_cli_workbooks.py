@@ -8,7 +8,8 @@ import zipfile
 import openpyxl
 import pytest
 
-from heatledger.cli import demo_project, main
+from heatledger.cli import main
+from heatledger.demo import demo_project
 
 
 def test_template_then_audit_from_the_filled_template(tmp_path, capsys):

@@ -17,7 +17,7 @@ from pathlib import Path
 import openpyxl
 import pytest
 
-from heatledger.cli import demo_bytes, demo_project
+from heatledger.demo import demo_bytes, demo_project
 from heatledger.project import load_project, project_from_dict, tomllib
 from heatledger.sheet import audit
 from heatledger.sheet.blocks_heatloss import BUILDING_SHEET, add_heatloss_sheets

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import pytest
 
-from heatledger.cli import demo_project
+from heatledger.demo import demo_project
 from heatledger.sheet.audit import audit_plan
 from heatledger.sheet.plan import (
     DEFAULT_COLUMN_WIDTH,

@@ -12,7 +12,7 @@ import copy
 import openpyxl
 import pytest
 
-from heatledger.cli import demo_project
+from heatledger.demo import demo_project
 from heatledger.errors import HeatLedgerError
 from heatledger.project import project_from_dict
 from heatledger.sheet.audit import audit_bytes

@@ -158,7 +158,7 @@ def test_charts_of_one_shape_share_xml_but_keep_their_own_titles_and_ranges():
 
     from openpyxl import Workbook
 
-    from heatledger.cli import demo_project
+    from heatledger.demo import demo_project
     from heatledger.sheet.audit import audit_plan
     from heatledger.sheet.render_openpyxl import _chart, _ChartCache
 

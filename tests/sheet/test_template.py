@@ -8,7 +8,8 @@ import zipfile
 import openpyxl
 import pytest
 
-from heatledger.cli import demo_project, project_results
+from heatledger.cli import project_results
+from heatledger.demo import demo_project
 from heatledger.errors import HeatLedgerError, ProjectError
 from heatledger.sheet import template as tpl
 from heatledger.sheet.render_openpyxl import write_workbook

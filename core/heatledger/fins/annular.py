@@ -149,6 +149,33 @@ class AnnularFin(FinBase):
                 "conductivity": self.conductivity, "h": self.h, "tip": self.tip,
                 "corrected_length": bool(self.corrected_length)}
 
+    def bessel_values(self) -> dict:
+        """The modified Bessel functions of the solution at the root and the rim.
+
+        Returns
+        -------
+        dict
+            ``("I" or "K", order 0 or 1, "x_1" or "x_2")`` -> value, with ``x_1 = m r_1`` and
+            ``x_2 = m r_2c``; the calculation sheet shows each beside its own formula. [-]
+
+        Notes
+        -----
+        :math:`I_n(x) = \\mathrm{ive}(n, x)\\,e^{x}` and
+        :math:`K_n(x) = \\mathrm{kve}(n, x)\\,e^{-x}` (scipy's scaled functions).
+
+        References
+        ----------
+        Abramowitz & Stegun 1964, 9.6 (modified Bessel functions); Incropera & DeWitt 6th ed.,
+        3.6.3 (the annular fin's solution).
+        """
+        out = {}
+        for label, x in (("x_1", self.m * self.inner_radius),
+                         ("x_2", self.m * self.effective_outer_radius)):
+            for n in (0, 1):
+                out[("I", n, label)] = float(ive(n, x) * math.exp(x))
+                out[("K", n, label)] = float(kve(n, x) * math.exp(-x))
+        return out
+
     def with_length(self, length: float) -> AnnularFin:
         """The same fin with radial length ``length`` [m] (outer radius moved)."""
         from dataclasses import replace

@@ -15,7 +15,6 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from scipy.special import iv, kv
 
 from ..fins.annular import AnnularFin
 from .plan import Sheet, col_letter
@@ -304,15 +303,15 @@ def _annular(w, r, fin, res, entry):
     x1 = w.line("x_1 = m r_1 [-]", formula=f"={r['m']}*{r['r1']}", engine=fin.m * fin.inner_radius)
     x2 = w.line("x_2 = m r_2c [-]", formula=f"={r['m']}*{r['r2c']}",
                 engine=fin.m * fin.effective_outer_radius)
-    xv = {x1: fin.m * fin.inner_radius, x2: fin.m * fin.effective_outer_radius}
+    values = fin.bessel_values()
     b = {}
     for x, lab in ((x1, "x_1"), (x2, "x_2")):
         for n in (0, 1):
             b[("I", n, x)] = w.line(f"I{n}({lab}) = BESSELI [-]", formula=f"=BESSELI({x},{n})",
-                                    engine=float(iv(n, xv[x])), fmt=F_E)
+                                    engine=values[("I", n, lab)], fmt=F_E)
             b[("K", n, x)] = w.line(f"K{n}({lab}) by the integral (A&S 9.6.24) [-]",
                                     formula="=" + k_formula(x, n, nodes),
-                                    engine=float(kv(n, xv[x])), fmt=F_E,
+                                    engine=values[("K", n, lab)], fmt=F_E,
                                     note="trapezoidal rule on the nodes in column AA")
             w.put(2, f"K{n}({lab}) = BESSELK, for comparison only [-]")
             bk = w.put(7, formula=f"=BESSELK({x},{n})", fmt=F_E)

@@ -63,7 +63,7 @@ def run_template(output, *, force: bool = False, blank: bool = False) -> int:
     """
     data = None
     if not blank:
-        from ..cli import demo_project
+        from ..demo import demo_project
 
         data = demo_project().raw
     path = write_workbook(template_plan(data), output, force=force)
@@ -110,7 +110,7 @@ def run_demo_audit(output, *, force: bool = False, quiet: bool = False) -> int:
     quiet : bool
         No progress display. [-]
     """
-    from ..cli import demo_project
+    from ..demo import demo_project
 
     return _write(demo_project(), Path(output), force=force, quiet=quiet)
 
