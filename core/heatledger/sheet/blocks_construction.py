@@ -33,7 +33,8 @@ from ..constructions import (
     InvertedRoofCorrection,
 )
 from ..surfaces import surface_resistance
-from .plan import Block, Chart, ChartSeries, PrintSetup, Sheet, WorkbookPlan, col_letter, sheet_ref
+from .plan import Chart, ChartSeries, PrintSetup, Sheet, WorkbookPlan, col_letter, sheet_ref
+from .rows import CheckRows, RowLayout
 
 __all__ = ["ConstructionRefs", "add_construction_sheet", "add_calculation_sheet",
            "put_warning", "DEFAULT_CHECK_TOLERANCE"]
@@ -100,65 +101,8 @@ class ConstructionRefs:
     heat_flux: str = ""
     extras: dict = field(default_factory=dict)
 
-
-class _Rows:
-    """Small writer of a sheet: a row cursor and shorthand for labelled value rows."""
-
-    def __init__(self, sheet: Sheet, tol_ref: str) -> None:
-        self.sheet = sheet
-        self.tol = tol_ref
-        self.row = 1
-        self.block: Block = sheet.block("header")
-        self.checks = 0
-        self.section = 0
-
-    def start(self, name: str, title: str | None = None) -> None:
-        self.block = self.sheet.block(name)
-        if title:
-            self.section += 1
-            title = f"{self.section}. {title}"
-            self.row += 1
-            self.put(2, title, style="hl subtitle")
-            self.row += 1
-
-    def a1(self, col: int, row: int | None = None) -> str:
-        return f"{col_letter(col)}{self.row if row is None else row}"
-
-    def put(self, col: int, value=None, *, formula=None, style=None, fmt=None, role=None,
-            row: int | None = None) -> str:
-        a1 = self.a1(col, row)
-        self.block.put(a1, value, formula=formula, style=style, number_format=fmt, role=role)
-        return a1
-
-    def check(self, col: int, formula_ref: str, engine_ref: str, *, exact: bool = False,
-              row: int | None = None) -> str:
-        self.checks += 1
-        if exact:
-            f = f'=IF({formula_ref}={engine_ref},"OK","MISMATCH: "&{formula_ref})'
-        else:
-            f = (f'=IF(ABS({formula_ref}-{engine_ref})<={self.tol}*MAX(1,ABS({engine_ref})),'
-                 f'"OK","MISMATCH: differs by "&({formula_ref}-{engine_ref}))')
-        return self.put(col, formula=f, role="check", row=row)
-
-    def value_row(self, label: str, *, formula=None, value=None, engine=None, fmt=FMT_R,
-                  note: str = "", role=None, exact: bool = False) -> str:
-        """A row: label in B, the value or formula in G, engine in K, check in L, note in N."""
-        self.put(2, label)
-        ref = self.put(7, value, formula=formula, fmt=fmt,
-                       role=role or ("formula" if formula else "input"))
-        if engine is not None:
-            eng = self.put(11, float(engine), role="engine", fmt=fmt)
-            self.check(12, ref, eng, exact=exact)
-        if note:
-            self.put(14, note, role="note")
-        self.row += 1
-        return ref
-
-    def headers(self, names, first_col: int = 1) -> None:
-        for i, name in enumerate(names):
-            self.put(first_col + i, name, role="header")
-        self.sheet.row_heights[self.row] = 32.0
-        self.row += 1
+#: Columns of a construction sheet's rows: label B, value G, engine K, check L, note N.
+CONSTRUCTION_ROWS = RowLayout(default_format=FMT_R)
 
 
 def _solution_record(w, temps) -> None:
@@ -297,7 +241,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                                              nodes_per_layer=nodes_per_layer)
     name = con.name or sheet_name
     sheet = add_calculation_sheet(plan, sheet_name, COLUMN_WIDTHS, f"{project_name} | {name}")
-    w = _Rows(sheet, "$C$8")
+    w = CheckRows(sheet, "$C$8", CONSTRUCTION_ROWS)
 
     # ---- header --------------------------------------------------------------------------
     w.put(1, f"{name}: thermal resistance, U-value and temperatures", style="hl title")

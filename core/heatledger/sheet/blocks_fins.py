@@ -39,10 +39,10 @@ from .._constants import ZERO_CELSIUS as zero_Celsius
 from ..fins.annular import AnnularFin
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet, put_warning
 from .blocks_fins_closed import (
-    _W,
     F_E,
     F_G,
     F_T,
+    FIN_ROWS,
     HEADER_ROWS,
     _annular,
     _annular_ratio,
@@ -61,6 +61,7 @@ from .plan import (
     safe_sheet_name,
     sheet_ref,
 )
+from .rows import CheckRows
 
 __all__ = ["FinRefs", "add_fin_sheet", "add_fin_sheets", "FIN_METHODS", "PROFILE_POINTS"]
 
@@ -184,7 +185,7 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
     res = entry.evaluate()
     sheet = add_calculation_sheet(plan, sheet_name, COLUMN_WIDTHS,
                                   f"{project_name} | {entry.name}")
-    w = _W(sheet, "$C$8")
+    w = CheckRows(sheet, "$C$8", FIN_ROWS)
     w.put(1, f"{entry.name}: fin heat rate, efficiency and temperatures", style="hl title")
     sheet.merges.append("A1:N1")
     w.row = 2
@@ -223,19 +224,20 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
 
     w.start("inputs", "Inputs")
     mat = entry.material
-    r["k"] = w.line("λ, thermal conductivity of the fin [W/(m K)]", value=float(fin.conductivity),
-                    fmt="0.00", note=(f"library material {mat.name!r}: {mat.source}" if mat
-                                      else "given in the project"))
-    r["h"] = w.line("h, convection coefficient [W/(m2 K)]", value=float(fin.h), fmt="0.00")
+    r["k"] = w.value_row("λ, thermal conductivity of the fin [W/(m K)]",
+                         value=float(fin.conductivity),
+                         fmt="0.00", note=(f"library material {mat.name!r}: {mat.source}" if mat
+                                           else "given in the project"))
+    r["h"] = w.value_row("h, convection coefficient [W/(m2 K)]", value=float(fin.h), fmt="0.00")
     if isinstance(fin, AnnularFin):
         _annular(w, r, fin, res, entry)
     elif fin.profile == "rectangular":
         _straight(w, r, fin, res)
     else:
         _profiled(w, r, fin, res)
-    w.line("highest surface temperature of the fin [degC]",
-           formula=f"=MAX({r['tb']},{r['tip']})", fmt="0.00",
-           note="compare with the touch limits that apply (see the caution above)")
+    w.value_row("highest surface temperature of the fin [degC]",
+                formula=f"=MAX({r['tb']},{r['tip']})", fmt="0.00",
+                note="compare with the touch limits that apply (see the caution above)")
     put_warning(w, formula=f'=IF({r["eps"]}<1,"WARNING: fin effectiveness "&ROUND({r["eps"]},3)'
                            f'&" is below 1: the fin reduces the heat rate of the base it covers",'
                            f'"fin effectiveness "&ROUND({r["eps"]},3)&" is at least 1")')
@@ -306,29 +308,32 @@ def _array(w, r, entry):
     arr = entry.array
     res = entry.evaluate_array()
     w.start("array", f"Array of fins on a base ({res.method})")
-    n = w.line("N, number of fins [-]", value=float(arr.count), fmt="0")
-    base = w.line("base area including the fin roots [m2]", value=float(arr.base_area), fmt=F_E)
-    rc = w.line("R''_t,c, contact resistance at each root [m2 K/W]",
-                value=float(arr.contact_resistance), fmt=F_E)
-    ab = w.line("A_b = base area − N A_c,b [m2]", formula=f"={base}-{n}*{r['Ac']}",
-                engine=res.exposed_base_area, fmt=F_E)
-    at = w.line("A_t = N A_f + A_b [m2]", formula=f"={n}*{r['Af']}+{ab}", engine=res.total_area,
-                fmt=F_E)
+    n = w.value_row("N, number of fins [-]", value=float(arr.count), fmt="0")
+    base = w.value_row("base area including the fin roots [m2]", value=float(arr.base_area),
+                       fmt=F_E)
+    rc = w.value_row("R''_t,c, contact resistance at each root [m2 K/W]",
+                     value=float(arr.contact_resistance), fmt=F_E)
+    ab = w.value_row("A_b = base area − N A_c,b [m2]", formula=f"={base}-{n}*{r['Ac']}",
+                     engine=res.exposed_base_area, fmt=F_E)
+    at = w.value_row("A_t = N A_f + A_b [m2]", formula=f"={n}*{r['Af']}+{ab}",
+                     engine=res.total_area,
+                     fmt=F_E)
     # G_f = eta_f h A_f, the fin's own conductance where the sheet has it (it keeps the heat an
     # infinitely long fin sheds beyond its stated length)
     g_f = r["G"] if "G" in r else f"{r['eta']}*{r['h']}*{r['Af']}"
-    c1 = w.line("C_1 = 1 + η_f h A_f R''_t,c/A_c,b [-]",
-                formula=f"=1+{g_f}*{rc}/{r['Ac']}", engine=res.contact_factor)
-    eta_o = w.line("η_o = 1 − (N A_f/A_t)(1 − η_f/C_1) [-]",
-                   formula=f"=1-{n}*{r['Af']}/{at}*(1-{g_f}/({r['h']}*{r['Af']})/{c1})",
-                   engine=res.overall_efficiency, note="eqs. 3.107 and 3.110")
-    res_o = w.line("R_t,o = 1/(η_o h A_t) [K/W]", formula=f"=1/({eta_o}*{r['h']}*{at})",
-                   engine=res.fin_resistance, note="eq. 3.108")
-    q_t = w.line("q_t = θ_b/R_t,o [W]", formula=f"={r['theta']}/{res_o}", engine=res.heat_rate)
-    w.line("q per fin = (η_f/C_1) h A_f θ_b [W]",
-           formula=f"={g_f}/{c1}*{r['theta']}", engine=res.fin_heat_rate)
-    w.line("bare base alone h A_base θ_b [W]", formula=f"={r['h']}*{base}*{r['theta']}", fmt=F_G,
-           note="for comparison: the base without fins")
+    c1 = w.value_row("C_1 = 1 + η_f h A_f R''_t,c/A_c,b [-]",
+                     formula=f"=1+{g_f}*{rc}/{r['Ac']}", engine=res.contact_factor)
+    eta_o = w.value_row("η_o = 1 − (N A_f/A_t)(1 − η_f/C_1) [-]",
+                        formula=f"=1-{n}*{r['Af']}/{at}*(1-{g_f}/({r['h']}*{r['Af']})/{c1})",
+                        engine=res.overall_efficiency, note="eqs. 3.107 and 3.110")
+    res_o = w.value_row("R_t,o = 1/(η_o h A_t) [K/W]", formula=f"=1/({eta_o}*{r['h']}*{at})",
+                        engine=res.fin_resistance, note="eq. 3.108")
+    q_t = w.value_row("q_t = θ_b/R_t,o [W]", formula=f"={r['theta']}/{res_o}", engine=res.heat_rate)
+    w.value_row("q per fin = (η_f/C_1) h A_f θ_b [W]",
+                formula=f"={g_f}/{c1}*{r['theta']}", engine=res.fin_heat_rate)
+    w.value_row("bare base alone h A_base θ_b [W]", formula=f"={r['h']}*{base}*{r['theta']}",
+                fmt=F_G,
+                note="for comparison: the base without fins")
     for text in res.warnings[len(entry.fin.warnings):]:
         put_warning(w, f"Warning (engine): {text}")
     for key, answer in entry.sizing().items():
@@ -344,7 +349,7 @@ def _array(w, r, entry):
         else:
             cnt = w.stated(f"{label} for the target {entry.target_heat_rate:g} W [-]",
                            answer.value, "0", note=f"engine: {answer.method}")
-            target = w.line("target heat rate [W]", value=float(entry.target_heat_rate))
+            target = w.value_row("target heat rate [W]", value=float(entry.target_heat_rate))
             per = (f"({r['h']}*({r['eta']}/{c1}*{r['Af']}-{r['Ac']})*{r['theta']})")
             bare = f"({r['h']}*{base}*{r['theta']})"
             w.put(2, "the count meets the target and one fin fewer does not")
@@ -371,11 +376,11 @@ def _fv(w, r, fin, entry):
              "a_W P_(i−1)), T_i = P_i T_(i+1) + Q_i); by the engine with LAPACK gtsv.",
           role="note")
     w.row += 1
-    cells = w.line("number of cells N [-]", value=float(n), fmt="0")
+    cells = w.value_row("number of cells N [-]", value=float(n), fmt="0")
     length = f"({r['r2c']}-{r['r1']})" if annular else (
         r["Le"] if fin.profile == "rectangular" else r["L"])
-    dx = w.line("dx = length/N [m]", formula=f"={length}/{cells}", engine=st["length"] / n,
-                fmt=F_E)
+    dx = w.value_row("dx = length/N [m]", formula=f"={length}/{cells}", engine=st["length"] / n,
+                     fmt=F_E)
     law = st["h_law"]
     w.stated("convection law in the finite volumes", law if law == "constant" else
              f"{law}: C = {st['h_parameters']['h_coefficient']:g}, n = "
@@ -391,12 +396,12 @@ def _fv(w, r, fin, entry):
     k, h, tinf = r["k"], r["h"], r["tinf"]
     sig = None
     if nonlinear:
-        sig = w.line("σ, Stefan–Boltzmann constant [W/(m2 K4)]", value=float(Stefan_Boltzmann),
-                     fmt=F_E, note="from the exact SI defining constants, 2 π⁵ k⁴/(15 h³ c²)")
+        sig = w.value_row("σ, Stefan–Boltzmann constant [W/(m2 K4)]", value=float(Stefan_Boltzmann),
+                          fmt=F_E, note="from the exact SI defining constants, 2 π⁵ k⁴/(15 h³ c²)")
     node0 = w.row + 3
     node_n = node0 + n - 1
-    g0 = w.line("base conductance G_0 = 2 λ A_1/dx [W/K]", formula=f"=2*{k}*C{node0}/{dx}",
-                fmt=F_E, note="fixed base temperature, half a cell away")
+    g0 = w.value_row("base conductance G_0 = 2 λ A_1/dx [W/K]", formula=f"=2*{k}*C{node0}/{dx}",
+                     fmt=F_E, note="fixed base temperature, half a cell away")
     tip = st["tip"]
     half = f"{dx}/(2*{k}*C{node_n})"
     if tip == "adiabatic":
@@ -404,21 +409,21 @@ def _fv(w, r, fin, entry):
         w.stated("tip: adiabatic, no conductance", "0")
     elif tip == "convective":
         a_tip = (f"(2*PI()*{r['r2']}*{r['t']})" if annular else r["Ac"])
-        gl = w.line("tip conductance G_N = 1/(dx/(2λA_N) + 1/(h A_tip)) [W/K]",
-                    formula=f"=1/({half}+1/({h}*{a_tip}))", fmt=F_E,
-                    note="with the constant h; the last iteration's tip coefficient "
-                         "(h(T), radiation) is inside the engine's a_P and b" if nonlinear
-                    else "")
+        gl = w.value_row("tip conductance G_N = 1/(dx/(2λA_N) + 1/(h A_tip)) [W/K]",
+                         formula=f"=1/({half}+1/({h}*{a_tip}))", fmt=F_E,
+                         note="with the constant h; the last iteration's tip coefficient "
+                              "(h(T), radiation) is inside the engine's a_P and b" if nonlinear
+                         else "")
         t_r = tinf
     elif tip == "temperature":
-        gl = w.line("tip conductance G_N = 2 λ A_N/dx [W/K]", formula=f"=2*{k}*C{node_n}/{dx}",
-                    fmt=F_E)
+        gl = w.value_row("tip conductance G_N = 2 λ A_N/dx [W/K]", formula=f"=2*{k}*C{node_n}/{dx}",
+                         fmt=F_E)
         t_r = r["TL"]
     else:
-        gl = w.line("tip conductance G_N = 1/(dx/(2λA_N) + 1/(λ m A_N)) [W/K]",
-                    formula=f"=1/({half}+1/({k}*SQRT({h}*D{node_n}/({k}*C{node_n}))"
-                            f"*C{node_n}))", fmt=F_E,
-                    note="continuation of an infinitely long fin: −λ dT/dx = λ m θ")
+        gl = w.value_row("tip conductance G_N = 1/(dx/(2λA_N) + 1/(λ m A_N)) [W/K]",
+                         formula=f"=1/({half}+1/({k}*SQRT({h}*D{node_n}/({k}*C{node_n}))"
+                                 f"*C{node_n}))", fmt=F_E,
+                         note="continuation of an infinitely long fin: −λ dT/dx = λ m θ")
         t_r = tinf
     w.headers(FV_COLUMNS)
     assert w.row == node0, (w.row, node0)
@@ -470,22 +475,22 @@ def _fv(w, r, fin, entry):
               fmt=F_E)
         w.row += 1
     w.row += 1
-    q_fv = w.line("heat rate at the base q = G_0 (T_b − T_1) [W]",
-           formula=f"={g0}*({r['tb']}-N{node0})", engine=fv.heat_rate)
-    w.line("loss from the fin's side Σ loss [W]", formula=f"=SUM(V{node0}:V{node_n})",
-           engine=fv.heat_loss_surface, note="non-linear laws at the final temperatures"
-           if nonlinear else "Σ h P dx (T_i − T_inf)")
+    q_fv = w.value_row("heat rate at the base q = G_0 (T_b − T_1) [W]",
+                formula=f"={g0}*({r['tb']}-N{node0})", engine=fv.heat_rate)
+    w.value_row("loss from the fin's side Σ loss [W]", formula=f"=SUM(V{node0}:V{node_n})",
+                engine=fv.heat_loss_surface, note="non-linear laws at the final temperatures"
+                if nonlinear else "Σ h P dx (T_i − T_inf)")
     if not nonlinear or tip == "adiabatic":
         face = (f"=N{node_n}" if tip == "adiabatic" else
                 f"=N{node_n}-{gl}*(N{node_n}-{t_r})*{half}")
-        w.line("tip face temperature [degC]", formula=face, engine=fv.tip_temperature, fmt=F_T)
+        w.value_row("tip face temperature [degC]", formula=face, engine=fv.tip_temperature, fmt=F_T)
     else:
         w.stated("tip face temperature [degC] (engine)", fv.tip_temperature, F_T)
     w.stated("heat leaving through the tip face [W] (engine)", fv.heat_loss_tip, F_G)
-    w.line("relative difference to the closed form (q_FV − q_f)/q_f [-]",
-           formula=f"=({q_fv}-{r['q']})/{r['q']}", fmt=F_E,
-           note="the closed form uses the constant h" if nonlinear else
-           "second-order in dx (see the mesh estimate)")
+    w.value_row("relative difference to the closed form (q_FV − q_f)/q_f [-]",
+                formula=f"=({q_fv}-{r['q']})/{r['q']}", fmt=F_E,
+                note="the closed form uses the constant h" if nonlinear else
+                "second-order in dx (see the mesh estimate)")
     est = fv.mesh_estimate
     rows = [("energy-balance residual, relative [-]", fv.energy_residual, F_E,
              "conservation and solver rounding; the closed form above checks the coefficients")]

@@ -14,10 +14,9 @@ from __future__ import annotations
 
 import math
 
-import numpy as np
-
 from ..fins.annular import AnnularFin
-from .plan import Sheet, col_letter
+from .plan import col_letter
+from .rows import RowLayout
 
 __all__ = ["k_formula", "K_STEP", "K_LIMIT", "K_NODE_COL", "HEADER_ROWS"]
 
@@ -29,65 +28,10 @@ K_NODE_COL = 27  # AA
 #: Rows 1 to HEADER_ROWS hold the title, inputs of the header and the check count.
 HEADER_ROWS = 10
 F_G = "0.000000"
+#: Columns of a fin sheet\'s rows: label B, value G, engine K, check L, note N.
+FIN_ROWS = RowLayout(default_format=F_G, header_height=30.0, title_merge="N")
 F_E = "0.000E+00"
 F_T = "0.0000"
-
-class _W:
-    """Row cursor and shorthand (label B, value G, engine K, check L, note N)."""
-
-    def __init__(self, sheet: Sheet, tol: str) -> None:
-        self.sheet, self.tol, self.row, self.checks, self.section = sheet, tol, 1, 0, 0
-        self.block = sheet.block("header")
-
-    def start(self, name: str, title: str) -> None:
-        self.block = self.sheet.block(name)
-        self.section += 1
-        self.row += 1
-        self.put(2, f"{self.section}. {title}", style="hl subtitle")
-        self.sheet.merges.append(f"B{self.row}:N{self.row}")
-        self.row += 1
-
-    def put(self, col, value=None, *, formula=None, style=None, fmt=None, role=None, row=None):
-        a1 = f"{col_letter(col)}{self.row if row is None else row}"
-        self.block.put(a1, value, formula=formula, style=style, number_format=fmt, role=role)
-        return a1
-
-    def check(self, col, f_ref, e_ref, *, row=None):
-        self.checks += 1
-        f = (f'=IF(ABS({f_ref}-{e_ref})<={self.tol}*MAX(1,ABS({e_ref})),"OK",'
-             f'"MISMATCH: differs by "&({f_ref}-{e_ref}))')
-        return self.put(col, formula=f, role="check", row=row)
-
-    def line(self, label, *, formula=None, value=None, engine=None, fmt=F_G, note="",
-             role=None):
-        self.put(2, label)
-        ref = self.put(7, value, formula=formula, fmt=fmt,
-                       role=role or ("formula" if formula else "input"))
-        if engine is not None and np.isfinite(engine):
-            self.check(12, ref, self.put(11, float(engine), role="engine", fmt=fmt))
-        if note:
-            self.put(14, note, role="note")
-        self.row += 1
-        return ref
-
-    def stated(self, label, value, fmt=F_G, note=""):
-        self.put(2, label)
-        if isinstance(value, str) or value is None:
-            ref = self.put(7, "" if value is None else value, style="hl text")
-        else:
-            ref = self.put(7, float(value) if np.isfinite(value) else str(value),
-                           role="engine", fmt=fmt)
-        if note:
-            self.put(14, note, role="note")
-        self.row += 1
-        return ref
-
-    def headers(self, names, first=1):
-        for i, name in enumerate(names):
-            self.put(first + i, name, role="header")
-        self.sheet.row_heights[self.row] = 30.0
-        self.row += 1
-
 
 def k_formula(x: str, order: int, nodes: str) -> str:
     """Spreadsheet expression of ``K_order(x)`` by the trapezoidal rule on ``nodes``.
@@ -122,8 +66,8 @@ def _describe(fin) -> str:
 
 def _mm_inputs(w, r, items):
     for key, label, value in items:
-        mm = w.line(f"{label} [mm]", value=float(value) * 1000.0, fmt="0.000")
-        r[key] = w.line(f"{label} [m]", formula=f"={mm}/1000", engine=float(value), fmt=F_G)
+        mm = w.value_row(f"{label} [mm]", value=float(value) * 1000.0, fmt="0.000")
+        r[key] = w.value_row(f"{label} [m]", formula=f"={mm}/1000", engine=float(value), fmt=F_G)
 
 
 def _fin_size_inputs(w, r, fin, thickness: str, diameter: str) -> bool:
@@ -139,52 +83,56 @@ def _fin_size_inputs(w, r, fin, thickness: str, diameter: str) -> bool:
 def _straight(w, r, fin, res):
     plate = _fin_size_inputs(w, r, fin, "plate thickness", "pin diameter")
     if fin.tip == "temperature":
-        r["TL"] = w.line("T_L, prescribed tip temperature [degC]",
-                         value=float(fin.tip_temperature), fmt="0.00")
+        r["TL"] = w.value_row("T_L, prescribed tip temperature [degC]",
+                              value=float(fin.tip_temperature), fmt="0.00")
     w.start("geometry", "Fin parameter (Incropera & DeWitt, section 3.6.2, Table 3.4)")
     c = res.coefficients
-    r["Ac"] = w.line("A_c, cross-section [m2]", formula=(f"={r['w']}*{r['t']}" if plate else
-                     f"=PI()*{r['D']}^2/4"), engine=fin.cross_section_area, fmt=F_E,
-                     note="w t (plate) or π D²/4 (pin)")
-    r["P"] = w.line("P, perimeter [m]", formula=(f"=2*({r['w']}+{r['t']})" if plate else
-                    f"=PI()*{r['D']}"), engine=fin.perimeter, fmt=F_G,
-                    note="2(w + t), side edges included (plate), or π D (pin)")
+    r["Ac"] = w.value_row("A_c, cross-section [m2]", formula=(f"={r['w']}*{r['t']}" if plate else
+                          f"=PI()*{r['D']}^2/4"), engine=fin.cross_section_area, fmt=F_E,
+                          note="w t (plate) or π D²/4 (pin)")
+    r["P"] = w.value_row("P, perimeter [m]", formula=(f"=2*({r['w']}+{r['t']})" if plate else
+                         f"=PI()*{r['D']}"), engine=fin.perimeter, fmt=F_G,
+                         note="2(w + t), side edges included (plate), or π D (pin)")
     extra = (f"+{r['t']}/2" if plate else f"+{r['D']}/4") if fin.corrected_length else ""
-    r["Le"] = w.line("L_e, length in the formulas [m]", formula=f"={r['L']}{extra}",
-                     engine=fin.effective_length, fmt=F_G,
-                     note="corrected length L_c = L + t/2 (plate) or L + D/4 (pin)"
-                     if extra else "L")
-    r["m"] = w.line("m = √(h P/(λ A_c)) [1/m]",
-                    formula=f"=SQRT({r['h']}*{r['P']}/({r['k']}*{r['Ac']}))", engine=fin.m)
-    r["mL"] = w.line("m L_e [-]", formula=f"={r['m']}*{r['Le']}", engine=c["mL"])
-    r["M"] = w.line("M = √(h P λ A_c) [W/K]",
-                    formula=f"=SQRT({r['h']}*{r['P']}*{r['k']}*{r['Ac']})", engine=c["M_per_K"])
+    r["Le"] = w.value_row("L_e, length in the formulas [m]", formula=f"={r['L']}{extra}",
+                          engine=fin.effective_length, fmt=F_G,
+                          note="corrected length L_c = L + t/2 (plate) or L + D/4 (pin)"
+                          if extra else "L")
+    r["m"] = w.value_row("m = √(h P/(λ A_c)) [1/m]",
+                         formula=f"=SQRT({r['h']}*{r['P']}/({r['k']}*{r['Ac']}))", engine=fin.m)
+    r["mL"] = w.value_row("m L_e [-]", formula=f"={r['m']}*{r['Le']}", engine=c["mL"])
+    r["M"] = w.value_row("M = √(h P λ A_c) [W/K]",
+                         formula=f"=SQRT({r['h']}*{r['P']}*{r['k']}*{r['Ac']})",
+                         engine=c["M_per_K"])
     beta_on = fin.tip == "convective" and not fin.corrected_length
-    r["beta"] = w.line("h/(m λ) [-]", formula=f"={r['h']}/({r['m']}*{r['k']})",
-                       engine=c["h_over_mk"], note="used by the convective tip")
+    r["beta"] = w.value_row("h/(m λ) [-]", formula=f"={r['h']}/({r['m']}*{r['k']})",
+                            engine=c["h_over_mk"], note="used by the convective tip")
     if fin.corrected_length:
         af = f"={r['P']}*{r['Le']}"
     elif fin.tip == "convective":
         af = f"={r['P']}*{r['L']}+{r['Ac']}"
     else:
         af = f"={r['P']}*{r['L']}"
-    r["Af"] = w.line("A_f, fin surface in the efficiency [m2]", formula=af, engine=fin.fin_area,
-                     fmt=F_E, note="P L + A_c (convective tip), P L_c (corrected), P L")
+    r["Af"] = w.value_row("A_f, fin surface in the efficiency [m2]", formula=af,
+                          engine=fin.fin_area,
+                          fmt=F_E, note="P L + A_c (convective tip), P L_c (corrected), P L")
     w.start("results", "Heat rate, efficiency, effectiveness, resistance")
     ml, big_m, beta, th = r["mL"], r["M"], r["beta"], r["theta"]
     if fin.tip == "temperature":
-        r["thL"] = w.line("θ_L = T_L − T_inf [K]", formula=f"={r['TL']}-{r['tinf']}", fmt="0.00")
-        r["q"] = w.line("q_f = M (θ_b cosh mL − θ_L)/sinh mL [W]",
-                        formula=f"={big_m}*({th}*COSH({ml})-{r['thL']})/SINH({ml})",
-                        engine=res.heat_rate, note="Table 3.4 case C")
-        r["eta"] = w.line("η_f = M (θ_b + θ_L) tanh(mL/2)/(h A_f θ_b) [-]",
-                          formula=f"={big_m}*({th}+{r['thL']})*TANH({ml}/2)/({r['h']}*{r['Af']}"
-                                  f"*{th})", engine=res.efficiency,
-                          note="heat convected from the side over h A_f θ_b")
-        r["eps"] = w.line("ε_f = q_f/(h A_c θ_b) [-]",
-                          formula=f"={r['q']}/({r['h']}*{r['Ac']}*{th})", engine=res.effectiveness)
-        r["R"] = w.line("R_t,f = θ_b/q_f [K/W]", formula=f"={th}/{r['q']}",
-                        engine=res.fin_resistance)
+        r["thL"] = w.value_row("θ_L = T_L − T_inf [K]", formula=f"={r['TL']}-{r['tinf']}",
+                               fmt="0.00")
+        r["q"] = w.value_row("q_f = M (θ_b cosh mL − θ_L)/sinh mL [W]",
+                             formula=f"={big_m}*({th}*COSH({ml})-{r['thL']})/SINH({ml})",
+                             engine=res.heat_rate, note="Table 3.4 case C")
+        r["eta"] = w.value_row("η_f = M (θ_b + θ_L) tanh(mL/2)/(h A_f θ_b) [-]",
+                               formula=f"={big_m}*({th}+{r['thL']})*TANH({ml}/2)/({r['h']}*{r['Af']}"
+                                       f"*{th})", engine=res.efficiency,
+                               note="heat convected from the side over h A_f θ_b")
+        r["eps"] = w.value_row("ε_f = q_f/(h A_c θ_b) [-]",
+                               formula=f"={r['q']}/({r['h']}*{r['Ac']}*{th})",
+                               engine=res.effectiveness)
+        r["R"] = w.value_row("R_t,f = θ_b/q_f [K/W]", formula=f"={th}/{r['q']}",
+                             engine=res.fin_resistance)
         tip = f"={r['tinf']}+{r['thL']}"
     else:
         g = {"convective": (f"={big_m}*(SINH({ml})+{beta}*COSH({ml}))/(COSH({ml})+{beta}"
@@ -193,24 +141,25 @@ def _straight(w, r, fin, res):
              "infinite": (f"={big_m}", "Table 3.4 case D")}
         key = "adiabatic" if fin.corrected_length else fin.tip
         note = g[key][1] + (" on L_c (approximates case A)" if fin.corrected_length else "")
-        r["G"] = w.line("G_f = q_f/θ_b [W/K]", formula=g[key][0], engine=fin.conductance,
-                        note=note)
-        r["q"] = w.line("q_f = G_f θ_b [W]", formula=f"={r['G']}*{th}", engine=res.heat_rate)
+        r["G"] = w.value_row("G_f = q_f/θ_b [W/K]", formula=g[key][0], engine=fin.conductance,
+                             note=note)
+        r["q"] = w.value_row("q_f = G_f θ_b [W]", formula=f"={r['G']}*{th}", engine=res.heat_rate)
         if fin.tip == "infinite":  # the loss on the stated length L only, at most 1
-            r["eta"] = w.line("η_f = (1 − e^(−mL))/(m L) [-]", formula=f"=(1-EXP(-{ml}))/{ml}",
-                              engine=res.efficiency,
-                              note="case D: heat shed on 0..L, M θ_b (1 − e^(−mL)), over "
-                                   "h A_f θ_b")
+            r["eta"] = w.value_row("η_f = (1 − e^(−mL))/(m L) [-]", formula=f"=(1-EXP(-{ml}))/{ml}",
+                                   engine=res.efficiency,
+                                   note="case D: heat shed on 0..L, M θ_b (1 − e^(−mL)), over "
+                                        "h A_f θ_b")
         else:
-            r["eta"] = w.line("η_f = G_f/(h A_f) [-]",
-                              formula=f"={r['G']}/({r['h']}*{r['Af']})", engine=res.efficiency,
-                              note="eq. 3.86")
-        r["eps"] = w.line("ε_f = G_f/(h A_c) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
-                          engine=res.effectiveness, note="eq. 3.81")
-        r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance,
-                        note="eq. 3.83")
+            r["eta"] = w.value_row("η_f = G_f/(h A_f) [-]",
+                                   formula=f"={r['G']}/({r['h']}*{r['Af']})", engine=res.efficiency,
+                                   note="eq. 3.86")
+        r["eps"] = w.value_row("ε_f = G_f/(h A_c) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
+                               engine=res.effectiveness, note="eq. 3.81")
+        r["R"] = w.value_row("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}",
+                             engine=res.fin_resistance,
+                             note="eq. 3.83")
         tip = f"={r['tinf']}+{th}*" + _theta_ratio(fin, r, r["L"], beta_on)
-    r["tip"] = w.line("T at the tip [degC]", formula=tip, engine=res.tip_temperature, fmt=F_T)
+    r["tip"] = w.value_row("T at the tip [degC]", formula=tip, engine=res.tip_temperature, fmt=F_T)
 
 
 def _theta_ratio(fin, r, x: str, beta_on: bool) -> str:
@@ -230,13 +179,13 @@ def _profiled(w, r, fin, res):
     w.start("geometry", f"{fin.profile.capitalize()} {fin.shape} fin (Incropera & DeWitt, "
                         "Table 3.5)")
     L = r["L"]  # noqa: N806 - the textbook's symbol
-    r["Ac"] = w.line("A_c,b, cross-section at the base [m2]",
-                     formula=f"={r['w']}*{r['t']}" if plate else f"=PI()*{r['D']}^2/4",
-                     engine=fin.cross_section_area, fmt=F_E)
-    r["m"] = w.line("m = √(2h/(λ t)) (plate) or √(4h/(λ D)) (pin) [1/m]",
-                    formula=(f"=SQRT(2*{r['h']}/({r['k']}*{r['t']}))" if plate else
-                             f"=SQRT(4*{r['h']}/({r['k']}*{r['D']}))"), engine=fin.m)
-    r["mL"] = w.line("m L [-]", formula=f"={r['m']}*{L}", engine=res.coefficients["mL"])
+    r["Ac"] = w.value_row("A_c,b, cross-section at the base [m2]",
+                          formula=f"={r['w']}*{r['t']}" if plate else f"=PI()*{r['D']}^2/4",
+                          engine=fin.cross_section_area, fmt=F_E)
+    r["m"] = w.value_row("m = √(2h/(λ t)) (plate) or √(4h/(λ D)) (pin) [1/m]",
+                         formula=(f"=SQRT(2*{r['h']}/({r['k']}*{r['t']}))" if plate else
+                                  f"=SQRT(4*{r['h']}/({r['k']}*{r['D']}))"), engine=fin.m)
+    r["mL"] = w.value_row("m L [-]", formula=f"={r['m']}*{L}", engine=res.coefficients["mL"])
     ml = r["mL"]
     if plate and fin.profile == "triangular":
         af = f"=2*{r['w']}*SQRT({L}^2+({r['t']}/2)^2)"
@@ -256,19 +205,20 @@ def _profiled(w, r, fin, res):
         af = (f"=PI()*{L}^4/(8*{r['D']}^2)*({a}*(2*{a}^2+1)*SQRT(1+{a}^2)-ASINH({a}))")
         eta = f"=2/(SQRT(4/9*{ml}^2+1)+1)"
         note = "η = 2/(√((4/9)(mL)² + 1) + 1)"
-    r["Af"] = w.line("A_f, fin surface [m2]", formula=af, engine=fin.fin_area, fmt=F_E,
-                     note="true surface of the profile")
+    r["Af"] = w.value_row("A_f, fin surface [m2]", formula=af, engine=fin.fin_area, fmt=F_E,
+                          note="true surface of the profile")
     w.start("results", "Heat rate, efficiency, effectiveness, resistance")
-    r["eta"] = w.line("η_f, fin efficiency [-]", formula=eta, engine=res.efficiency, note=note)
-    r["G"] = w.line("G_f = η_f h A_f [W/K]", formula=f"={r['eta']}*{r['h']}*{r['Af']}",
-                    engine=fin.conductance)
-    r["q"] = w.line("q_f = G_f θ_b [W]", formula=f"={r['G']}*{r['theta']}", engine=res.heat_rate)
-    r["eps"] = w.line("ε_f = G_f/(h A_c,b) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
-                      engine=res.effectiveness)
-    r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance)
-    r["tip"] = w.line("T at the tip [degC]",
-                      formula=f"={r['tinf']}+{r['theta']}*{_profile_ratio(fin, r, '0')}",
-                      engine=res.tip_temperature, fmt=F_T)
+    r["eta"] = w.value_row("η_f, fin efficiency [-]", formula=eta, engine=res.efficiency, note=note)
+    r["G"] = w.value_row("G_f = η_f h A_f [W/K]", formula=f"={r['eta']}*{r['h']}*{r['Af']}",
+                         engine=fin.conductance)
+    r["q"] = w.value_row("q_f = G_f θ_b [W]", formula=f"={r['G']}*{r['theta']}",
+                         engine=res.heat_rate)
+    r["eps"] = w.value_row("ε_f = G_f/(h A_c,b) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
+                           engine=res.effectiveness)
+    r["R"] = w.value_row("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance)
+    r["tip"] = w.value_row("T at the tip [degC]",
+                           formula=f"={r['tinf']}+{r['theta']}*{_profile_ratio(fin, r, '0')}",
+                           engine=res.tip_temperature, fmt=F_T)
 
 
 def _profile_ratio(fin, r, xt: str) -> str:
@@ -285,34 +235,35 @@ def _profile_ratio(fin, r, xt: str) -> str:
 
 
 def _annular(w, r, fin, res, entry):
-    d1 = w.line("D_1, tube outside diameter (fin root) [mm]",
-                value=fin.inner_radius * 2000.0, fmt="0.000")
-    d2 = w.line("D_2, fin outside diameter [mm]", value=fin.outer_radius * 2000.0, fmt="0.000")
-    t = w.line("t, fin thickness [mm]", value=fin.thickness * 1000.0, fmt="0.000")
-    r["r1"] = w.line("r_1 = D_1/2 [m]", formula=f"={d1}/2000", engine=fin.inner_radius)
-    r["r2"] = w.line("r_2 = D_2/2 [m]", formula=f"={d2}/2000", engine=fin.outer_radius)
-    r["t"] = w.line("t [m]", formula=f"={t}/1000", engine=fin.thickness)
+    d1 = w.value_row("D_1, tube outside diameter (fin root) [mm]",
+                     value=fin.inner_radius * 2000.0, fmt="0.000")
+    d2 = w.value_row("D_2, fin outside diameter [mm]", value=fin.outer_radius * 2000.0, fmt="0.000")
+    t = w.value_row("t, fin thickness [mm]", value=fin.thickness * 1000.0, fmt="0.000")
+    r["r1"] = w.value_row("r_1 = D_1/2 [m]", formula=f"={d1}/2000", engine=fin.inner_radius)
+    r["r2"] = w.value_row("r_2 = D_2/2 [m]", formula=f"={d2}/2000", engine=fin.outer_radius)
+    r["t"] = w.value_row("t [m]", formula=f"={t}/1000", engine=fin.thickness)
     nodes = _k_nodes(w, fin)
     w.start("bessel", "Bessel solution θ = A I0(m r) + B K0(m r) (Incropera & DeWitt 3.6.3)")
     corr = f"+{r['t']}/2" if fin.corrected_length else ""
-    r["r2c"] = w.line("r_2c, outer radius in the formulas [m]", formula=f"={r['r2']}{corr}",
-                      engine=fin.effective_outer_radius,
-                      note="corrected r_2 + t/2" if corr else "r_2")
-    r["m"] = w.line("m = √(2h/(λ t)) [1/m]", formula=f"=SQRT(2*{r['h']}/({r['k']}*{r['t']}))",
-                    engine=fin.m)
-    x1 = w.line("x_1 = m r_1 [-]", formula=f"={r['m']}*{r['r1']}", engine=fin.m * fin.inner_radius)
-    x2 = w.line("x_2 = m r_2c [-]", formula=f"={r['m']}*{r['r2c']}",
-                engine=fin.m * fin.effective_outer_radius)
+    r["r2c"] = w.value_row("r_2c, outer radius in the formulas [m]", formula=f"={r['r2']}{corr}",
+                           engine=fin.effective_outer_radius,
+                           note="corrected r_2 + t/2" if corr else "r_2")
+    r["m"] = w.value_row("m = √(2h/(λ t)) [1/m]", formula=f"=SQRT(2*{r['h']}/({r['k']}*{r['t']}))",
+                         engine=fin.m)
+    x1 = w.value_row("x_1 = m r_1 [-]", formula=f"={r['m']}*{r['r1']}",
+                     engine=fin.m * fin.inner_radius)
+    x2 = w.value_row("x_2 = m r_2c [-]", formula=f"={r['m']}*{r['r2c']}",
+                     engine=fin.m * fin.effective_outer_radius)
     values = fin.bessel_values()
     b = {}
     for x, lab in ((x1, "x_1"), (x2, "x_2")):
         for n in (0, 1):
-            b[("I", n, x)] = w.line(f"I{n}({lab}) = BESSELI [-]", formula=f"=BESSELI({x},{n})",
-                                    engine=values[("I", n, lab)], fmt=F_E)
-            b[("K", n, x)] = w.line(f"K{n}({lab}) by the integral (A&S 9.6.24) [-]",
-                                    formula="=" + k_formula(x, n, nodes),
-                                    engine=values[("K", n, lab)], fmt=F_E,
-                                    note="trapezoidal rule on the nodes in column AA")
+            b[("I", n, x)] = w.value_row(f"I{n}({lab}) = BESSELI [-]", formula=f"=BESSELI({x},{n})",
+                                         engine=values[("I", n, lab)], fmt=F_E)
+            b[("K", n, x)] = w.value_row(f"K{n}({lab}) by the integral (A&S 9.6.24) [-]",
+                                         formula="=" + k_formula(x, n, nodes),
+                                         engine=values[("K", n, lab)], fmt=F_E,
+                                         note="trapezoidal rule on the nodes in column AA")
             w.put(2, f"K{n}({lab}) = BESSELK, for comparison only [-]")
             bk = w.put(7, formula=f"=BESSELK({x},{n})", fmt=F_E)
             # shown as 1.9E-9 (3 significant figures), not 15 digits of a fraction
@@ -322,48 +273,49 @@ def _annular(w, r, fin, res, entry):
                               f'ROUND({d}/10^{e},2)&"E"&{e})', role="note")
             w.row += 1
     exact_rim = fin.tip == "convective" and not fin.corrected_length
-    hr = w.line("h at the rim [W/(m2 K)]", formula=f"={r['h']}" if exact_rim else None,
-                value=None if exact_rim else 0.0, role="formula" if exact_rim else "engine",
-                note="convective rim: h; adiabatic rim (or corrected radius): 0")
+    hr = w.value_row("h at the rim [W/(m2 K)]", formula=f"={r['h']}" if exact_rim else None,
+                     value=None if exact_rim else 0.0, role="formula" if exact_rim else "engine",
+                     note="convective rim: h; adiabatic rim (or corrected radius): 0")
     k, m = r["k"], r["m"]
-    a = w.line("a = λ m I1(x_2) + h_rim I0(x_2) [W/(m2 K)]",
-               formula=f"={k}*{m}*{b[('I', 1, x2)]}+{hr}*{b[('I', 0, x2)]}", fmt=F_E)
-    bb = w.line("b = −λ m K1(x_2) + h_rim K0(x_2) [W/(m2 K)]",
-                formula=f"=-{k}*{m}*{b[('K', 1, x2)]}+{hr}*{b[('K', 0, x2)]}", fmt=F_E)
+    a = w.value_row("a = λ m I1(x_2) + h_rim I0(x_2) [W/(m2 K)]",
+                    formula=f"={k}*{m}*{b[('I', 1, x2)]}+{hr}*{b[('I', 0, x2)]}", fmt=F_E)
+    bb = w.value_row("b = −λ m K1(x_2) + h_rim K0(x_2) [W/(m2 K)]",
+                     formula=f"=-{k}*{m}*{b[('K', 1, x2)]}+{hr}*{b[('K', 0, x2)]}", fmt=F_E)
     den = f"({bb}*{b[('I', 0, x1)]}-{a}*{b[('K', 0, x1)]})"
-    r["A"] = w.line("A = b/(b I0(x_1) − a K0(x_1)) [-]", formula=f"={bb}/{den}", fmt=F_E,
-                    note="θ(r_1) = θ_b and λ θ'(r_2c) + h_rim θ(r_2c) = 0")
-    r["B"] = w.line("B = −a/(b I0(x_1) − a K0(x_1)) [-]", formula=f"=-{a}/{den}", fmt=F_E)
+    r["A"] = w.value_row("A = b/(b I0(x_1) − a K0(x_1)) [-]", formula=f"={bb}/{den}", fmt=F_E,
+                         note="θ(r_1) = θ_b and λ θ'(r_2c) + h_rim θ(r_2c) = 0")
+    r["B"] = w.value_row("B = −a/(b I0(x_1) − a K0(x_1)) [-]", formula=f"=-{a}/{den}", fmt=F_E)
     w.start("results", "Heat rate, efficiency, effectiveness, resistance")
     pi2 = "2*PI()"
-    r["Ac"] = w.line("A_c,b = 2π r_1 t [m2]", formula=f"={pi2}*{r['r1']}*{r['t']}",
-                     engine=fin.cross_section_area, fmt=F_E)
+    r["Ac"] = w.value_row("A_c,b = 2π r_1 t [m2]", formula=f"={pi2}*{r['r1']}*{r['t']}",
+                          engine=fin.cross_section_area, fmt=F_E)
     rim = f"+{pi2}*{r['r2']}*{r['t']}" if exact_rim else ""
-    r["Af"] = w.line("A_f = 2π (r_2c² − r_1²) (+ 2π r_2 t, convective rim) [m2]",
-                     formula=f"={pi2}*({r['r2c']}^2-{r['r1']}^2){rim}", engine=fin.fin_area,
-                     fmt=F_E)
-    r["G"] = w.line("G_f = −λ A_c,b m (A I1(x_1) − B K1(x_1)) [W/K]",
-                    formula=f"=-{k}*{r['Ac']}*{m}*({r['A']}*{b[('I', 1, x1)]}-{r['B']}*"
-                            f"{b[('K', 1, x1)]})", engine=fin.conductance,
-                    note="q_f = −λ A_c,b dθ/dr at r_1, per kelvin of θ_b")
-    r["q"] = w.line("q_f = G_f θ_b [W]", formula=f"={r['G']}*{r['theta']}", engine=res.heat_rate)
-    r["eta"] = w.line("η_f = G_f/(h A_f) [-]", formula=f"={r['G']}/({r['h']}*{r['Af']})",
-                      engine=res.efficiency)
+    r["Af"] = w.value_row("A_f = 2π (r_2c² − r_1²) (+ 2π r_2 t, convective rim) [m2]",
+                          formula=f"={pi2}*({r['r2c']}^2-{r['r1']}^2){rim}", engine=fin.fin_area,
+                          fmt=F_E)
+    r["G"] = w.value_row("G_f = −λ A_c,b m (A I1(x_1) − B K1(x_1)) [W/K]",
+                         formula=f"=-{k}*{r['Ac']}*{m}*({r['A']}*{b[('I', 1, x1)]}-{r['B']}*"
+                                 f"{b[('K', 1, x1)]})", engine=fin.conductance,
+                         note="q_f = −λ A_c,b dθ/dr at r_1, per kelvin of θ_b")
+    r["q"] = w.value_row("q_f = G_f θ_b [W]", formula=f"={r['G']}*{r['theta']}",
+                         engine=res.heat_rate)
+    r["eta"] = w.value_row("η_f = G_f/(h A_f) [-]", formula=f"={r['G']}/({r['h']}*{r['Af']})",
+                           engine=res.efficiency)
     if not exact_rim:
-        c2 = w.line("C_2 = (2 r_1/m)/(r_2c² − r_1²) [m]",
-                    formula=f"=(2*{r['r1']}/{m})/({r['r2c']}^2-{r['r1']}^2)",
-                    engine=res.coefficients["C2"], fmt=F_E)
+        c2 = w.value_row("C_2 = (2 r_1/m)/(r_2c² − r_1²) [m]",
+                         formula=f"=(2*{r['r1']}/{m})/({r['r2c']}^2-{r['r1']}^2)",
+                         engine=res.coefficients["C2"], fmt=F_E)
         i0a, i1a, k0a, k1a = (b[("I", 0, x1)], b[("I", 1, x1)], b[("K", 0, x1)], b[("K", 1, x1)])
         i1b, k1b = b[("I", 1, x2)], b[("K", 1, x2)]
-        w.line("η_f by the closed form of Kern eq. 16.58 [-]",
-               formula=f"={c2}*({k1a}*{i1b}-{i1a}*{k1b})/({i0a}*{k1b}+{k0a}*{i1b})",
-               engine=res.efficiency, note="adiabatic rim (Incropera & DeWitt eq. 3.96)")
-    r["eps"] = w.line("ε_f = G_f/(h A_c,b) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
-                      engine=res.effectiveness)
-    r["R"] = w.line("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance)
-    r["tip"] = w.line("T at the fin's outer radius r_2 [degC]",
-                      formula=f"={r['tinf']}+{r['theta']}*{_annular_ratio(r, r['r2'], nodes)}",
-                      engine=res.tip_temperature, fmt=F_T)
+        w.value_row("η_f by the closed form of Kern eq. 16.58 [-]",
+                    formula=f"={c2}*({k1a}*{i1b}-{i1a}*{k1b})/({i0a}*{k1b}+{k0a}*{i1b})",
+                    engine=res.efficiency, note="adiabatic rim (Incropera & DeWitt eq. 3.96)")
+    r["eps"] = w.value_row("ε_f = G_f/(h A_c,b) [-]", formula=f"={r['G']}/({r['h']}*{r['Ac']})",
+                           engine=res.effectiveness)
+    r["R"] = w.value_row("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance)
+    r["tip"] = w.value_row("T at the fin's outer radius r_2 [degC]",
+                           formula=f"={r['tinf']}+{r['theta']}*{_annular_ratio(r, r['r2'], nodes)}",
+                           engine=res.tip_temperature, fmt=F_T)
     r["nodes"] = nodes
 
 

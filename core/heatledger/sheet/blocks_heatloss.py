@@ -29,7 +29,8 @@ from ..heatloss import AIR_DENSITY, AIR_SPECIFIC_HEAT, AdjacentRoom, Ground, Out
 from ..heatloss.results import GroundFloorU
 from ..windows import DeclaredWindow, WindowResult
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet
-from .plan import Chart, ChartSeries, WorkbookPlan, col_letter, safe_sheet_name, sheet_ref
+from .plan import Chart, ChartSeries, WorkbookPlan, safe_sheet_name, sheet_ref
+from .rows import CheckRows, RowLayout
 
 __all__ = ["HeatLossRefs", "add_heatloss_sheets", "BUILDING_SHEET", "DEFAULT_CHECK_TOLERANCE",
            "HEATLOSS_METHODS"]
@@ -108,70 +109,26 @@ class HeatLossRefs:
     check_total: int
     extras: dict = field(default_factory=dict)
 
+#: Columns of a heat-loss sheet's rows: label B, value G, engine L, check M, note S.
+HEATLOSS_ROWS = RowLayout(engine=12, check=13, note=19, default_format=FMT_H,
+                          note_style=NOTE_STYLE, header_height=27.0)
 
-class _W:
-    """Row cursor of a sheet with shorthand for labelled rows and check cells."""
 
-    def __init__(self, sheet, tol: str) -> None:
-        self.sheet = sheet
-        self.tol = tol
-        self.row = 1
-        self.block = sheet.block("header")
-        self.checks = 0
-        self.section = 0
+def _counters(w: CheckRows, last_row: int, columns: str) -> tuple[str, str]:
+    """Fill the check counters of the header (F4:J6); return (count, ok) refs.
 
-    def start(self, name: str, title: str) -> None:
-        self.block = self.sheet.block(name)
-        self.section += 1
-        self.row += 1
-        self.put(2, f"{self.section}. {title}", style="hl subtitle")
-        self.row += 1
-
-    def put(self, col, value=None, *, formula=None, style=None, fmt=None, role=None, row=None):
-        a1 = f"{col_letter(col)}{self.row if row is None else row}"
-        self.block.put(a1, value, formula=formula, style=style, number_format=fmt, role=role)
-        return a1
-
-    def check(self, col, formula_ref, engine_ref, *, row=None):
-        self.checks += 1
-        f = (f'=IF(ABS({formula_ref}-{engine_ref})<={self.tol}*MAX(1,ABS({engine_ref})),'
-             f'"OK","MISMATCH: differs by "&({formula_ref}-{engine_ref}))')
-        return self.put(col, formula=f, role="check", row=row)
-
-    def value_row(self, label, *, formula=None, value=None, engine=None, fmt=FMT_H, note=""):
-        """Label in B, value or formula in G, engine in L, check in M, note in S."""
-        self.put(2, label)
-        ref = self.put(7, value, formula=formula, fmt=fmt,
-                       role="formula" if formula else "input")
-        if engine is not None:
-            eng = self.put(12, float(engine), role="engine", fmt=fmt)
-            self.check(13, ref, eng)
-        if note:
-            self.put(19, note, role="note", style=NOTE_STYLE)
-        self.row += 1
-        return ref
-
-    def headers(self, names) -> None:
-        for i, name in enumerate(names, 1):
-            self.put(i, name, role="header")
-        self.sheet.row_heights[self.row] = 27.0
-        self.row += 1
-
-    def counters(self, last_row: int, columns: str) -> tuple[str, str]:
-        """Fill the check counters of the header (F4:J6); return (count, ok) refs.
-
-        Only the check columns are counted, so a name that reads "OK" is not a check.
-        """
-        self.block = self.sheet.block("header")
-        self.put(6, "Check cells on this sheet", row=4)
-        count = self.put(10, self.checks, role="engine", fmt="0", row=4)
-        self.put(6, "Check cells that say OK", row=5)
-        terms = "+".join(f'COUNTIF({c}{HEADER_ROWS + 1}:{c}{last_row},"OK")' for c in columns)
-        ok = self.put(10, formula=f"={terms}", fmt="0", row=5)
-        self.put(6, "State of this sheet", row=6)
-        self.put(10, formula=f'=IF({ok}={count},"ALL CHECKS OK","NOT ALL OK")',
-                 style="hl check", role="formula", row=6)
-        return count, ok
+    Only the check columns are counted, so a name that reads "OK" is not a check.
+    """
+    w.block = w.sheet.block("header")
+    w.put(6, "Check cells on this sheet", row=4)
+    count = w.put(10, w.checks, role="engine", fmt="0", row=4)
+    w.put(6, "Check cells that say OK", row=5)
+    terms = "+".join(f'COUNTIF({c}{HEADER_ROWS + 1}:{c}{last_row},"OK")' for c in columns)
+    ok = w.put(10, formula=f"={terms}", fmt="0", row=5)
+    w.put(6, "State of this sheet", row=6)
+    w.put(10, formula=f'=IF({ok}={count},"ALL CHECKS OK","NOT ALL OK")',
+          style="hl check", role="formula", row=6)
+    return count, ok
 
 
 def add_heatloss_sheets(plan: WorkbookPlan, building_input, *, project_name: str = "",
@@ -229,7 +186,7 @@ def add_heatloss_sheets(plan: WorkbookPlan, building_input, *, project_name: str
 def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, project_name):
     sheet = add_calculation_sheet(plan, sname, [w for _h, w in TABLE_COLUMNS],
                                   f"{project_name} | {room.name}")
-    w = _W(sheet, f"${_TOL[0]}${_TOL[1:]}")
+    w = CheckRows(sheet, f"${_TOL[0]}${_TOL[1:]}", HEATLOSS_ROWS)
     w.put(1, f"Room {room.name}: heat loss and design heat load", style="hl title")
     sheet.merges.append("A1:S1")
     w.row = 2
@@ -376,7 +333,7 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
         w.put(2, text, role="note")
         w.row += 1
     last = w.row
-    count, ok = w.counters(last, "MQ")
+    count, ok = _counters(w, last, "MQ")
     s = sname
     return {"sheet": s, "transmission": sheet_ref(s, h_t), "internal": sheet_ref(s, h_int),
             "ventilation": sheet_ref(s, h_vr), "load": sheet_ref(s, load),
@@ -622,7 +579,7 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
     widths = [5, 40, 24, 10, 11, 11, 11, 11, 12, 12, 10, 10, 10, 10, 10, 10, 10, 10, 60]
     sheet = add_calculation_sheet(plan, BUILDING_SHEET, widths,
                                   f"{project_name} | building heat loss")
-    w = _W(sheet, f"${_B_TOL[0]}${_B_TOL[1:]}")
+    w = CheckRows(sheet, f"${_B_TOL[0]}${_B_TOL[1:]}", HEATLOSS_ROWS)
     b = bi.building
     w.put(1, f"Building {b.name}: heat loss, design heat load and annual energy",
           style="hl title")
@@ -777,7 +734,7 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
     w.put(2, "of which say OK")
     all_ok = w.put(7, formula="=" + "+".join([o for _c, o, _n in counters] + [own_ok]),
                    fmt="0")
-    count, ok = w.counters(last_row, "KM")
+    count, ok = _counters(w, last_row, "KM")
     assert (count, ok) == (own_count, own_ok)
 
     sheet.charts.append(Chart(
