@@ -6,7 +6,7 @@ import pytest
 from heatledger import HeatLedgerError, air_layer_resistance, ventilation_class
 
 # source: EN ISO 6946:2017, Table 8, emissivities 0.9, mean temperature 10 degC (from memory,
-# flagged [M+V] in REFERENCES.md: reproduced by the Annex D formulas)
+# [source: iso6946-airlayers]: reproduced by the Annex D formulas)
 ISO6946_TABLE8_THICKNESS_MM = [0, 5, 7, 10, 15, 25, 50, 100, 300]
 ISO6946_TABLE8_UNVENTILATED_AIR_LAYERS = {
     "up": [0.00, 0.11, 0.13, 0.15, 0.16, 0.16, 0.16, 0.16, 0.16],

@@ -50,7 +50,7 @@ def test_no_command_is_usage_error(capsys):
 
 
 def test_write_toml_does_not_replace_without_force(tmp_path, capsys):
-    # DESIGN.md section 6: an existing file is not replaced unless the user asks (--force)
+    # DEVELOPERS.md, "Design rules": an existing file is not replaced unless the user asks (--force)
     target = tmp_path / "d.toml"
     target.write_text("mine", encoding="utf-8")
     assert main(["demo", "--write-toml", str(target)]) == 1

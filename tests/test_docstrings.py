@@ -1,5 +1,5 @@
 """Every public parameter is documented with its unit in brackets at the end of its
-description (DESIGN.md section 11): ``Layer thickness. [m]``, ``[-]`` when dimensionless."""
+description (DEVELOPERS.md, "Conventions"): ``Layer thickness. [m]``, ``[-]`` when dimensionless."""
 
 import importlib
 import inspect

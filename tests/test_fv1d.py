@@ -99,7 +99,7 @@ def test_adiabatic_face_with_convection():
 
 
 def test_fixed_surface_and_convection_derived_profile():
-    # derived here (REFERENCES.md section 9): T = T_s + C1 x - q x^2/(2k),
+    # derived here [source: incropera-6, 3.5]: T = T_s + C1 x - q x^2/(2k),
     # C1 = [q L (1 + h L/(2k)) - h (T_s - T_inf)] / (k + h L)
     length, k, q_gen, h, ts, t_inf = 0.08, 1.1, 3.0e4, 12.0, 40.0, 5.0
     c1 = (q_gen * length * (1 + h * length / (2 * k)) - h * (ts - t_inf)) / (k + h * length)

@@ -4,8 +4,8 @@ import pytest
 
 from heatledger import HeatLedgerError, Material, default_library
 
-# source: EN ISO 10456:2007 Table 3, rows confirmed in a secondary source (REFERENCES.md
-# section 10, [C])
+# source: EN ISO 10456:2007 Table 3, rows confirmed in a secondary source
+# [source: iso10456, Table 3]
 ISO10456_TABLE3_READ = {
     "concrete medium density 2000": (2000, 1.35),
     "reinforced concrete 2% steel": (2400, 2.5),
@@ -45,8 +45,8 @@ def test_add_and_override():
     assert lib.get("MY BOARD").conductivity == 0.03
     with pytest.raises(HeatLedgerError, match="already in the library"):
         lib.add(Material("steel", 45.0))
-    # source: CIBSE Guide A Table 3.36 lists steel at 45 W/(m K) (REFERENCES.md section 10,
-    # confirmed in a secondary source); used here only as an override value
+    # source: CIBSE Guide A Table 3.36 lists steel at 45 W/(m K) [source: cibse-guide-a,
+    # Table 3.36], confirmed in a secondary source; used here only as an override value
     lib.add(Material("steel", 45.0, source="CIBSE Guide A"), override=True)
     assert lib.get("steel").conductivity == 45.0
     # the shipped library is not changed by a user's copy

@@ -30,7 +30,7 @@ def iso10077_window_u(parts_g, parts_f, edges_g, parts_p=(), edges_p=()):
     """EN ISO 10077-1 whole-window equation written out from the sums, independently.
 
     source: EN ISO 10077-1:2017 clause 6 (Uw = (sum Ag Ug + sum Af Uf + sum lg psig
-    + sum Ap Up + sum lp psip) / (sum Ag + sum Af + sum Ap)); from memory, REFERENCES.md s.4.
+    + sum Ap Up + sum lp psip) / (sum Ag + sum Af + sum Ap)); from memory, [source: iso10077-1, 6].
     """
     num = 0.0
     den = 0.0
@@ -52,7 +52,7 @@ def test_single_light_window_by_hand():
     ag = 1.03 * 1.28
     af = aw - ag
     lg = 2 * (1.03 + 1.28)
-    # source: EN ISO 10077-1:2017 clause 6 equation, from memory (REFERENCES.md s.4)
+    # source: EN ISO 10077-1:2017 clause 6 equation, from memory [source: iso10077-1]
     expected = (ag * 1.1 + af * 1.3 + lg * 0.08) / aw
     got = window(ag, af, 1.1, 1.3, lg, 0.08, window_area=aw).u_value
     assert got == pytest.approx(expected, abs=atol_same_equation)
@@ -124,7 +124,7 @@ def test_result_is_not_rounded_and_rounding_is_separate():
 
 
 def test_shutter_adds_resistance_in_series():
-    # source: EN ISO 10077-1:2017, U_ws = 1/(1/U_w + dR), from memory (REFERENCES.md s.4)
+    # source: EN ISO 10077-1:2017, U_ws = 1/(1/U_w + dR), from memory [source: iso10077-1]
     assert window_with_shutter_u(1.4, 0.15) == pytest.approx(1.0 / (1.0 / 1.4 + 0.15))
     assert window_with_shutter_u(1.4, 0.0) == pytest.approx(1.4)
 
@@ -194,7 +194,7 @@ def test_zero_total_area_and_non_numbers_rejected():
 
 
 def test_psi_table_rows_match_references_and_carry_sources():
-    # from memory: EN ISO 10077-1:2006 Tables E.1/E.2 (Annex G in 2017), REFERENCES.md s.4 [M]
+    # from memory: EN ISO 10077-1:2006 Tables E.1/E.2 (Annex G in 2017) [source: iso10077-1, Annex G]
     recalled = {
         ("wood_or_pvc", "uncoated", "conventional"): 0.06,
         ("wood_or_pvc", "low_e", "conventional"): 0.08,

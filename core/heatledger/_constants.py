@@ -10,6 +10,8 @@ References
 ----------
 BIPM, *The International System of Units (SI)*, 9th edition (2019), Table 1 (defining
 constants) and 2.3.1; the Stefan-Boltzmann constant sigma = 2 pi^5 k^4 / (15 h^3 c^2).
+
+Sources: [source: bipm-si].
 """
 
 from __future__ import annotations

@@ -8,6 +8,8 @@ lists it for emissivities 0.9); slightly and well ventilated layers are treated 
 References
 ----------
 EN ISO 6946:2017, 6.9 (air layers), Table 8 (unventilated air layers), Annex D (eqs D.1-D.5).
+
+Sources: [source: iso6946-airlayers, 6.9, Table 8, Annex D].
 """
 
 from __future__ import annotations

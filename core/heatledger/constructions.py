@@ -12,6 +12,9 @@ References
 EN ISO 6946:2017, clauses 6.7 (total resistance; 6.7.2 upper and lower limits), 6.9 (air
 layers), 6.8 / Table 7 (surface resistances), Annex F (corrections), 8 (rounding to two
 significant figures). In the 2007 edition the corrections are Annex D.
+
+Sources: [source: iso6946-layers, 6.7, 6.7.2, clause 8]; corrections [source:
+iso6946-corrections, Annex F]; temperatures by finite volumes [source: patankar-1980, ch. 4].
 """
 
 from __future__ import annotations

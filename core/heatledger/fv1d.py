@@ -23,6 +23,9 @@ References
 ----------
 S. V. Patankar, *Numerical Heat Transfer and Fluid Flow*, Hemisphere 1980, ch. 4
 (discretisation equations 4.9-4.12, harmonic-mean interface conductivity eq. 4.9).
+
+Sources: [source: patankar-1980, ch. 4]; mesh estimates [source: roache-1998]; solvers [source:
+lapack, ?gtsv, ?pttrf].
 """
 
 from __future__ import annotations

@@ -9,6 +9,8 @@ References
 ----------
 EN ISO 10456:2007, *Building materials and products - Hygrothermal properties - Tabulated
 design values*, Table 3 (rows marked "read" or "recalled" in the data file).
+
+Sources: [source: iso10456, Table 3]; [source: cibse-guide-a, Table 3.36].
 """
 
 from __future__ import annotations

@@ -9,6 +9,8 @@ References
 EN ISO 6946:2017, *Building components and building elements - Thermal resistance and thermal
 transmittance - Calculation methods*, 6.8 and Table 7; Annex C, eqs (C.1)-(C.4).
 (In the 2007 edition the same content is 5.2, Table 1 and Annex A.)
+
+Sources: [source: iso6946-surfaces, 6.8, Table 7, Annex C].
 """
 
 from __future__ import annotations

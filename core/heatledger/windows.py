@@ -15,6 +15,8 @@ EN ISO 10077-1:2017, *Thermal performance of windows, doors and shutters -- Calc
 thermal transmittance -- Part 1: General*, clause 6 (whole-window U-value) [M: clause and
 equation numbers recalled, check against the purchased text]; Annex G (default psi_g; Tables
 E.1 and E.2 of the 2006 edition) [M].
+
+Sources: [source: iso10077-1, clause 6, Annex G].
 """
 
 from __future__ import annotations

@@ -46,7 +46,7 @@ def test_heat_loss_functions_are_registered_and_exported():
 # --------------------------------------------------------------------------- values
 def test_window_u_is_the_iso_10077_1_equation():
     # source: EN ISO 10077-1:2017 clause 6, U_w = (A_g U_g + A_f U_f + l_g psi_g)/(A_g + A_f)
-    # [from memory; REFERENCES.md section 4], evaluated by hand
+    # [from memory; source: iso10077-1], evaluated by hand
     assert udfs.HL_WINDOW_U(1.2, 0.4, 1.1, 1.4, 4.6, 0.08) == pytest.approx(
         (1.2 * 1.1 + 0.4 * 1.4 + 4.6 * 0.08) / 1.6, rel=rtol_same)
     with_panel = udfs.HL_WINDOW_U(0.5, 0.4, 1.2, 1.8, 3.0, 0.06, 1.1, 0.9, 4.4, 0.02, 2.0)
@@ -56,7 +56,7 @@ def test_window_u_is_the_iso_10077_1_equation():
 
 def test_slab_on_ground_worked_values():
     # source: EN ISO 13370:2017 8.2 check values 10 m x 10 m, w 0.3 m, lambda 2.0: R_f = 0
-    # gives 0.762 and R_f = 3.0 gives 0.222 W/(m2 K) [from memory; REFERENCES.md section 2]
+    # gives 0.762 and R_f = 3.0 gives 0.222 W/(m2 K) [from memory; source: iso13370-slab]
     atol_U = 5e-4  # values printed to three decimals
     assert udfs.HL_SLAB_U(100, 40, 300, 0.0) == pytest.approx(0.762, abs=atol_U)
     assert udfs.HL_SLAB_U(100, 40, 300, 3.0, 2.0) == pytest.approx(0.222, abs=atol_U)
@@ -78,14 +78,14 @@ def test_slab_edge_insulation_is_annex_b():
 def test_suspended_floor_and_basement_are_the_clause_8_equations():
     lam, a, p, w = 2.0, 100.0, 40.0, 0.3
     b = a / (0.5 * p)
-    # source: EN ISO 13370:2017 8.3 [from memory; REFERENCES.md section 2]
+    # source: EN ISO 13370:2017 8.3 [from memory; source: iso13370-slab]
     uf = 1 / (0.17 + 2.5 + 0.17)
     dg = w + lam * (0.17 + 0.0 + 0.04)
     ug = 2 * lam / (math.pi * b + dg) * math.log(math.pi * b / dg + 1)
     ux = 2 * 0.3 * 1.5 / b + 1450 * 0.003 * 4.0 * 0.05 / b
     assert udfs.HL_SUSPENDED_FLOOR_U(a, p, 300, 2.5, 0.3, 1.5, 0.003, 4.0, "average") == \
         pytest.approx(1 / (1 / uf + 1 / (ug + ux)), rel=rtol_same)
-    # source: EN ISO 13370:2017 8.4 [from memory; REFERENCES.md section 2]
+    # source: EN ISO 13370:2017 8.4 [from memory; source: iso13370-slab]
     z, rfl, rw = 2.0, 0.5, 1.0
     dt_ = w + lam * (0.17 + rfl + 0.04)
     de = dt_ + z / 2
@@ -101,7 +101,7 @@ def test_suspended_floor_and_basement_are_the_clause_8_equations():
 @pytest.mark.parametrize(("soil", "lam"), [("clay", 1.5), ("silt", 1.5), ("sand", 2.0),
                                            ("gravel", 2.0), ("rock", 3.5), ("CLAY", 1.5)])
 def test_soil_conductivity_is_table_7(soil, lam):
-    # source: EN ISO 13370:2017, Table 7 (categories 1, 2, 3) [C; REFERENCES.md section 2]
+    # source: EN ISO 13370:2017, Table 7 (categories 1, 2, 3) [source: iso13370-slab, Table 7]
     assert udfs.HL_SOIL_CONDUCTIVITY(soil) == lam
 
 
@@ -112,7 +112,7 @@ def test_ventilation_coefficient_against_coolprop_air():
     rtol_props = 3e-3  # ideal dry air and a handbook c_p against a real-gas equation of state
     assert udfs.HL_VENTILATION_H(250.0, 0.6) == pytest.approx(
         rho * cp * 250.0 / 3600 * (1 - 0.6), rel=rtol_props)
-    # source: EN 12831-1 conventional 0.34 W h/(m3 K) [from memory; REFERENCES.md section 5]
+    # source: EN 12831-1 conventional 0.34 W h/(m3 K) [from memory; source: en12831-1]
     assert udfs.HL_VENTILATION_H(1.0) == pytest.approx(0.34, abs=0.005)
 
 
@@ -127,7 +127,7 @@ def test_room_load_and_transmission_by_hand():
              [None, None, None]]                 # blank rows below end the range
     ti, te = 21.0, -8.0
     # source: EN 12831-1:2017 clause 6, H_T = sum A (U + dU) f + sum psi l f + sum chi f,
-    # f_ij = (theta_int - theta_adj)/(theta_int - theta_e) [from memory; REFERENCES.md 5]
+    # f_ij = (theta_int - theta_adj)/(theta_int - theta_e) [from memory; source: en12831-1]
     h_t = (20 * 0.25 + 4 * 1.3 + 10 * 0.5 * (ti - 16.0) / (ti - te) + 40 * 0.15 * 0.45
            + 18 * 0.1 + 4 * 0.25)
     assert udfs.HL_ROOM_HT(table, ti, te) == pytest.approx(h_t, rel=rtol_same)
@@ -157,7 +157,7 @@ def test_ground_rows_use_the_ground_factors():
     table = [["floor", 100.0, u_floor, "ground"]]
     # source: EN 12831-1:2017 clause 6, H_T,ig = f_g1 f_g2 A U_equiv G_w with f_g1 = 1.45,
     # f_g2 = (theta_int - theta_m,e)/(theta_int - theta_e), G_w 1.15 shallow [from memory;
-    # REFERENCES.md section 5]
+    # source: en12831-1]
     f = 1.45 * (20.0 - 9.0) / (20.0 - (-12.0)) * 1.15
     assert udfs.HL_ROOM_HT(table, 20.0, -12.0, 9.0, "shallow") == pytest.approx(
         100 * u_floor * f, rel=rtol_same)
@@ -171,7 +171,7 @@ def test_a_room_facing_only_its_own_temperature_loses_nothing():
 
 
 def test_annual_energy_is_the_degree_day_equation():
-    # source: degree-day method Q = 24 H DD / 1000 [from memory; REFERENCES.md section 5]
+    # source: degree-day method Q = 24 H DD / 1000 [from memory; source: en12831-1]
     assert udfs.HL_ANNUAL_ENERGY(120.0, 2900.0) == pytest.approx(
         24 * 120.0 * 2900.0 / 1000, rel=rtol_same)
     # the base temperature lies in the degree-days; no argument that changes nothing

@@ -195,7 +195,7 @@ def test_profile_efficiencies_table_3_5():
     assert par.fin_area == pytest.approx(
         w * (c1 * big_l + big_l**2 / t * math.log(t / big_l + c1)), rel=1e-12)
     ml = m_pin * big_l
-    # Table 3.5 conical pin: eta = (2/mL) I2(2mL)/I1(2mL). Note: REFERENCES.md section 8 lists
+    # Table 3.5 conical pin: eta = (2/mL) I2(2mL)/I1(2mL). Note: a recalled reference lists
     # the argument as 4mL/3; the slender-cone equation (solved by solve_bvp in
     # test_profiled_fins_against_solve_bvp) gives 2mL, which is what is used and checked here.
     assert cone.efficiency == pytest.approx(2 / ml * iv(2, 2 * ml) / iv(1, 2 * ml), rel=1e-12)

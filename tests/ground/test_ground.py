@@ -21,7 +21,7 @@ from heatledger.ground import (
 
 #: Agreement between the module and the same equation written out in the test. [W/(m2 K)]
 atol_same_equation = 1e-12
-#: The worked values of REFERENCES.md s.2 are printed to three decimals. [W/(m2 K)]
+#: The check values [source: iso13370-slab] are printed to three decimals. [W/(m2 K)]
 atol_printed_3dp = 0.0005
 
 RSI, RSE = 0.17, 0.04  # source: EN ISO 13370:2017 8.2 (floor Rsi, Rse), from memory
@@ -33,7 +33,7 @@ RSI, RSE = 0.17, 0.04  # source: EN ISO 13370:2017 8.2 (floor Rsi, Rse), from me
 def iso13370_slab(area, perimeter, w, rf, lam):
     """Slab-on-ground U written out from the standard, independently of the module.
 
-    from memory: EN ISO 13370:2017 clause 8.2 (REFERENCES.md s.2):
+    from memory: EN ISO 13370:2017 clause 8.2 [source: iso13370-slab]:
     B' = A/(0.5 P); dt = w + lam (Rsi + Rf + Rse);
     dt < B': U = 2 lam/(pi B' + dt) ln(pi B'/dt + 1); dt >= B': U = lam/(0.457 B' + dt).
     """
@@ -45,7 +45,7 @@ def iso13370_slab(area, perimeter, w, rf, lam):
 
 
 def test_worked_value_uninsulated_10x10():
-    # source: REFERENCES.md s.2 check values (from memory, EN ISO 13370 8.2 [M+V]):
+    # source: check values [source: iso13370-slab, 8.2] (from memory):
     # 10 x 10 m, w = 0.3 m, lambda = 2.0, Rf = 0 -> B' = 5, dt = 0.72, U = 0.762
     r = slab_on_ground(100.0, 40.0, 0.3, 0.0, soil_conductivity=2.0)
     assert r.characteristic_dimension == pytest.approx(5.0)
@@ -57,7 +57,7 @@ def test_worked_value_uninsulated_10x10():
 
 
 def test_worked_value_insulated_10x10():
-    # source: REFERENCES.md s.2 check values: with Rf = 3.0, dt = 6.72 >= B', U = 0.222 [M+V]
+    # source: check values [source: iso13370-slab]: with Rf = 3.0, dt = 6.72 >= B', U = 0.222 [M+V]
     r = slab_on_ground(100.0, 40.0, 0.3, 3.0)
     assert r.equivalent_thickness == pytest.approx(6.72)
     assert r.regime == "dt >= B'"
@@ -119,7 +119,7 @@ def test_arrays_with_both_regimes():
 
 
 def test_soil_conductivity_defaults():
-    # source: EN ISO 13370:2017 Table 7 (REFERENCES.md s.2, [C]): clay/silt 1.5,
+    # source: EN ISO 13370:2017 Table 7 [source: iso13370-slab, Table 7]: clay/silt 1.5,
     # sand/gravel 2.0, homogeneous rock 3.5 W/(m K)
     assert ground_conductivity("clay") == 1.5
     assert ground_conductivity("Silt") == 1.5
@@ -134,7 +134,7 @@ def test_soil_conductivity_defaults():
 
 
 def test_default_conductivity_is_category_2():
-    # source: EN ISO 13370:2017 7.x, use category 2 when unknown [C] (REFERENCES.md s.2)
+    # source: EN ISO 13370:2017 7.x, use category 2 when unknown [source: iso13370-slab, Table 7]
     assert slab_on_ground(100, 40, 0.3, 0.0).u_value == slab_on_ground(
         100, 40, 0.3, 0.0, soil_conductivity=ground_conductivity("sand")).u_value
 
@@ -143,7 +143,7 @@ def test_default_conductivity_is_category_2():
 
 
 def iso13370_psi_edge(orientation, d, dt, r_n, d_n, lam):
-    """from memory: EN ISO 13370 Annex B (REFERENCES.md s.2): R' = Rn - dn/lam, d' = R' lam,
+    """from memory: EN ISO 13370 Annex B [source: iso13370-slab]: R' = Rn - dn/lam, d' = R' lam,
     horizontal psi = -(lam/pi)[ln(D/dt + 1) - ln(D/(dt + d') + 1)], vertical with 2D."""
     dprime = (r_n - d_n / lam) * lam
     x = d if orientation == "horizontal" else 2 * d
@@ -186,7 +186,7 @@ def test_edge_insulation_no_better_than_ground_has_no_effect_or_is_rejected():
 
 
 def iso13370_suspended(a, p, w, r_deck, h, uw, eps, v, fw, rg, lam):
-    """from memory: EN ISO 13370:2017 8.3 (REFERENCES.md s.2)."""
+    """from memory: EN ISO 13370:2017 8.3 [source: iso13370-floors]."""
     b = a / (0.5 * p)
     uf = 1 / (0.17 + r_deck + 0.17)
     dg = w + lam * (0.17 + rg + 0.04)
@@ -233,7 +233,7 @@ def test_suspended_floor_out_of_scope_height_rejected():
 
 
 def iso13370_basement(a, p, w, rf, rw, z, lam, rsi_wall=0.13):
-    """from memory: EN ISO 13370:2017 8.4 (REFERENCES.md s.2); wall Rsi 0.13 [M]."""
+    """from memory: EN ISO 13370:2017 8.4 [source: iso13370-floors]; wall Rsi 0.13 [M]."""
     b = a / (0.5 * p)
     dt = w + lam * (0.17 + rf + 0.04)
     if dt + z / 2 < b:

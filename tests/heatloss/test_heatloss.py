@@ -85,7 +85,7 @@ def test_ventilation_coefficient_against_reference_properties():
 
 
 def test_ventilation_coefficient_near_en12831_conventional_034():
-    # from memory: EN 12831-1 uses 0.34 W h/(m3 K) for rho c_p (REFERENCES.md s.5)
+    # from memory: EN 12831-1 uses 0.34 W h/(m3 K) for rho c_p [source: en12831-1]
     rtol_two_figures = 0.015  # 0.34 is rounded to two figures (0.335 ... 0.345)
     assert ventilation_heat_loss_coefficient(1.0) == pytest.approx(0.34, rel=rtol_two_figures)
 
@@ -320,7 +320,7 @@ def test_room_facing_only_rooms_at_its_own_temperature_loses_nothing():
 def test_annual_energy_from_degree_days():
     b = two_room_house()
     h = b.heat_loss_coefficient
-    # from memory: Q (kWh) = 24 H DD / 1000 (REFERENCES.md s.5)
+    # from memory: Q (kWh) = 24 H DD / 1000 [source: degree-days]
     assert b.annual_energy(2200.0) == pytest.approx(24 * h * 2200 / 1000)
     res = b.annual_energy_result(2200.0, degree_day_base=15.5)
     assert res.degree_day_base == 15.5

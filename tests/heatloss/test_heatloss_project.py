@@ -78,7 +78,7 @@ def test_small_project_by_hand():
     u_wall = 1 / (0.13 + 0.2 / 0.04 + 0.04)
     # R_f of the floor construction: R_T - Rsi - Rse = d/lambda
     r_f = 0.1 / 0.025
-    # source: EN ISO 13370:2017 8.2 [from memory; REFERENCES.md section 2], lambda 2.0 sand
+    # source: EN ISO 13370:2017 8.2 [from memory; source: iso13370-slab], lambda 2.0 sand
     # (Table 7 [C])
     b_dash, d_t = 50.0 / 15.0, 0.3 + 2.0 * (0.17 + r_f + 0.04)
     u_floor = (2 * 2.0 / (math.pi * b_dash + d_t) * math.log(math.pi * b_dash / d_t + 1)

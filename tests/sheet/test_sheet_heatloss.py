@@ -179,7 +179,7 @@ def test_hand_calculation_of_a_small_room(tmp_path, recalc):
     # source: EN ISO 10077-1:2017 clause 6 equation [from memory], evaluated by hand
     uw = (1.2 * 1.1 + 0.4 * 1.4 + 4.6 * 0.08) / 1.6
     # source: EN ISO 13370:2017 8.2, worked value 0.762 for 10 m x 10 m, w 0.3, lambda 2
-    # [from memory; REFERENCES.md section 2]
+    # [from memory; source: iso13370-slab]
     b_dash, d_t = 100.0 / 20.0, 0.3 + 2.0 * (0.17 + 0.0 + 0.04)
     u_floor = 2 * 2.0 / (math.pi * b_dash + d_t) * math.log(math.pi * b_dash / d_t + 1)
     assert round(u_floor, 3) == 0.762
@@ -195,7 +195,7 @@ def test_hand_calculation_of_a_small_room(tmp_path, recalc):
     assert _value(wb, rr["transmission"]) == pytest.approx(h_t, rel=rtol_hand)
     assert _value(wb, rr["ventilation"]) == pytest.approx(h_v, rel=rtol_hand)
     assert _value(wb, rr["load"]) == pytest.approx(load, rel=rtol_hand)
-    # source: degree-day method Q = 24 H DD / 1000 [from memory; REFERENCES.md section 5]
+    # source: degree-day method Q = 24 H DD / 1000 [from memory; source: degree-days]
     q = 24.0 * (h_t + h_v) * 2000.0 / 1000.0
     assert _value(wb, refs.building["energy"]) == pytest.approx(q, rel=rtol_hand)
 

@@ -125,7 +125,8 @@ def test_print_setup_is_a4_fit_to_width(tmp_path):
 
 
 def test_plan_and_blocks_know_no_spreadsheet_library():
-    """The plan and the construction blocks are backend-neutral (DESIGN.md section 2)."""
+    """The plan and the construction blocks are backend-neutral (DEVELOPERS.md,
+    "Architecture in a page")."""
     import ast
     from pathlib import Path
 

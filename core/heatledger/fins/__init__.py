@@ -19,6 +19,9 @@ threshold) is an advisory ``notes`` entry, never emitted.
 
 Results support, and do not replace, design by a competent person; fins and finned surfaces
 can be hot to the touch: check surface temperatures against the touch limits that apply.
+
+Sources: [source: incropera-6, 3.6, Tables 3.4 and 3.5]; annular fins [source: kern-1950, eq.
+16.58].
 """
 
 from ._results import FinArrayResult, FinFVResult, FinResult, FinSizing, FinTemperatures

@@ -1,4 +1,8 @@
-"""Annular (circumferential) fins of rectangular profile: the Bessel-function solution."""
+"""Annular (circumferential) fins of rectangular profile: the Bessel-function solution.
+
+Sources: [source: incropera-6, 3.6.3]; [source: kern-1950, eq. 16.58]; Bessel functions
+[source: abramowitz-stegun, 9.6].
+"""
 
 from __future__ import annotations
 

@@ -11,8 +11,8 @@ The U-values here are the steady-state ``U`` of EN ISO 13370; for a design heat 
 EN 12831-1 they are used as ``U_equiv`` with the factors ``f_g1``, ``f_g2`` and ``G_w`` (see
 :mod:`heatledger.heatloss`).
 
-Every formula and coefficient here is recalled [M] (REFERENCES.md section 2); the slab
-formulas are checked against the worked values 0.762 and 0.222 W/(m2 K). Check clause and
+Every formula and coefficient here is recalled [M] [source: iso13370-slab] and
+[source: iso13370-floors]; the slab formulas are checked against the worked values 0.762 and 0.222 W/(m2 K). Check clause and
 equation numbers against the purchased standard before release.
 
 References

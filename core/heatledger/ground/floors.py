@@ -3,6 +3,8 @@
 References
 ----------
 EN ISO 13370:2017, clauses 8.3 and 8.4 [M: recalled].
+
+Sources: [source: iso13370-floors, 8.3, 8.4].
 """
 
 from __future__ import annotations

@@ -18,7 +18,7 @@ References
 ----------
 EN 12831-1:2017, *Energy performance of buildings -- Method for calculation of the design
 heat load -- Part 1: Space heating load*, clause 6 (transmission, ventilation and heating-up
-terms) [M: every formula recalled; see REFERENCES.md section 5]. CEN/TR 12831-2:2017
+terms) [M: every formula recalled; [source: en12831-1]]. CEN/TR 12831-2:2017
 (explanation and justification) [C: existence only].
 """
 

@@ -6,6 +6,8 @@ person under the local building regulations and codes.
 References
 ----------
 EN 12831-1:2017, clause 6 [M: recalled].
+
+Sources: [source: en12831-1, clause 6]; annual energy [source: degree-days].
 """
 
 from __future__ import annotations

@@ -8,6 +8,8 @@ References
 F. P. Incropera, D. P. DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., 2007,
 section 3.6, Tables 3.4 and 3.5. D. Q. Kern, *Process Heat Transfer*, 1950, eq. 16.58.
 M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, 1964, eq. 9.6.24.
+
+Sources: K_n by its integral form [source: abramowitz-stegun, 9.6.24].
 """
 
 from __future__ import annotations
