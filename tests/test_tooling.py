@@ -30,8 +30,8 @@ def _loaded_after(setup: str, names) -> list[str]:
 
 
 def test_engine_imports_without_sheet_or_addin_libraries():
-    # DEVELOPERS.md, "Architecture in a page": the engine never imports the sheet layer or xlwings; every public
-    # name is loaded (the package loads them on first use)
+    # DEVELOPERS.md, "Architecture in a page": the engine never imports the sheet layer or
+    # xlwings; every public name is loaded (the package loads them on first use)
     assert _loaded_after("from heatledger import *",
                          ("openpyxl", "xlwings", "heatledger.sheet")) == []
 

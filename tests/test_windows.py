@@ -194,7 +194,8 @@ def test_zero_total_area_and_non_numbers_rejected():
 
 
 def test_psi_table_rows_match_references_and_carry_sources():
-    # from memory: EN ISO 10077-1:2006 Tables E.1/E.2 (Annex G in 2017) [source: iso10077-1, Annex G]
+    # from memory: EN ISO 10077-1:2006 Tables E.1/E.2 (Annex G in 2017)
+    # [source: iso10077-1, Annex G]
     recalled = {
         ("wood_or_pvc", "uncoated", "conventional"): 0.06,
         ("wood_or_pvc", "low_e", "conventional"): 0.08,

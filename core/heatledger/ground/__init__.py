@@ -12,8 +12,9 @@ EN 12831-1 they are used as ``U_equiv`` with the factors ``f_g1``, ``f_g2`` and 
 :mod:`heatledger.heatloss`).
 
 Every formula and coefficient here is recalled [M] [source: iso13370-slab] and
-[source: iso13370-floors]; the slab formulas are checked against the worked values 0.762 and 0.222 W/(m2 K). Check clause and
-equation numbers against the purchased standard before release.
+[source: iso13370-floors]; the slab formulas are checked against the worked values 0.762
+and 0.222 W/(m2 K). Check clause and equation numbers against the purchased standard before
+release.
 
 References
 ----------
