@@ -114,14 +114,14 @@ def test_fastener_correction_2017_and_2007_forms():
     c07 = FastenerCorrection(1, 17.0, 12.6e-6, 4.4, edition="2007")
     d17 = Construction(layers, corrections=[c17], apply_small_corrections=True)
     d07 = Construction(layers, corrections=[c07], apply_small_corrections=True)
-    assert d17.corrections.total == pytest.approx(0.8 * 17 * 12.6e-6 * 4.4 / 0.1 * ratio2)
-    assert d07.corrections.total == pytest.approx(6 * 17 * 12.6e-6 * 4.4 * ratio2)
+    assert d17.corrections.delta_u_total == pytest.approx(0.8 * 17 * 12.6e-6 * 4.4 / 0.1 * ratio2)
+    assert d07.corrections.delta_u_total == pytest.approx(6 * 17 * 12.6e-6 * 4.4 * ratio2)
 
 
 def test_fastener_of_low_conductivity_needs_no_correction():
     # source: EN ISO 6946:2017 F.3 (from memory): no correction when lambda_f < 1 W/(m K)
     con = Construction([Layer(0.1, 0.035)], corrections=[FastenerCorrection(0, 0.5, 1e-4, 4)])
-    assert con.corrections.total == 0.0
+    assert con.corrections.delta_u_total == 0.0
 
 
 def test_small_corrections_not_applied():
@@ -129,7 +129,7 @@ def test_small_corrections_not_applied():
     # applied
     layers = [Layer(0.2, 1.0), Layer(0.2, 0.035)]
     con = Construction(layers, corrections=[AirGapCorrection(0, 1)])
-    assert con.corrections.total < 0.03 * con.u_value_uncorrected
+    assert con.corrections.delta_u_total < 0.03 * con.u_value_uncorrected
     assert not con.corrections.applied
     assert con.u_value == con.u_value_uncorrected
 

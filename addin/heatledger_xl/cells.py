@@ -44,6 +44,13 @@ REQUIRED = globals().get("REQUIRED") or Required()
 
 # --------------------------------------------------------------------------- cell values
 def describe(value: object) -> str:
+    """A cell value in words for a message (a number, a text, a date, an error, a range).
+
+    Parameters
+    ----------
+    value : object
+        A cell value. [-]
+    """
     if isinstance(value, bool):
         return "TRUE" if value else "FALSE"
     if isinstance(value, (_dt.date, _dt.datetime, _dt.time)):
@@ -62,6 +69,13 @@ def describe(value: object) -> str:
 
 
 def is_blank(value: object) -> bool:
+    """True for an empty cell or a text of spaces only.
+
+    Parameters
+    ----------
+    value : object
+        A cell value. [-]
+    """
     if value is None:
         return True
     if isinstance(value, str):
@@ -70,6 +84,13 @@ def is_blank(value: object) -> bool:
 
 
 def row_is_blank(row) -> bool:
+    """True when every cell of the row is blank.
+
+    Parameters
+    ----------
+    row : sequence
+        The cells of one row. [-]
+    """
     for c in row:
         if c is not None and (type(c) is not str or c.strip()):
             return False
@@ -77,7 +98,15 @@ def row_is_blank(row) -> bool:
 
 
 def unwrap_single(name: str, value: object) -> object:
-    """A 1x1 range (``[[x]]`` or ``[x]``) is its cell; a larger range is rejected."""
+    """A 1x1 range (``[[x]]`` or ``[x]``) is its cell; a larger range is rejected.
+
+    Parameters
+    ----------
+    name : str
+        The argument, for the message. [-]
+    value : object
+        A value or a one-cell range. [-]
+    """
     while isinstance(value, (list, tuple)):
         if len(value) == 0:
             return None

@@ -122,7 +122,13 @@ def write_construction_sheet(book, layers, temp_inside, temp_outside, heat_flow=
 @script
 def HL_CALC_SHEET(book: xw.Book):
     """Write the heatledger calculation sheet of the selected layer table (or of the range
-    named hl_layers) into this workbook."""
+    named hl_layers) into this workbook.
+
+    Parameters
+    ----------
+    book : xlwings.Book, optional
+        The workbook; default the caller's. [-]
+    """
     _run(book)
 
 

@@ -218,8 +218,8 @@ def HL_CORRECTIONS(layers, corrections, heat_flow=None, rsi=None, rse=None, head
     c = _corrected(layers, corrections, heat_flow, rsi, rse)
     res = c.corrections
     rows = [[label, idx + 1, delta] for label, idx, delta in res.items]
-    rows.append(["total Delta U", None, res.total])
-    rows.append([res.rule, None, res.total if res.applied else 0.0])
+    rows.append(["total Delta U", None, res.delta_u_total])
+    rows.append([res.rule, None, res.delta_u_total if res.applied else 0.0])
     rows.append(["U corrected", None, c.u_value])
     return _with_header(rows, ["correction", "layer", "Delta U [W/(m2 K)]"], show_header)
 

@@ -118,7 +118,13 @@ def write(folder="workbooks", *, force: bool = False) -> Path:
 
 
 def main(argv=None) -> int:
-    """Command line: ``python -m heatledger_xl.workbook [FOLDER] [--force]``."""
+    """Command line: ``python -m heatledger_xl.workbook [FOLDER] [--force]``.
+
+    Parameters
+    ----------
+    argv : list of str, optional
+        Command-line arguments; default sys.argv. [-]
+    """
     args = list(sys.argv[1:] if argv is None else argv)
     force = "--force" in args
     rest = [a for a in args if a != "--force"]

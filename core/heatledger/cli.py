@@ -27,7 +27,13 @@ __all__ = ["main", "project_results"]
 
 
 def main(argv=None) -> int:
-    """Run the command line; return the exit code."""
+    """Run the command line; return the exit code.
+
+    Parameters
+    ----------
+    argv : list of str, optional
+        Command-line arguments; default sys.argv. [-]
+    """
     parser = _parser()
     args = parser.parse_args(argv)
     if not getattr(args, "command", None):

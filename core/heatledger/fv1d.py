@@ -89,20 +89,52 @@ class Boundary:
 
 
 def fixed_temperature(temperature: float) -> Boundary:
-    """Boundary held at ``temperature``. [degC]"""
+    """Boundary held at ``temperature``. [degC]
+
+    Parameters
+    ----------
+    temperature : float
+        Temperature of the face. [degC]
+
+    References
+    ----------
+    [source: patankar-1980, ch. 4].
+    """
     return Boundary("temperature", temperature=float(temperature))
 
 
 def surface_to_ambient(temperature: float, resistance: float) -> Boundary:
     """Boundary exchanging heat with an ambient at ``temperature`` [degC] through a surface
-    resistance ``resistance`` [m2 K/W] (``1/h``)."""
+    resistance ``resistance`` [m2 K/W] (``1/h``).
+
+    Parameters
+    ----------
+    temperature : float
+        Ambient temperature. [degC]
+    resistance : float
+        Surface resistance 1/h per unit area. [m2 K/W]
+
+    References
+    ----------
+    [source: patankar-1980, ch. 4].
+    """
     if not resistance >= 0.0:
         raise HeatLedgerError(f"surface resistance must not be negative; got {resistance!r}")
     return Boundary("surface", temperature=float(temperature), resistance=float(resistance))
 
 
 def fixed_flux(flux: float) -> Boundary:
-    """Boundary through which ``flux`` [W/m2] enters the domain (0 is adiabatic)."""
+    """Boundary through which ``flux`` [W/m2] enters the domain (0 is adiabatic).
+
+    Parameters
+    ----------
+    flux : float
+        Heat flux entering the domain (0 = adiabatic). [W/m2]
+
+    References
+    ----------
+    [source: patankar-1980, ch. 4].
+    """
     return Boundary("flux", flux=float(flux))
 
 
@@ -182,6 +214,10 @@ def exact_estimate(quantity: str, value: float, reason: str) -> MeshEstimate:
     Returns
     -------
     MeshEstimate
+
+    References
+    ----------
+    [source: roache-1998].
     """
     v = float(value)
     return MeshEstimate(quantity, v, v, 2.0, math.nan, v, 0.0, (), (),
@@ -224,6 +260,10 @@ def three_mesh_estimate(quantity: str, meshes, values, *, reported: int = 0,
     >>> est = three_mesh_estimate("q", (4, 8, 16), (1.16, 1.04, 1.01))
     >>> round(est.order, 6), round(est.extrapolated, 6)
     (2.0, 1.0)
+
+    References
+    ----------
+    [source: roache-1998].
     """
     f1, f2, f3 = (float(v) for v in values)
     d12, d23 = f1 - f2, f2 - f3
@@ -288,6 +328,12 @@ class FVSolution:
         ``(Q_in,left - Q_out,right + source_total)`` divided by the largest of those terms
         (at least the heat rate 1 K across the domain would drive): the relative
         energy-balance residual (0 for an exact balance).
+    half : ndarray
+        Half-cell resistances of the faces (internal, for face temperatures). [m2 K/W]
+    g_int : ndarray
+        Interface conductances (internal). [W/K]
+    settings : dict
+        The solver's settings, for the record. [-]
     """
 
     def __init__(self, temperature, widths, half, g_int, a_centre, b, heat_in, heat_out,
@@ -418,6 +464,10 @@ def solve_conduction(
     half cells, exact for a piecewise-linear field. The matrix is symmetric positive
     definite and is factorised once by LAPACK ``?pttrf``; the solve and the refinement steps
     reuse the factors (``?pttrs``).
+
+    References
+    ----------
+    [source: patankar-1980, ch. 4].
     """
     w = np.asarray(widths, dtype=float)
     k = np.asarray(conductivity, dtype=float)
@@ -508,6 +558,10 @@ def solve_tridiagonal(sub_diagonal, main_diagonal, super_diagonal, rhs) -> np.nd
     --------
     >>> solve_tridiagonal([-1.0], [2.0, 2.0], [-1.0], [1.0, 1.0])
     array([1., 1.])
+
+    References
+    ----------
+    [source: lapack, ?gtsv].
     """
     d = np.array(main_diagonal, dtype=float)
     if d.size == 1:
@@ -545,6 +599,10 @@ def richardson_estimate(quantity: str, coarse: float, fine: float, *, ratio: flo
     --------
     >>> richardson_estimate("q", 1.0, 1.0).error_estimate
     0.0
+
+    References
+    ----------
+    [source: roache-1998].
     """
     extrap = fine + (fine - coarse) / (ratio**order - 1.0)
     return MeshEstimate(quantity, float(coarse), float(fine), float(ratio), float(order),

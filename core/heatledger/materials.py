@@ -35,6 +35,13 @@ class MaterialWithheld(HeatLedgerError):
 
     :meth:`MaterialLibrary.get` raises it for a withheld name, so that references to the
     material do not add "unknown material" lines that hide the real cause.
+
+    Parameters
+    ----------
+    message : str
+        Why the material is withheld. [-]
+    where : str
+        Key path of the material's own entry. [-]
     """
 
 
@@ -100,6 +107,13 @@ class MaterialLibrary:
     def add(self, material: Material, *, override: bool = False) -> None:
         """Add ``material``; with ``override`` replace a row of the same name.
 
+        Parameters
+        ----------
+        material : Material
+            The material to add. [-]
+        override : bool
+            Replace a material of the same name. [-]
+
         Raises
         ------
         HeatLedgerError
@@ -115,6 +129,11 @@ class MaterialLibrary:
 
     def get(self, name: str) -> Material:
         """Return the material called ``name``.
+
+        Parameters
+        ----------
+        name : str
+            Material name (case-insensitive). [-]
 
         Raises
         ------
@@ -174,6 +193,10 @@ def default_library() -> MaterialLibrary:
     --------
     >>> default_library().get("steel").conductivity
     50.0
+
+    References
+    ----------
+    [source: iso10456, Table 3]; each row names its own source.
     """
     return _load_default().copy()
 

@@ -40,7 +40,33 @@ TOP_KEYS = ("project", "design", "materials") + tuple(
 
 @dataclass
 class Project:
-    """A parsed project: information, design temperatures, materials and constructions."""
+    """A parsed project: information, design temperatures, materials and constructions.
+
+    Attributes
+    ----------
+    info : dict
+        [project] texts: name, client, site, author, checker, revision, date, notes. [-]
+    temp_inside, temp_outside : float
+        Design temperatures of [design]. [degC]
+    materials : MaterialLibrary
+        The library with the project's own materials. [-]
+    constructions : list of ConstructionEntry
+        Constructions, in file order. [-]
+    user_materials : list of Material
+        The project's own materials. [-]
+    fins : list of FinEntry
+        Fins, in file order. [-]
+    building : BuildingInput or None
+        Rooms and building of the heat-loss family. [-]
+    raw : dict
+        The project data as read. [-]
+    source_bytes : bytes
+        The input file's bytes (for its SHA-256). [-]
+    source_name : str
+        The input file's name. [-]
+    warnings : list of tuple
+        Input that is probably a slip, as (key path, message). [-]
+    """
 
     info: dict
     temp_inside: float

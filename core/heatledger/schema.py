@@ -142,7 +142,15 @@ class Table:
     many: bool = True
 
     def column(self, key: str, sub: str = "") -> Column:
-        """The column of ``key`` (in sub-table ``sub``). [-]"""
+        """The column of ``key`` (in sub-table ``sub``). [-]
+
+        Parameters
+        ----------
+        key : str
+            Key of the column. [-]
+        sub : str
+            Sub-table holding the key (empty for the table's own). [-]
+        """
         for c in self.columns:
             if c.key == key and c.sub == sub:
                 return c
@@ -156,7 +164,15 @@ class Table:
         return self.column(self.variant_key).choices
 
     def keys(self, variant: str | None = None, sub: str = "") -> tuple:
-        """Keys allowed in the table (or its sub-table ``sub``) for ``variant``. [-]"""
+        """Keys allowed in the table (or its sub-table ``sub``) for ``variant``. [-]
+
+        Parameters
+        ----------
+        variant : str, optional
+            Kind or method of the table; None = every key. [-]
+        sub : str
+            Sub-table whose keys are wanted (empty for the table's own). [-]
+        """
         out = []
         for c in self.columns:
             key = c.key if c.sub == sub else (c.sub if not sub and c.sub else None)

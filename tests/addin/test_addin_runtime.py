@@ -73,9 +73,10 @@ def test_importing_the_functions_needs_nothing_the_browser_runtime_lacks():
 
 def test_engine_and_add_in_read_package_data_only_through_importlib_resources():
     roots = [Path(heatledger.__file__).parent, Path(heatledger_xl.__file__).parent]
-    used = ["airlayers", "constructions", "errors", "fv1d", "materials", "surfaces",
-            "_validate", "project", "__init__"]
-    sources = [roots[0] / f"{m}.py" for m in used] + sorted(roots[1].glob("*.py"))
+    used = ["airlayers", "errors", "fv1d", "materials", "surfaces", "_validate", "project",
+            "__init__"]
+    sources = ([roots[0] / f"{m}.py" for m in used] + sorted(roots[1].glob("*.py"))
+               + sorted((roots[0] / "constructions").glob("*.py")))
     for path in sources:
         text = path.read_text(encoding="utf-8")
         assert "__file__" not in text, f"{path.name} locates files through __file__"

@@ -76,7 +76,7 @@ def _result(project, entry) -> dict:
         "area_m2": entry.area,
         "total_resistance": con.total_resistance,
         "u_value_uncorrected": con.u_value_uncorrected,
-        "corrections_total": con.corrections.total,
+        "corrections_total": con.corrections.delta_u_total,
         "corrections_applied": con.corrections.applied,
         "u_value": con.u_value,
         "u_value_reported": con.u_value_reported,

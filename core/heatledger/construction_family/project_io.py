@@ -43,7 +43,29 @@ CORRECTION_KEYS = {kind: CORRECTION_TABLE.keys(kind) for kind in CORRECTION_KIND
 
 @dataclass
 class ConstructionEntry:
-    """A construction of the project with its use: area and target."""
+    """A construction of the project with its use: area and target.
+
+    Attributes
+    ----------
+    name : str
+        Name of the construction. [-]
+    construction : Construction
+        The engine's construction. [-]
+    area : float or None
+        Area, for the summary. [m2]
+    target_u : float or None
+        Target U-value. [W/(m2 K)]
+    nodes_per_layer : int or None
+        Finite-volume cells per layer. [-]
+    layer_inputs : list of dict
+        The layer tables as read. [-]
+    where : str
+        Key path of the table. [-]
+    notes : str
+        Free text. [-]
+    size_layer : int or None
+        Layer to size for the target, 0 = inside. [-]
+    """
 
     name: str
     construction: Construction

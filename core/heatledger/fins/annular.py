@@ -181,7 +181,13 @@ class AnnularFin(FinBase):
         return out
 
     def with_length(self, length: float) -> AnnularFin:
-        """The same fin with radial length ``length`` [m] (outer radius moved)."""
+        """The same fin with radial length ``length`` [m] (outer radius moved).
+
+        Parameters
+        ----------
+        length : float
+            Radial length r_2 - r_1 of the new fin. [m]
+        """
         from dataclasses import replace
 
         return replace(self, outer_radius=self.inner_radius + v.positive("length", length, "m"))

@@ -254,7 +254,13 @@ class StraightFin(FinBase):
                 "corrected_length": bool(self.corrected_length)}
 
     def with_length(self, length: float) -> StraightFin:
-        """The same fin with another ``length`` [m]."""
+        """The same fin with another ``length`` [m].
+
+        Parameters
+        ----------
+        length : float
+            Length of the new fin, base to tip. [m]
+        """
         from dataclasses import replace
 
         return replace(self, length=length)

@@ -57,7 +57,19 @@ ELEMENT_METHODS = {method: ELEMENT_TABLE.keys(method) for method in ELEMENT_METH
 
 
 def read_soil(raw, where, problems, default):
-    """(conductivity, text) of the soil named in ``raw``, or ``default``."""
+    """(conductivity, text) of the soil named in ``raw``, or ``default``.
+
+    Parameters
+    ----------
+    raw : dict
+        The table with soil or soil_conductivity. [-]
+    where : str
+        Key path of the table. [-]
+    problems : list
+        (key path, message) is appended for a problem. [-]
+    default : tuple or None
+        (conductivity, text) when the table names no soil. [-]
+    """
     has_soil = raw.get("soil") not in (None, "")
     has_lam = raw.get("soil_conductivity") is not None
     if has_soil and has_lam:
@@ -82,6 +94,26 @@ def read_soil(raw, where, problems, default):
 
 
 def read_boundary(row, where, label, own_room, ctx, problems, default="outside"):
+    """The boundary an element or bridge faces (Outside, Ground, Unheated, AdjacentRoom), or
+    None with a problem.
+
+    Parameters
+    ----------
+    row : dict
+        The element or bridge table. [-]
+    where : str
+        Key path of the table. [-]
+    label : str
+        Name of the element for messages. [-]
+    own_room : str
+        Name of the element's room. [-]
+    ctx : object
+        The building's settings, known rooms and constructions. [-]
+    problems : list
+        (key path, message) is appended for every problem. [-]
+    default : str
+        Boundary when the table names none. [-]
+    """
     b = str(row.get("boundary", default) or default).strip().lower()
     if b not in BOUNDARIES:
         problems.append((f"{where}.boundary", f"{label}: must be one of "
@@ -136,6 +168,23 @@ def read_boundary(row, where, label, own_room, ctx, problems, default="outside")
 
 
 def read_element(row, where, room_label, room_name, ctx, problems):
+    """One element of a room from its table, with its U-value method, or None with problems.
+
+    Parameters
+    ----------
+    row : dict
+        The table. [-]
+    where : str
+        Key path of the table. [-]
+    room_label : str
+        The room, for messages. [-]
+    room_name : str
+        Name of the room. [-]
+    ctx : object
+        The building's settings, known rooms and constructions. [-]
+    problems : list
+        (key path, message) is appended for every problem. [-]
+    """
     if not isinstance(row, dict):
         problems.append((where, f"{room_label}: an element must be a table with name, kind, "
                          "method, area and boundary"))
@@ -349,6 +398,23 @@ def _edge(raw, where, label, problems):
 
 
 def read_bridge(row, where, room_label, room_name, ctx, problems):
+    """One linear or point thermal bridge of a room from its table, or None with problems.
+
+    Parameters
+    ----------
+    row : dict
+        The table. [-]
+    where : str
+        Key path of the table. [-]
+    room_label : str
+        The room, for messages. [-]
+    room_name : str
+        Name of the room. [-]
+    ctx : object
+        The building's settings, known rooms and constructions. [-]
+    problems : list
+        (key path, message) is appended for every problem. [-]
+    """
     if not isinstance(row, dict):
         problems.append((where, f"{room_label}: a thermal bridge must be a table with name and "
                          "psi and length, or chi and count"))
@@ -392,7 +458,17 @@ def _bridge_object(row, where, label, name, boundary, linear, start, problems):
 
 
 def label_new(problems, start, label) -> None:
-    """Prefix the problems added since ``start`` with ``label`` (room and element names)."""
+    """Prefix the problems added since ``start`` with ``label`` (room and element names).
+
+    Parameters
+    ----------
+    problems : list
+        (key path, message) is appended for every problem. [-]
+    start : int
+        Length of problems before the table was read. [-]
+    label : str
+        Prefix for the new problems. [-]
+    """
     for k in range(start, len(problems)):
         path, msg = problems[k]
         if not msg.startswith("room "):
@@ -400,6 +476,15 @@ def label_new(problems, start, label) -> None:
 
 
 def closest(name, choices) -> str:
+    """The known names closest to ``name``, for a message (empty when none is close).
+
+    Parameters
+    ----------
+    name : str
+        The name given. [-]
+    choices : iterable of str
+        The names known. [-]
+    """
     choices = sorted(choices)
     if not choices:
         return "; the project has none"

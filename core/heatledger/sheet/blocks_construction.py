@@ -89,6 +89,10 @@ class ConstructionRefs:
         Reference of the cell counting the sheet's check cells that say OK.
     check_count : int
         Number of check cells on the sheet.
+    heat_flux : str
+        Reference of the heat flux cell. [-]
+    extras : dict
+        Further cell references by name. [-]
     """
 
     sheet: str
@@ -573,7 +577,7 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         w.put(2, "no corrections given for this construction", role="note")
         w.row += 1
     du_sum = w.value_row("Σ ΔU [W/(m2 K)]", formula="=" + ("+".join(items) if items else "0"),
-                         engine=corr.total, fmt=FMT_U)
+                         engine=corr.delta_u_total, fmt=FMT_U)
     force = 1 if con.apply_small_corrections else 0
     applied = w.value_row(
         "corrections applied? (1 = yes) [-]",

@@ -99,6 +99,8 @@ class HeatLossRefs:
         Reference of the cell counting those that say OK.
     check_total : int
         Number of check cells.
+    extras : dict
+        Further cell references by name. [-]
     """
 
     sheets: list

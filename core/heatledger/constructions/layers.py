@@ -1,0 +1,299 @@
+"""Layers of a construction: homogeneous, air and bridged layers (EN ISO 6946:2017, 6.7,
+6.9).
+
+Sources: [source: iso6946-layers, 6.7, 6.7.2]; [source: iso6946-airlayers, 6.9].
+"""
+
+from __future__ import annotations
+
+import math
+
+from .._validate import (
+    choice,
+    finite,
+    fraction,
+    non_negative,
+    positive,
+    quote,
+    within,
+)
+from ..airlayers import (
+    MAX_AIR_LAYER_THICKNESS,
+    VENT_AREA_UNVENTILATED_MM2,
+    VENT_AREA_WELL_VENTILATED_MM2,
+    VENTILATION_CLASSES,
+    air_layer_resistance,
+)
+from ..errors import HeatLedgerError
+from ..materials import Material, _load_default
+
+#: Corrections totalling less than this fraction of U need not be applied.
+#: source: EN ISO 6946:2017, Annex F.1 (recalled)
+CORRECTION_THRESHOLD = 0.03
+#: Largest ratio R'_T/R''_T for which the upper/lower-limit method is valid.
+#: source: EN ISO 6946:2017, 6.7.2.1 (recalled)
+BRIDGING_RATIO_LIMIT = 1.5
+#: Cap on the resistance of layers outside a slightly ventilated air layer. [m2 K/W]
+#: source: EN ISO 6946:2017, 6.9.3 (recalled)
+SLIGHTLY_VENTILATED_OUTER_CAP = 0.15
+#: Default number of finite-volume cells per layer.
+DEFAULT_NODES_PER_LAYER = 4
+
+# --------------------------------------------------------------------------------------
+# Layers
+
+
+def _thickness(label: str, thickness) -> float:
+    """A layer thickness [m]: greater than zero and within the physical limit."""
+    return within(f"{label} thickness", positive(f"{label} thickness", thickness, "m"),
+                  "thickness")
+
+
+def _conductivity(name: str, conductivity) -> float:
+    """A conductivity [W/(m K)]: greater than zero and within the physical limits."""
+    return within(name, positive(name, conductivity, "W/(m K)"), "conductivity")
+
+
+class Layer:
+    """A homogeneous layer: thickness and conductivity, or a declared thermal resistance.
+
+    Parameters
+    ----------
+    thickness : float
+        Layer thickness. [m]
+    conductivity : float, optional
+        Design thermal conductivity lambda. [W/(m K)]
+    resistance : float, optional
+        Declared thermal resistance, instead of ``conductivity``. [m2 K/W]
+    name : str
+        Label for tables and messages. [-]
+    material : Material or str, optional
+        A material (or its name in the generic library) giving the conductivity. [-]
+
+    Raises
+    ------
+    HeatLedgerError
+        If the thickness is not positive, if both or neither of ``conductivity`` and
+        ``resistance`` are given, or if a value is not positive and finite.
+
+    Notes
+    -----
+    ``R = d / lambda`` (EN ISO 6946:2017, 6.7.1, eq. (4), recalled numbering).
+    """
+
+    __slots__ = ("thickness", "conductivity", "declared_resistance", "name", "material",
+                 "resistance_value", "kind")
+
+    def __init__(self, thickness, conductivity=None, *, resistance=None, name: str = "",
+                 material=None) -> None:
+        label = f"layer {quote(name)}" if name else "layer"
+        self.thickness = _thickness(label, thickness)
+        if isinstance(material, str):
+            material = _load_default().get(material)  # cached library, read only
+        if material is not None and not isinstance(material, Material):
+            raise HeatLedgerError(f"{label} material must be a Material or a material name")
+        self.material = material
+        if conductivity is None and material is not None and resistance is None:
+            conductivity = material.conductivity
+        if conductivity is not None and resistance is not None:
+            raise HeatLedgerError(
+                f"{label}: give either conductivity or a declared resistance, not both"
+            )
+        if conductivity is None and resistance is None:
+            raise HeatLedgerError(f"{label}: give a conductivity, a material or a resistance")
+        self.name = str(name) or (material.name if material is not None else "")
+        if resistance is not None:
+            self.conductivity = None
+            self.declared_resistance = within(
+                f"{label} resistance", positive(f"{label} resistance", resistance, "m2 K/W"),
+                "layer_resistance")
+            self.resistance_value = self.declared_resistance
+            self.kind = "declared"
+        else:
+            self.conductivity = _conductivity(f"{label} conductivity", conductivity)
+            self.declared_resistance = None
+            self.resistance_value = within(
+                f"{label} resistance thickness/conductivity",
+                self.thickness / self.conductivity, "layer_resistance")
+            self.kind = "material"
+
+    def with_thickness(self, thickness) -> Layer:
+        """The same layer with another thickness (a declared resistance scales with it).
+
+        Parameters
+        ----------
+        thickness : float
+            The new thickness. [m]
+        """
+        if self.declared_resistance is not None:
+            r = self.declared_resistance * float(thickness) / self.thickness
+            return Layer(thickness, resistance=r, name=self.name, material=self.material)
+        return Layer(thickness, self.conductivity, name=self.name, material=self.material)
+
+    def __repr__(self) -> str:
+        return (f"Layer({self.thickness!r}, {self.conductivity!r}, "
+                f"resistance={self.declared_resistance!r}, name={self.name!r})")
+
+
+class AirLayer:
+    """An air layer (cavity) of EN ISO 6946:2017, 6.9.
+
+    Parameters
+    ----------
+    thickness : float
+        Thickness of the air layer in the direction of heat flow (at most 0.3 m). [m]
+    ventilation : str
+        ``"unventilated"``, ``"slightly"`` (slightly ventilated) or ``"well"`` (well
+        ventilated). [-]
+    emissivity_1, emissivity_2 : float
+        Emissivities of the two faces. [-]
+    vent_area : float, optional
+        Area of openings to the outside per metre of length (vertical layers) or per square
+        metre (horizontal layers); required for ``"slightly"``. [mm2 per m or m2]
+    name : str
+        Label. [-]
+
+    Notes
+    -----
+    Unventilated: ``Rg`` of Annex D. Slightly ventilated:
+    ``R_T = (1500 - Av)/1000 R_T,u + (Av - 500)/1000 R_T,v``. Well ventilated: the air layer
+    and all layers outside it are disregarded and the external surface resistance becomes
+    that of still air (the Rsi of the same heat-flow direction).
+    """
+
+    kind = "air"
+
+    __slots__ = ("thickness", "ventilation", "emissivity_1", "emissivity_2", "vent_area", "name")
+
+    def __init__(self, thickness, *, ventilation: str = "unventilated", emissivity_1=0.9,
+                 emissivity_2=0.9, vent_area=None, name: str = "") -> None:
+        label = f"air layer {quote(name)}" if name else "air layer"
+        self.thickness = positive(f"{label} thickness", thickness, "m")
+        if self.thickness > MAX_AIR_LAYER_THICKNESS + 1e-12:
+            raise HeatLedgerError(
+                f"{label} is {self.thickness * 1000.0:g} mm thick; the ISO 6946 Annex D "
+                f"method covers air layers up to {MAX_AIR_LAYER_THICKNESS * 1000.0:g} mm: "
+                "treat a larger space as an unheated space or a room (ISO 13789)")
+        self.ventilation = choice(f"{label} ventilation", ventilation, VENTILATION_CLASSES)
+        self.emissivity_1 = fraction(f"{label} emissivity_1", emissivity_1, allow_zero=False)
+        self.emissivity_2 = fraction(f"{label} emissivity_2", emissivity_2, allow_zero=False)
+        self.name = str(name) or "air layer"
+        self.vent_area = None if vent_area is None else non_negative(
+            f"{label} vent_area", vent_area, "mm2")
+        a = self.vent_area
+        if self.ventilation == "slightly":
+            if a is None or not (VENT_AREA_UNVENTILATED_MM2 < a < VENT_AREA_WELL_VENTILATED_MM2):
+                got = "it is not given" if a is None else f"got {a:g} mm2"
+                raise HeatLedgerError(
+                    f"{label}: a slightly ventilated layer needs vent_area between 500 and "
+                    f"1500 mm2 (per m or per m2); {got}"
+                )
+        elif self.ventilation == "unventilated" and a is not None and (
+                a > VENT_AREA_UNVENTILATED_MM2):
+            raise HeatLedgerError(
+                f"{label}: vent_area {a:g} mm2 is above 500 mm2, so the layer is not "
+                'unventilated (ISO 6946 6.9); choose "slightly" or "well"'
+            )
+        elif self.ventilation == "well" and a is not None and a < VENT_AREA_WELL_VENTILATED_MM2:
+            raise HeatLedgerError(
+                f"{label}: vent_area {a:g} mm2 is below 1500 mm2, so the layer is not well "
+                'ventilated (ISO 6946 6.9); choose "slightly" or "unventilated"'
+            )
+
+    def resistance_for(self, heat_flow: str) -> float:
+        """Unventilated resistance ``Rg`` of this layer for ``heat_flow``. [m2 K/W]
+
+        Parameters
+        ----------
+        heat_flow : str
+            "up", "horizontal" or "down". [-]
+        """
+        return air_layer_resistance(self.thickness, heat_flow, self.emissivity_1,
+                                    self.emissivity_2)
+
+    def with_thickness(self, thickness) -> AirLayer:
+        """The same air layer with another thickness.
+
+        Parameters
+        ----------
+        thickness : float
+            The new thickness. [m]
+        """
+        return AirLayer(thickness, ventilation=self.ventilation, emissivity_1=self.emissivity_1,
+                        emissivity_2=self.emissivity_2, vent_area=self.vent_area, name=self.name)
+
+
+class BridgedLayer:
+    """An inhomogeneous layer: insulation bridged by studs, joists or battens.
+
+    Parameters
+    ----------
+    thickness : float
+        Layer thickness. [m]
+    parts : sequence of (conductivity, area_fraction)
+        Each material of the layer with its conductivity [W/(m K)] (a number or a
+        :class:`Material`) and the fraction of the element area it occupies [-]; fractions
+        must sum to 1. [-]
+    name : str
+        Label. [-]
+
+    Notes
+    -----
+    Each part defines a section of the element for the upper limit; the lower limit uses
+    ``1/R_j = sum_q f_q / R_qj`` for this layer (EN ISO 6946:2017, 6.7.2). Where several
+    layers are bridged, sections are all combinations of their parts with the product of
+    the fractions (layouts assumed independent, such as crossed battens).
+    """
+
+    kind = "bridged"
+
+    __slots__ = ("thickness", "parts", "name")
+
+    def __init__(self, thickness, parts, *, name: str = "") -> None:
+        label = f"bridged layer {quote(name)}" if name else "bridged layer"
+        self.thickness = _thickness(label, thickness)
+        self.name = str(name) or "bridged layer"
+        cleaned = []
+        try:
+            items = list(parts)
+        except TypeError:
+            raise HeatLedgerError(f"{label}: parts must be a list of (conductivity, "
+                                  "area_fraction) pairs") from None
+        if len(items) < 2:
+            raise HeatLedgerError(f"{label}: parts must list at least two materials")
+        for i, item in enumerate(items, 1):
+            try:
+                lam, frac = item
+            except (TypeError, ValueError):
+                raise HeatLedgerError(f"{label}: part {i} must be a (conductivity, "
+                                      "area_fraction) pair") from None
+            if isinstance(lam, Material):
+                lam = lam.conductivity
+            lam = _conductivity(f"{label} part {i} conductivity", lam)
+            frac = finite(f"{label} part {i} area_fraction", frac)
+            if not 0.0 < frac <= 1.0:
+                raise HeatLedgerError(
+                    f"{label} part {i} area_fraction must be above 0 and at most 1; got {frac:g}")
+            cleaned.append((lam, frac))
+        total = math.fsum(f for _, f in cleaned)
+        if abs(total - 1.0) > 1e-6:
+            raise HeatLedgerError(
+                f"{label}: area fractions must sum to 1; they sum to {total:.6g}")
+        self.parts = tuple(cleaned)
+        within(f"{label} lower-limit resistance thickness/(sum of fraction x conductivity)",
+               self.lower_limit_resistance, "layer_resistance")
+
+    @property
+    def lower_limit_resistance(self) -> float:
+        """Lower-limit resistance ``R_j = d / sum(f_q lambda_q)``. [m2 K/W]"""
+        return self.thickness / math.fsum(lam * f for lam, f in self.parts)
+
+    def with_thickness(self, thickness) -> BridgedLayer:
+        """The same bridged layer with another thickness.
+
+        Parameters
+        ----------
+        thickness : float
+            The new thickness. [m]
+        """
+        return BridgedLayer(thickness, self.parts, name=self.name)
