@@ -4,6 +4,7 @@ import numpy as np
 import pytest
 
 from heatledger import HeatLedgerError, air_layer_resistance, ventilation_class
+from tests.tolerances import ATOL_TABLE_M2K_W
 
 # source: EN ISO 6946:2017, Table 8, emissivities 0.9, mean temperature 10 degC (from memory,
 # [source: iso6946-airlayers]: reproduced by the Annex D formulas)
@@ -13,8 +14,6 @@ ISO6946_TABLE8_UNVENTILATED_AIR_LAYERS = {
     "horizontal": [0.00, 0.11, 0.13, 0.15, 0.17, 0.18, 0.18, 0.18, 0.18],
     "down": [0.00, 0.11, 0.13, 0.15, 0.17, 0.19, 0.21, 0.22, 0.23],
 }
-#: Table 8 is printed to 0.01 m2 K/W.
-ATOL_TABLE_M2K_W = 0.005
 
 
 @pytest.mark.parametrize("heat_flow", list(ISO6946_TABLE8_UNVENTILATED_AIR_LAYERS))

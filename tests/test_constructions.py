@@ -18,9 +18,7 @@ from heatledger import (
     required_thickness,
     round_significant,
 )
-
-#: Hand calculations below are carried to 5 significant figures.
-RTOL_HAND = 1e-4
+from tests.tolerances import RTOL_HAND, RTOL_ITERATION, RTOL_ROUND_OFF
 
 
 def test_series_sum_of_homogeneous_layers():
@@ -58,7 +56,7 @@ def test_bridged_layer_worked_by_hand():
     assert wall.u_value_reported == 0.32
     # the ladder used for temperatures sums to R_T
     used = wall.rsi + sum(r.resistance for r in wall.layer_table) + wall.rse_used
-    assert used == pytest.approx(wall.total_resistance, rel=1e-12)
+    assert used == pytest.approx(wall.total_resistance, rel=RTOL_ROUND_OFF)
 
 
 def test_bridging_ratio_above_limit_warns():
@@ -87,9 +85,9 @@ def test_slightly_ventilated_layer_weights_the_two_totals():
     expected = (1500 - av) / 1000 * r_tu + (av - 500) / 1000 * r_tv
     con = Construction([Layer(0.1, 0.04), AirLayer(0.05, ventilation="slightly", vent_area=av),
                         Layer(0.102, 0.77)])
-    assert con.total_resistance == pytest.approx(expected, rel=1e-12)
+    assert con.total_resistance == pytest.approx(expected, rel=RTOL_ROUND_OFF)
     used = con.rsi + sum(r.resistance for r in con.layer_table) + con.rse_used
-    assert used == pytest.approx(expected, rel=1e-12)
+    assert used == pytest.approx(expected, rel=RTOL_ROUND_OFF)
 
 
 def test_air_gap_correction():
@@ -101,7 +99,7 @@ def test_air_gap_correction():
     r1 = 0.1 / 0.035
     expected = 0.04 * (r1 / plain.total_resistance) ** 2
     assert con.corrections.applied
-    assert con.u_value - plain.u_value == pytest.approx(expected, rel=1e-12)
+    assert con.u_value - plain.u_value == pytest.approx(expected, rel=RTOL_ROUND_OFF)
 
 
 def test_fastener_correction_2017_and_2007_forms():
@@ -152,9 +150,9 @@ def test_required_thickness_closed_form():
     con = Construction([Layer(0.2, 1.35), Layer(0.05, 0.035)])
     d = required_thickness(con, 1, 0.18)
     expected = 0.035 * (1 / 0.18 - (0.13 + 0.2 / 1.35 + 0.04))
-    assert d == pytest.approx(expected, rel=1e-9)
+    assert d == pytest.approx(expected, rel=RTOL_ITERATION)
     sized = con.with_layer(1, con.layers[1].with_thickness(d))
-    assert sized.u_value == pytest.approx(0.18, rel=1e-9)
+    assert sized.u_value == pytest.approx(0.18, rel=RTOL_ITERATION)
 
 
 def test_required_thickness_with_bridging_meets_target():

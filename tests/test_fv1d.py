@@ -14,6 +14,7 @@ from heatledger.fv1d import (
     solve_tridiagonal,
     surface_to_ambient,
 )
+from tests.tolerances import ATOL_ITERATION, RTOL_ITERATION, RTOL_LINEAR_SOLVE, RTOL_ROUND_OFF
 
 #: Without sources the harmonic-mean scheme is exact; only floating-point rounding remains.
 ATOL_ROUNDING_K = 1e-10
@@ -37,7 +38,7 @@ def test_multilayer_wall_equals_resistance_ladder():
     np.testing.assert_allclose(t.interface_temperatures, ladder, atol=ATOL_ROUNDING_K)
     np.testing.assert_allclose(t.interface_temperatures, wall.ladder_temperatures(21, -8),
                                atol=ATOL_ROUNDING_K)
-    assert t.heat_flux == pytest.approx(q, rel=1e-12)
+    assert t.heat_flux == pytest.approx(q, rel=RTOL_ROUND_OFF)
     assert abs(t.energy_residual) < ENERGY_RTOL
     # within a layer the exact profile is linear: nodes lie on it
     layer2 = t.layer_of_node == 2
@@ -66,7 +67,7 @@ def test_uniform_generation_second_order_convergence():
         errors.append(np.max(np.abs(sol.temperature - exact)))
         assert abs(sol.energy_residual) < ENERGY_RTOL
         # energy: heat generated leaves through both faces (Incropera eq. 3.47 check)
-        assert sol.heat_out - sol.heat_in == pytest.approx(q_gen * length, rel=1e-9)
+        assert sol.heat_out - sol.heat_in == pytest.approx(q_gen * length, rel=RTOL_ITERATION)
     ratios = [errors[i] / errors[i + 1] for i in range(3)]
     # second order: the error falls by 4 each time the cells are halved
     for r in ratios:
@@ -93,7 +94,7 @@ def test_adiabatic_face_with_convection():
     sol = solve_conduction(w, np.full(n, k), fixed_flux(0.0), surface_to_ambient(t_inf, 1 / h),
                            source=q_gen * w)
     t_s = t_inf + q_gen * length / h
-    assert sol.face_temperature[-1] == pytest.approx(t_s, abs=1e-9)
+    assert sol.face_temperature[-1] == pytest.approx(t_s, abs=ATOL_ITERATION)
     exact = t_s + q_gen * length**2 / (2 * k) * (1 - (sol.x / length) ** 2)
     assert np.max(np.abs(sol.temperature - exact)) < 1e-3
 
@@ -119,7 +120,8 @@ def test_matches_dense_solve_of_same_system():
     sol = solve_conduction(w, k, surface_to_ambient(20, 0.13), surface_to_ambient(0, 0.04),
                            source=rng.uniform(0, 10, n), source_slope=-rng.uniform(0, 1, n))
     dense = np.diag(sol.a_centre) - np.diag(sol.a_east[:-1], 1) - np.diag(sol.a_west[1:], -1)
-    np.testing.assert_allclose(np.linalg.solve(dense, sol.b), sol.temperature, rtol=1e-10)
+    np.testing.assert_allclose(np.linalg.solve(dense, sol.b), sol.temperature,
+                               rtol=RTOL_LINEAR_SOLVE)
     assert abs(sol.energy_residual) < ENERGY_RTOL
 
 
@@ -131,7 +133,7 @@ def test_solve_tridiagonal_against_dense():
     rhs = rng.normal(size=n)
     dense = np.diag(diag) + np.diag(lower, -1) + np.diag(upper, 1)
     np.testing.assert_allclose(solve_tridiagonal(lower, diag, upper, rhs),
-                               np.linalg.solve(dense, rhs), rtol=1e-12)
+                               np.linalg.solve(dense, rhs), rtol=RTOL_ROUND_OFF)
 
 
 def test_heating_mat_in_screed_balances_energy():
@@ -140,7 +142,7 @@ def test_heating_mat_in_screed_balances_energy():
     q_vol = 100.0 / 0.065  # 100 W/m2 released in the screed
     t = floor.temperatures(20.0, 10.0, nodes_per_layer=10, layer_sources={0: q_vol})
     assert abs(t.energy_residual) < ENERGY_RTOL
-    assert t.heat_flux_outside - t.heat_flux == pytest.approx(100.0, rel=1e-9)
+    assert t.heat_flux_outside - t.heat_flux == pytest.approx(100.0, rel=RTOL_ITERATION)
     # the heated floor gives heat to the room: flux at the inside surface is negative
     assert t.heat_flux < 0
     assert t.mesh_estimate.error_estimate < 0.05  # W/m2
@@ -149,7 +151,7 @@ def test_heating_mat_in_screed_balances_energy():
 def test_interface_flux_source():
     wall = Construction([Layer(0.05, 1.0), Layer(0.05, 1.0)])
     t = wall.temperatures(20.0, 20.0, nodes_per_layer=20, interface_fluxes={1: 50.0})
-    assert t.heat_flux_outside - t.heat_flux == pytest.approx(50.0, rel=1e-9)
+    assert t.heat_flux_outside - t.heat_flux == pytest.approx(50.0, rel=RTOL_ITERATION)
 
 
 def test_mesh_estimate_is_richardson():

@@ -25,6 +25,7 @@ from heatledger.fv1d import (
     surface_to_ambient,
     three_mesh_estimate,
 )
+from tests.tolerances import ATOL_ROUND_OFF, RTOL_LINEAR_SOLVE, RTOL_ROUND_OFF, RTOL_ULP
 
 #: The scheme is exact for these cases: agreement to rounding (many cells, 1e-12 relative).
 RTOL_EXACT = 1e-11
@@ -94,8 +95,8 @@ def test_fixed_flux_on_a_cylinder_enters_through_the_face_area(n):
     widths, areas = _shell(n)
     sol = solve_conduction(widths, np.full(n, 0.04), fixed_flux(500.0), fixed_temperature(15.0),
                            area=areas)
-    assert sol.heat_in == pytest.approx(500.0 * 2 * math.pi * 0.01, rel=1e-12)
-    assert sol.heat_out == pytest.approx(sol.heat_in, rel=1e-10)
+    assert sol.heat_in == pytest.approx(500.0 * 2 * math.pi * 0.01, rel=RTOL_ROUND_OFF)
+    assert sol.heat_out == pytest.approx(sol.heat_in, rel=RTOL_LINEAR_SOLVE)
 
 
 def test_cylinder_temperatures_converge_at_second_order_to_the_log_profile():
@@ -164,7 +165,7 @@ def test_a_uniformly_heated_layer_is_exact_and_the_estimate_says_so(cells):
     t_surface = 20.0 - RSI * exact  # inside surface, heat flux positive inside to outside
     t_exact_node = t_surface - exact / 1.4 * x0 - 800.0 * x0**2 / (2 * 1.4)
     assert res.temperature[0] - t_exact_node == pytest.approx(800.0 * w**2 / (8 * 1.4),
-                                                              rel=1e-6, abs=1e-12)
+                                                              rel=1e-6, abs=ATOL_ROUND_OFF)
 
 
 def test_three_mesh_estimate_observes_the_order_and_bounds_the_true_error():
@@ -197,5 +198,5 @@ def test_layered_wall_without_sources_is_stated_exact_and_ladder_agrees():
     res = con.temperatures(20.0, -5.0)
     assert res.mesh_estimate.exact and res.mesh_estimate.meshes == ()
     assert "linear within each layer" in res.mesh_estimate.basis
-    assert res.ladder_heat_flux == pytest.approx(25.0 / con.total_resistance, rel=1e-15)
+    assert res.ladder_heat_flux == pytest.approx(25.0 / con.total_resistance, rel=RTOL_ULP)
     assert res.ladder_difference < 1e-12

@@ -6,6 +6,7 @@ import pytest
 
 from heatledger import HeatLedgerError, ProjectError, load_project, project_from_dict
 from heatledger.demo import demo_project
+from tests.tolerances import RTOL_ITERATION
 
 
 def _write(tmp_path, text):
@@ -107,7 +108,7 @@ def test_corrections_and_sizing_by_layer_name():
     assert entry.construction.corrections.applied
     d = entry.required_thickness()
     sized = entry.construction.with_layer(1, entry.construction.layers[1].with_thickness(d))
-    assert sized.u_value == pytest.approx(0.2, rel=1e-9)
+    assert sized.u_value == pytest.approx(0.2, rel=RTOL_ITERATION)
 
 
 def test_duplicate_construction_names():

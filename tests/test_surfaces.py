@@ -4,6 +4,7 @@ import pytest
 
 from heatledger import HeatLedgerError, surface_resistance, surface_resistance_calc
 from heatledger.surfaces import radiative_coefficient_black_body
+from tests.tolerances import ATOL_TABLE_M2K_W
 
 # source: EN ISO 6946:2017, Table 7 (Rsi 0.13 / Rse 0.04 read in a secondary source;
 # 0.10 and 0.17 from memory, reproduced below by the Annex C formulas)
@@ -15,8 +16,6 @@ ISO6946_TABLE7_SURFACE_RESISTANCES = {
     ("outside", "horizontal"): 0.04,
     ("outside", "down"): 0.04,
 }
-#: Table 7 is printed to 0.01 m2 K/W, so a value computed from Annex C must round to it.
-ATOL_TABLE_M2K_W = 0.005
 
 
 @pytest.mark.parametrize(("side", "heat_flow"), list(ISO6946_TABLE7_SURFACE_RESISTANCES))

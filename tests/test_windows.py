@@ -21,6 +21,7 @@ from heatledger.windows import (
     window,
     window_with_shutter_u,
 )
+from tests.tolerances import RTOL_ROUND_OFF
 
 #: Floating-point agreement between two evaluations of the same equation. [W/(m2 K)]
 atol_same_equation = 1e-12
@@ -86,14 +87,15 @@ def test_window_u_property_against_independent_equation(ag, af, ug, uf, psi, ext
     lg = 4.0 * math.sqrt(ag) * extra  # always a possible perimeter
     got = window(ag, af, ug, uf, lg, psi).u_value
     expected = iso10077_window_u([(ag, ug)], [(af, uf)], [(lg, psi)])
-    assert got == pytest.approx(expected, rel=1e-12, abs=atol_same_equation)
+    assert got == pytest.approx(expected, rel=RTOL_ROUND_OFF, abs=atol_same_equation)
 
 
 @settings(max_examples=40, deadline=None)
 @given(u=st.floats(0.5, 5.0), ag=st.floats(0.2, 5.0), af=st.floats(0.05, 2.0))
 def test_equal_u_and_no_edge_loss_gives_that_u(u, ag, af):
     # a weighted mean of equal values is that value (no published source needed: algebra)
-    assert window(ag, af, u, u, 4.0 * math.sqrt(ag), 0.0).u_value == pytest.approx(u, rel=1e-12)
+    assert window(ag, af, u, u, 4.0 * math.sqrt(ag), 0.0).u_value == pytest.approx(u,
+                                                                                   rel=RTOL_ROUND_OFF)
 
 
 @settings(max_examples=40, deadline=None)

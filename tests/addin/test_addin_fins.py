@@ -21,6 +21,7 @@ from heatledger_xl import udfs_fins as uf
 from heatledger_xl.cells import ERROR_VALUES
 from heatledger_xl.registry import MAX_DESCRIPTION, PREFIX, REGISTRY
 from tests.addin._addin_helpers import call_with_drawn, check_bad_optional_named, check_result
+from tests.tolerances import ATOL_ROUND_OFF, RTOL_ITERATION, RTOL_ROUND_OFF
 
 FINS = sorted(n for n, s in REGISTRY.items() if s.family == "fins")
 rtol_closed = 1e-12  # the same closed form evaluated in another arrangement
@@ -97,7 +98,7 @@ def test_pin_with_prescribed_tip_temperature():
     assert uf.HL_FIN_HEATRATE(100, 10, 50, 25, 80, 20, "pin", "temperature", None, 30) == \
         pytest.approx(q, rel=rtol_closed)
     assert uf.HL_FIN_TIPTEMP(100, 10, 50, 25, 80, 20, "pin", "temperature", None, 30) == \
-        pytest.approx(30.0, abs=1e-12)
+        pytest.approx(30.0, abs=ATOL_ROUND_OFF)
 
 
 def test_profiled_plate_efficiencies_are_table_3_5():
@@ -111,7 +112,7 @@ def test_profiled_plate_efficiencies_are_table_3_5():
     from scipy.special import iv
     assert uf.HL_FIN_EFFICIENCY(30, 3, 180, 25, 80, 20, None, None, None, None,
                                 "triangular") == pytest.approx(
-        iv(1, 2 * ml) / (ml * iv(0, 2 * ml)), rel=1e-12)
+        iv(1, 2 * ml) / (ml * iv(0, 2 * ml)), rel=RTOL_ROUND_OFF)
 
 
 @pytest.mark.parametrize(("d_fin", "t", "h"), [(57.15, 0.38, 58.0), (50.0, 1.0, 10.0),
@@ -120,17 +121,17 @@ def test_annular_efficiency_against_ht(d_fin, t, h):
     # source: ht.fin_efficiency_Kern_Kraus (Kern & Kraus 1972), adiabatic rim, as in ht 1.x
     ref = ht.fin_efficiency_Kern_Kraus(0.0254, d_fin / 1000.0, t / 1000.0, 200.0, h)
     assert uf.HL_ANNULAR_EFFICIENCY(25.4, d_fin, t, 200.0, h, 80, 20) == pytest.approx(
-        ref, rel=1e-9)
+        ref, rel=RTOL_ITERATION)
 
 
 def test_annular_temperatures_and_rim():
     rows = uf.HL_ANNULAR_TEMPS(25.4, 57.15, 0.38, 200, 58, 80, 20, None, 5, None, True)
     assert rows[0] == ["radius [mm]", "temperature [degC]"]
     radii = [r[0] for r in rows[1:]]
-    assert radii == pytest.approx(np.linspace(12.7, 28.575, 5), rel=1e-12)
-    assert rows[1][1] == pytest.approx(80.0, abs=1e-12)
+    assert radii == pytest.approx(np.linspace(12.7, 28.575, 5), rel=RTOL_ROUND_OFF)
+    assert rows[1][1] == pytest.approx(80.0, abs=ATOL_ROUND_OFF)
     assert rows[-1][1] == pytest.approx(uf.HL_ANNULAR_TIPTEMP(25.4, 57.15, 0.38, 200, 58, 80,
-                                                              20), rel=1e-12)
+                                                              20), rel=RTOL_ROUND_OFF)
     temps = [r[1] for r in rows[1:]]
     assert all(a > b for a, b in zip(temps, temps[1:], strict=False))
 
@@ -180,17 +181,17 @@ def test_finset_array_against_overall_surface_efficiency():
     a_f, a_c, n, h, theta = values["fin_area"], values["cross_section_area"], 14, 12.0, 30.0
     a_t = n * a_f + (0.0216 - n * a_c)
     eta_o = 1 - n * a_f * (1 - values["efficiency"]) / a_t
-    assert values["total_area"] == pytest.approx(a_t, rel=1e-12)
-    assert values["overall_efficiency"] == pytest.approx(eta_o, rel=1e-12)
-    assert values["array_heat_rate"] == pytest.approx(eta_o * h * a_t * theta, rel=1e-12)
-    assert values["array_resistance"] == pytest.approx(1 / (eta_o * h * a_t), rel=1e-12)
+    assert values["total_area"] == pytest.approx(a_t, rel=RTOL_ROUND_OFF)
+    assert values["overall_efficiency"] == pytest.approx(eta_o, rel=RTOL_ROUND_OFF)
+    assert values["array_heat_rate"] == pytest.approx(eta_o * h * a_t * theta, rel=RTOL_ROUND_OFF)
+    assert values["array_resistance"] == pytest.approx(1 / (eta_o * h * a_t), rel=RTOL_ROUND_OFF)
     assert uf.HL_FINSET_VALUE(SINK, "overall_efficiency") == values["overall_efficiency"]
 
 
 def test_finset_inverse_answers_round_trip():
     length = uf.HL_FINSET_VALUE(SINK, "length_for_target_mm")
     resized = [r if r[0] != "length_mm" else ["length_mm", length] for r in SINK]
-    assert uf.HL_FINSET_VALUE(resized, "array_heat_rate") == pytest.approx(60.0, rel=1e-9)
+    assert uf.HL_FINSET_VALUE(resized, "array_heat_rate") == pytest.approx(60.0, rel=RTOL_ITERATION)
     count = uf.HL_FINSET_VALUE(SINK, "count_for_target")
     more = [r if r[0] != "count" else ["count", count] for r in SINK]
     fewer = [r if r[0] != "count" else ["count", count - 1] for r in SINK]

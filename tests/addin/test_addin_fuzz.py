@@ -30,6 +30,7 @@ from heatledger_xl.ranges import LIBRARY
 from heatledger_xl.registry import REGISTRY
 from tests.addin._addin_helpers import call_with_drawn
 from tests.addin._addin_helpers import check_result as check_answer
+from tests.tolerances import ATOL_ROUND_OFF, RTOL_ITERATION
 
 DEADLINE_MS = 1000  # the add-in's issue: every bad input answers within a second
 # The construction family; other families (fins) carry their own no-raise tests.
@@ -288,7 +289,7 @@ def test_realistic_tables_give_the_engines_own_numbers(wall, t_in, t_out):
     assert [r[2] for r in nodes] == pytest.approx(list(fv.x * 1000.0), rel=RTOL_SAME)
     check = dict(udfs.HL_FVCHECK(cells, t_in, t_out, *args, 3))
     assert check["heat flux, finite volumes [W/m2]"] == pytest.approx(fv.heat_flux, rel=RTOL_SAME,
-                                                                 abs=1e-12)
+                                                                 abs=ATOL_ROUND_OFF)
 
 
 @settings(max_examples=100, deadline=DEADLINE_MS,
@@ -312,7 +313,7 @@ def test_required_thickness_recovers_the_drawn_thickness(wall, data):
             assert "is met even without layer" in out, out
             return
         sized = con.with_layer(k - 1, con.layers[k - 1].with_thickness(out / 1000.0))
-        assert sized.u_value == pytest.approx(con.u_value, rel=1e-9)
+        assert sized.u_value == pytest.approx(con.u_value, rel=RTOL_ITERATION)
         return
     d_mm = _number("HL_THICKNESS", out)
     assert d_mm == pytest.approx(row.thickness * 1000.0, abs=ATOL_D_MM)

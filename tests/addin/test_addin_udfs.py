@@ -20,6 +20,7 @@ from heatledger_xl.registry import (
     REGISTRY,
     looks_like_cell_reference,
 )
+from tests.tolerances import RTOL_ITERATION, RTOL_ROUND_OFF
 
 # Invented demo wall: plasterboard, mineral wool, concrete, cavity, brick.
 WALL = [
@@ -152,7 +153,8 @@ def test_bridged_layer_upper_and_lower_limits_by_hand():
     assert got["upper limit R'_T"] == pytest.approx(upper, rel=rtol_R)
     assert got["lower limit R''_T"] == pytest.approx(lower, rel=rtol_R)
     assert got["total R_T"] == pytest.approx(total, rel=rtol_R)
-    assert got["relative error e"] == pytest.approx((upper - lower) / (2 * total), rel=1e-9)
+    assert got["relative error e"] == pytest.approx((upper - lower) / (2 * total),
+                                                    rel=RTOL_ITERATION)
     assert udfs.HL_UVALUE(table) == pytest.approx(1.0 / total, rel=rtol_R)
     # the bridging material may be named from the library instead of a number
     named = [table[0], ["frame", 140, 0.035, None, 0.15, "softwood 500"], table[2]]
@@ -491,6 +493,6 @@ def test_required_thickness_of_plain_and_declared_layers_is_the_closed_form():
     table = [["gypsum plasterboard 900", 12.5], ["board", 60, None, 1.5], ["block", 150, 1.35]]
     r_rest = RSI_H + 0.0125 / LAMBDA_GYPSUM_900 + 0.15 / 1.35 + RSE
     d_mm = 60.0 / 1.5 * (1.0 / 0.2 - r_rest)  # thickness per unit R of the declared board
-    assert udfs.HL_THICKNESS(table, 2, 0.2) == pytest.approx(d_mm, rel=1e-12)
+    assert udfs.HL_THICKNESS(table, 2, 0.2) == pytest.approx(d_mm, rel=RTOL_ROUND_OFF)
     d_block = 1.35 * (1.0 / 0.4 - (RSI_H + 0.0125 / LAMBDA_GYPSUM_900 + 1.5 + RSE)) * 1000
-    assert udfs.HL_THICKNESS(table, 3, 0.4) == pytest.approx(d_block, rel=1e-12)
+    assert udfs.HL_THICKNESS(table, 3, 0.4) == pytest.approx(d_block, rel=RTOL_ROUND_OFF)

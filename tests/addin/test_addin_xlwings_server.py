@@ -24,6 +24,7 @@ import pytest
 
 from heatledger.constructions import AirLayer, Construction, Layer
 from heatledger.materials import default_library
+from tests.tolerances import ATOL_ROUND_OFF
 
 PACKAGES = ("xlwings", "heatledger_xl")
 WALL = [["material", "thickness [mm]", "conductivity [W/(m K)]"],
@@ -122,14 +123,14 @@ def test_spilled_nodal_table_matches_the_engine(xl):
     atol_K = 1e-12  # same solve, no conversion of the numbers
     for row, x, t, layer in zip(body, res.x, res.temperature, res.layer_of_node, strict=True):
         assert row[1] == int(layer) + 1
-        assert row[2] == pytest.approx(x * 1000.0, abs=1e-12)
+        assert row[2] == pytest.approx(x * 1000.0, abs=ATOL_ROUND_OFF)
         assert row[3] == pytest.approx(t, abs=atol_K)
 
 
 def test_spilled_interfaces_and_other_functions(xl):
     ladder = engine_wall().ladder_temperatures(20.0, -5.0)
     out = call(xl, "HL_TINTERFACES", WALL, [[20]], [[-5]])
-    assert [r[2] for r in out] == pytest.approx(list(ladder), abs=1e-12)
+    assert [r[2] for r in out] == pytest.approx(list(ladder), abs=ATOL_ROUND_OFF)
     assert call(xl, "HL_RSURFACE", [["inside"]], [["up"]]) == [[0.10]]  # ISO 6946 Table 7
     assert call(xl, "HL_MATERIAL", [["steel"]]) == [[50.0]]
     listing = call(xl, "HL_MATERIALS", [[True]])

@@ -16,6 +16,7 @@ from heatledger.demo import demo_project
 from heatledger.errors import ProjectError
 from heatledger.fins import AnnularFin, FinArray, StraightFin
 from heatledger.project import project_from_dict, tomllib
+from tests.tolerances import RTOL_ITERATION, RTOL_ROUND_OFF
 
 README_EXAMPLE = """
 [project]
@@ -85,9 +86,9 @@ def test_readme_example_builds_the_engine_objects():
     r = h / (m * k)
     q = math.sqrt(h * p_ * k * a_c) * theta * (math.sinh(m * big_l) + r * math.cosh(m * big_l)) \
         / (math.cosh(m * big_l) + r * math.sinh(m * big_l))
-    assert hs.evaluate().heat_rate == pytest.approx(q, rel=1e-12)
+    assert hs.evaluate().heat_rate == pytest.approx(q, rel=RTOL_ROUND_OFF)
     sizing = hs.sizing()
-    assert sizing["length"].heat_rate == pytest.approx(45.0, rel=1e-9)
+    assert sizing["length"].heat_rate == pytest.approx(45.0, rel=RTOL_ITERATION)
     assert sizing["count"].heat_rate >= 45.0
 
 

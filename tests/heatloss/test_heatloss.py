@@ -34,6 +34,7 @@ from heatledger.heatloss import (
     ventilation_heat_loss_coefficient,
 )
 from heatledger.windows import declared_window, window
+from tests.tolerances import ATOL_ITERATION, ATOL_ROUND_OFF, RTOL_ITERATION, RTOL_ROUND_OFF
 
 #: Same equation evaluated twice in floating point. [W/K or W]
 atol_same_equation = 1e-9
@@ -70,7 +71,7 @@ def test_air_specific_heat_against_coolprop_and_psychrolib():
     # source: psychrolib dry-air enthalpy h = 1006 t (J/kg), slope = c_p
     psychrolib.SetUnitSystem(psychrolib.SI)
     slope = (psychrolib.GetDryAirEnthalpy(30.0) - psychrolib.GetDryAirEnthalpy(10.0)) / 20.0
-    assert AIR_SPECIFIC_HEAT == pytest.approx(slope, rel=1e-9)
+    assert AIR_SPECIFIC_HEAT == pytest.approx(slope, rel=RTOL_ITERATION)
 
 
 def test_ventilation_coefficient_against_reference_properties():
@@ -144,7 +145,7 @@ def test_outside_room_against_en12831_sums():
 
 def test_shares_add_up_and_lines_are_complete():
     r = simple_room().heat_load(-5.0)
-    assert sum(ln.share for ln in r.lines) == pytest.approx(1.0, abs=1e-12)
+    assert sum(ln.share for ln in r.lines) == pytest.approx(1.0, abs=ATOL_ROUND_OFF)
     assert sum(ln.heat_loss for ln in r.lines) == pytest.approx(r.design_heat_load)
     names = [ln.name for ln in r.lines]
     assert names == ["north wall", "window", "roof", "window reveals", "balcony fixings",
@@ -162,7 +163,7 @@ def test_heat_load_linear_in_temperature_difference(te1, te2):
     room = simple_room(reheat_factor=0.0)
     h = room.heat_loss_coefficient
     for te in (te1, te2):
-        assert room.design_heat_load(te) == pytest.approx(h * (20.0 - te), rel=1e-12)
+        assert room.design_heat_load(te) == pytest.approx(h * (20.0 - te), rel=RTOL_ROUND_OFF)
 
 
 @settings(max_examples=30, deadline=None)
@@ -174,7 +175,7 @@ def test_unheated_by_temperature_equals_physical_flow(tu, te):
     r = room.heat_load(te)
     line = r.lines[0]
     assert line.factor == pytest.approx((20.0 - tu) / (20.0 - te))
-    assert line.heat_loss == pytest.approx(10.0 * 0.5 * (20.0 - tu), rel=1e-12)
+    assert line.heat_loss == pytest.approx(10.0 * 0.5 * (20.0 - tu), rel=RTOL_ROUND_OFF)
 
 
 def test_unheated_by_adjustment_factor():
@@ -287,7 +288,7 @@ def test_building_is_sum_of_rooms_less_internal_exchange():
     assert r.ventilation_coefficient == pytest.approx(sum(x.ventilation_coefficient
                                                           for x in r.rooms))
     # both sides of the party wall are modelled: the exchange cancels in heat-flow terms
-    assert r.internal_exchange_heat_loss == pytest.approx(0.0, abs=1e-9)
+    assert r.internal_exchange_heat_loss == pytest.approx(0.0, abs=ATOL_ITERATION)
     # building load = sum over rooms of everything except the room-to-room lines
     external = sum(ln.heat_loss for x in r.rooms for ln in x.lines if not ln.internal)
     assert r.design_heat_load == pytest.approx(external)
@@ -442,15 +443,16 @@ def test_internal_exchange_cancels_for_any_temperatures(t_a, t_b, te, u_party):
                               Element("party", 9.0, u_party, AdjacentRoom(room="A"))],
              Ventilation("air_change", ventilation_rate=0.5))
     r = Building("Pair", [a, b]).heat_load(te)
-    assert r.internal_exchange_heat_loss == pytest.approx(0.0, abs=1e-9)
+    assert r.internal_exchange_heat_loss == pytest.approx(0.0, abs=ATOL_ITERATION)
     # the building load equals that of the same rooms with the party wall left out
     a0 = Room("A", t_a, 40.0, [Element("out", 10.0, 0.3)], Ventilation("air_change",
                                                                         ventilation_rate=0.5))
     b0 = Room("B", t_b, 40.0, [Element("out", 12.0, 0.3)], Ventilation("air_change",
                                                                         ventilation_rate=0.5))
     r0 = Building("Pair", [a0, b0]).heat_load(te)
-    assert r.design_heat_load == pytest.approx(r0.design_heat_load, rel=1e-12)
-    assert r.transmission_coefficient == pytest.approx(r0.transmission_coefficient, rel=1e-12)
+    assert r.design_heat_load == pytest.approx(r0.design_heat_load, rel=RTOL_ROUND_OFF)
+    assert r.transmission_coefficient == pytest.approx(r0.transmission_coefficient,
+                                                       rel=RTOL_ROUND_OFF)
 
 
 def test_room_alone_next_to_spaces_at_its_own_temperature_loses_nothing():

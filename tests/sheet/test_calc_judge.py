@@ -11,6 +11,7 @@ import pytest
 
 from heatledger.sheet import render_openpyxl as rend
 from heatledger.sheet.plan import WorkbookPlan
+from tests.tolerances import RTOL_ROUND_OFF
 
 HOSTILE_TEXT = ["=1+1", "+2", "-3 mm render", "@SUM(A1)", "=A1*1000"]
 
@@ -40,11 +41,11 @@ def test_sentinel_stale_values_are_recomputed(tmp_path, recalc, stale_value):
     values = [ws[f"B{i}"].value for i in range(1, 6)]
     assert stale_value not in values, "LibreOffice kept the planted cached values"
     # expected values: the arithmetic of the inputs the plan writes (no outside source needed)
-    assert values[0] == pytest.approx(2.5, rel=1e-12)
-    assert values[1] == pytest.approx(0.4, rel=1e-12)
-    assert values[2] == pytest.approx(0.1**2 + 0.04**2, rel=1e-12)
+    assert values[0] == pytest.approx(2.5, rel=RTOL_ROUND_OFF)
+    assert values[1] == pytest.approx(0.4, rel=RTOL_ROUND_OFF)
+    assert values[2] == pytest.approx(0.1**2 + 0.04**2, rel=RTOL_ROUND_OFF)
     assert values[3] == "OK"
-    assert values[4] == pytest.approx(0.2, rel=1e-12)
+    assert values[4] == pytest.approx(0.2, rel=RTOL_ROUND_OFF)
 
 
 def test_without_recalculation_the_stale_value_would_show(tmp_path, stale_value, poison):
