@@ -4,16 +4,16 @@ import numpy as np
 import pytest
 
 from heatledger import HeatLedgerError, air_layer_resistance, ventilation_class
+from tests._tables import read_table
 from tests.tolerances import ATOL_TABLE_M2K_W
 
-# source: EN ISO 6946:2017, Table 8, emissivities 0.9, mean temperature 10 degC (from memory,
-# [source: iso6946-airlayers]: reproduced by the Annex D formulas)
-ISO6946_TABLE8_THICKNESS_MM = [0, 5, 7, 10, 15, 25, 50, 100, 300]
+# source: EN ISO 6946:2017, Table 8, emissivities 0.9, mean temperature 10 degC
+# [source: iso6946-airlayers, Table 8] (tests/data; from memory, reproduced by the Annex D
+# formulas)
+_TABLE8 = read_table("iso6946_2017_table8_unventilated_air_layers")
+ISO6946_TABLE8_THICKNESS_MM = [float(row["thickness_mm"]) for row in _TABLE8]
 ISO6946_TABLE8_UNVENTILATED_AIR_LAYERS = {
-    "up": [0.00, 0.11, 0.13, 0.15, 0.16, 0.16, 0.16, 0.16, 0.16],
-    "horizontal": [0.00, 0.11, 0.13, 0.15, 0.17, 0.18, 0.18, 0.18, 0.18],
-    "down": [0.00, 0.11, 0.13, 0.15, 0.17, 0.19, 0.21, 0.22, 0.23],
-}
+    flow: [float(row[flow]) for row in _TABLE8] for flow in ("up", "horizontal", "down")}
 
 
 @pytest.mark.parametrize("heat_flow", list(ISO6946_TABLE8_UNVENTILATED_AIR_LAYERS))

@@ -3,17 +3,13 @@
 import pytest
 
 from heatledger import HeatLedgerError, Material, default_library
+from tests._tables import read_table
 
 # source: EN ISO 10456:2007 Table 3, rows confirmed in a secondary source
 # [source: iso10456, Table 3]
 ISO10456_TABLE3_READ = {
-    "concrete medium density 2000": (2000, 1.35),
-    "reinforced concrete 2% steel": (2400, 2.5),
-    "steel": (7800, 50.0),
-    "aluminium alloy": (2800, 160.0),
-    "softwood 500": (500, 0.13),
-    "glass soda-lime": (2500, 1.00),
-}
+    row["name"]: (float(row["density_kg_m3"]), float(row["conductivity_w_mk"]))
+    for row in read_table("iso10456_2007_table3_design_values")}
 
 
 @pytest.mark.parametrize(("name", "values"), list(ISO10456_TABLE3_READ.items()))

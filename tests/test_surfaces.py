@@ -4,18 +4,14 @@ import pytest
 
 from heatledger import HeatLedgerError, surface_resistance, surface_resistance_calc
 from heatledger.surfaces import radiative_coefficient_black_body
+from tests._tables import read_table
 from tests.tolerances import ATOL_TABLE_M2K_W
 
-# source: EN ISO 6946:2017, Table 7 (Rsi 0.13 / Rse 0.04 read in a secondary source;
-# 0.10 and 0.17 from memory, reproduced below by the Annex C formulas)
+# source: EN ISO 6946:2017, Table 7 (tests/data: Rsi 0.13 / Rse 0.04 read in a secondary
+# source; 0.10 and 0.17 from memory, reproduced below by the Annex C formulas)
 ISO6946_TABLE7_SURFACE_RESISTANCES = {
-    ("inside", "up"): 0.10,
-    ("inside", "horizontal"): 0.13,
-    ("inside", "down"): 0.17,
-    ("outside", "up"): 0.04,
-    ("outside", "horizontal"): 0.04,
-    ("outside", "down"): 0.04,
-}
+    (row["side"], row["heat_flow"]): float(row["resistance_m2k_w"])
+    for row in read_table("iso6946_2017_table7_surface_resistances")}
 
 
 @pytest.mark.parametrize(("side", "heat_flow"), list(ISO6946_TABLE7_SURFACE_RESISTANCES))
