@@ -39,12 +39,36 @@ Cells are written in the order of ``sheet.cells()``; no cell is written twice
 from __future__ import annotations
 
 import datetime as _dt
-import functools
 import re
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
 
 from ..errors import HeatLedgerError
+from .addresses import (  # noqa: F401
+    _FORMULA_LIKE,
+    _REF_RE,
+    _SHEET_NAME_BAD,
+    absolute,
+    col_index,
+    col_letter,
+    is_formula_like,
+    ref,
+    safe_sheet_name,
+    sheet_ref,
+    split_ref,
+)
+from .fit import (  # noqa: F401
+    DEFAULT_COLUMN_WIDTH,
+    MAX_FIT_WIDTH,
+    fit_text_columns,
+    fit_wrapped_rows,
+    text_width,
+    wrapped_lines,
+)
+from .styles import (  # noqa: F401
+    STYLES,
+    Style,
+)
 
 __all__ = [
     "Style",
@@ -73,265 +97,6 @@ __all__ = [
 
 #: Document timestamp written into every file so identical input gives identical bytes.
 FIXED_TIMESTAMP = _dt.datetime(2000, 1, 1, 0, 0, 0)
-
-_REF_RE = re.compile(r"^\$?([A-Z]{1,3})\$?([1-9][0-9]*)$")
-_FORMULA_LIKE = ("=", "+", "-", "@")
-#: Width of a column a spreadsheet gives when none is set. [characters]
-DEFAULT_COLUMN_WIDTH = 8.43
-#: Widest a column is made to fit its text; longer texts are cut (or wrap where styled so).
-MAX_FIT_WIDTH = 60.0
-
-
-# --------------------------------------------------------------------------- addresses
-@functools.lru_cache(maxsize=4096)
-def col_letter(index: int) -> str:
-    """Column letters of a 1-based column index (1 -> ``A``, 27 -> ``AA``).
-
-    Parameters
-    ----------
-    index : int
-        Column number, 1 for the first column. [-]
-
-    Returns
-    -------
-    str
-
-    Examples
-    --------
-    >>> col_letter(1), col_letter(26), col_letter(28)
-    ('A', 'Z', 'AB')
-    """
-    if index < 1:
-        raise HeatLedgerError(f"column index must be 1 or more; got {index}")
-    out = ""
-    while index:
-        index, rem = divmod(index - 1, 26)
-        out = chr(65 + rem) + out
-    return out
-
-
-#: Characters no sheet name may hold: Excel's forbidden []:*?/\\ and control characters.
-_SHEET_NAME_BAD = re.compile(r"[\[\]:*?/\\\x00-\x1f\x7f]")
-
-
-def safe_sheet_name(text: str, used: set[str], *, reserved: Iterable[str] = ()) -> str:
-    """A valid, unique sheet name made from ``text``; the name is added to ``used``.
-
-    Forbidden characters (``[]:*?/\\`` and control characters) become spaces, runs of
-    spaces one space; the name is cut to 31 characters and then loses leading and trailing
-    apostrophes (a name ending in ``'`` makes a workbook that LibreOffice cannot open). A
-    name already in ``used`` or ``reserved``, or Excel's own "History" (compared without
-    case), gets ``~2``, ``~3``...
-
-    Parameters
-    ----------
-    text : str
-        The wanted name (a construction, room or fin name with its number). [-]
-    used : set of str
-        Lower-case names already taken; updated. [-]
-    reserved : iterable of str
-        Names kept for fixed sheets (``Cover``, ``Summary``...). [-]
-
-    Examples
-    --------
-    >>> safe_sheet_name("07 Ground floor: slab/edge", set())
-    '07 Ground floor slab edge'
-    >>> safe_sheet_name("03 Roof over the old Gardeners' shed", set())  # cut at the '
-    '03 Roof over the old Gardeners'
-    >>> safe_sheet_name("'" * 40, set())
-    'Sheet'
-    """
-    taken = used | {r.lower() for r in reserved} | {"history"}  # Excel keeps "History"
-
-    def tidy(name: str) -> str:
-        return name.rstrip().strip("'").rstrip()
-
-    base = tidy(re.sub(r"\s+", " ", _SHEET_NAME_BAD.sub(" ", str(text))).strip()[:31]) \
-        or "Sheet"
-    name, k = base, 2
-    while name.lower() in taken:
-        suffix = f"~{k}"
-        name = tidy(base[:31 - len(suffix)]) + suffix
-        k += 1
-    used.add(name.lower())
-    return name
-
-
-def col_index(letters: str) -> int:
-    """1-based column index of column letters (``A`` -> 1).
-
-    Parameters
-    ----------
-    letters : str
-        Column letters, upper case. [-]
-
-    Examples
-    --------
-    >>> col_index("AB")
-    28
-    """
-    out = 0
-    for ch in letters:
-        out = out * 26 + (ord(ch) - 64)
-    return out
-
-
-def ref(row: int, col: int, *, absolute_ref: bool = False) -> str:
-    """A1 reference of a 1-based row and column.
-
-    Parameters
-    ----------
-    row : int
-        Row number, 1 for the first row. [-]
-    col : int
-        Column number, 1 for column A. [-]
-    absolute_ref : bool
-        Write ``$B$7`` instead of ``B7``. [-]
-
-    Examples
-    --------
-    >>> ref(7, 2), ref(7, 2, absolute_ref=True)
-    ('B7', '$B$7')
-    """
-    if row < 1:
-        raise HeatLedgerError(f"row must be 1 or more; got {row}")
-    if absolute_ref:
-        return f"${col_letter(col)}${row}"
-    return f"{col_letter(col)}{row}"
-
-
-@functools.lru_cache(maxsize=65536)
-@functools.lru_cache(maxsize=65536)
-def split_ref(a1: str) -> tuple[int, int]:
-    """Row and column (1-based) of an A1 reference such as ``"B7"`` or ``"$B$7"``.
-
-    Parameters
-    ----------
-    a1 : str
-        The reference. [-]
-
-    Examples
-    --------
-    >>> split_ref("$C$12")
-    (12, 3)
-    """
-    m = _REF_RE.match(a1)
-    if not m:
-        raise HeatLedgerError(f"cell reference must look like 'B7'; got {a1!r}")
-    return int(m.group(2)), col_index(m.group(1))
-
-
-def absolute(a1: str) -> str:
-    """``B7`` -> ``$B$7``.
-
-    Parameters
-    ----------
-    a1 : str
-        The reference. [-]
-    """
-    row, col = split_ref(a1)
-    return ref(row, col, absolute_ref=True)
-
-
-def sheet_ref(sheet: str, a1: str) -> str:
-    """Reference to a cell or range on a named sheet, quoted: ``'EW1 wall'!$B$7``.
-
-    Parameters
-    ----------
-    sheet : str
-        Sheet name. [-]
-    a1 : str
-        Cell or range reference (``B7`` or ``B7:B9``); made absolute. [-]
-
-    Examples
-    --------
-    >>> sheet_ref("Cover", "B3:B4")
-    "'Cover'!$B$3:$B$4"
-    """
-    parts = a1.split(":")
-    body = ":".join(absolute(p) for p in parts)
-    quoted = sheet.replace("'", "''")
-    return f"'{quoted}'!{body}"
-
-
-def is_formula_like(text: object) -> bool:
-    """True when ``text`` is a string a spreadsheet could take for a formula.
-
-    Parameters
-    ----------
-    text : object
-        A cell value. [-]
-
-    Examples
-    --------
-    >>> is_formula_like("=1+1"), is_formula_like("-5 mm"), is_formula_like("wall")
-    (True, True, False)
-    """
-    return isinstance(text, str) and text.startswith(_FORMULA_LIKE)
-
-
-# --------------------------------------------------------------------------- styles
-@dataclass(frozen=True)
-class Style:
-    """A named cell style of our own palette.
-
-    Attributes
-    ----------
-    name : str
-        Style name as stored in the file (``"hl input"`` ...).
-    bold, italic : bool
-        Font weight and slant.
-    size : float
-        Font size in points.
-    color : str
-        Font colour, ``RRGGBB``.
-    fill : str or None
-        Background colour, ``RRGGBB``; None for no fill.
-    border : str or None
-        ``"thin"`` for a thin grey box, ``"bottom"`` for a rule under the cell, None.
-    align : str or None
-        ``"left"``, ``"center"``, ``"right"`` or None.
-    wrap : bool
-        Wrap text in the cell.
-    number_format : str
-        Default number format of the style.
-    """
-
-    name: str
-    bold: bool = False
-    italic: bool = False
-    size: float = 10.0
-    color: str = "1F2A33"
-    fill: str | None = None
-    border: str | None = None
-    align: str | None = None
-    wrap: bool = False
-    number_format: str = "General"
-
-
-# Our own palette: slate text, pale sand for what the user types, pale teal for formulas,
-# light grey for the engine's constants, and a pale green band for checks.
-STYLES: dict[str, Style] = {
-    s.name: s
-    for s in (
-        Style("hl title", bold=True, size=14, color="12303F"),
-        Style("hl subtitle", bold=True, size=11, color="12303F", border="bottom"),
-        Style("hl header", bold=True, color="FFFFFF", fill="2E5A6B", border="thin",
-              align="center", wrap=True),
-        Style("hl label", color="1F2A33"),
-        Style("hl note", italic=True, size=9, color="5A6770", wrap=False),
-        Style("hl note wrap", italic=True, size=9, color="5A6770", wrap=True),
-        Style("hl input", color="3A2A00", fill="FBEFD0", border="thin"),
-        Style("hl formula", color="0B3340", fill="DDEFF2", border="thin"),
-        Style("hl engine", color="4A4A4A", fill="EEEEEE", border="thin"),
-        Style("hl check", bold=True, color="1E5130", fill="DCEFD9", border="thin",
-              align="center"),
-        Style("hl text", color="1F2A33", border="thin"),
-        Style("hl text wrap", color="1F2A33", border="thin", wrap=True),
-        Style("hl paragraph", color="1F2A33", wrap=True),
-        Style("hl warning", bold=True, color="7A1F12", wrap=True),
-    )
-}
 
 
 # --------------------------------------------------------------------------- cells, blocks
@@ -550,167 +315,6 @@ class DataValidation:
     prompt: str = ""
     error: str = ""
     error_style: str = "stop"
-
-
-# --------------------------------------------------------------------------- column widths
-def text_width(text: str, size: float = 10.0) -> float:
-    """Column width that shows ``text`` whole in a font of ``size`` points.
-
-    Parameters
-    ----------
-    text : str
-        The text of the cell. [-]
-    size : float
-        Font size. [pt]
-
-    Returns
-    -------
-    float
-        Width in characters of the default font (the unit of column widths), with a
-        margin of 1.5 characters for the cell padding and wider fallback fonts.
-
-    Examples
-    --------
-    >>> text_width("Heat flow")
-    10.5
-    """
-    return round(len(text) * size / 10.0 + 1.5, 1)
-
-
-def fit_text_columns(sheet: Sheet, *, cap: float = MAX_FIT_WIDTH) -> dict[str, float]:
-    """Widen the columns of ``sheet`` whose text a filled cell to its right would cut.
-
-    A spreadsheet lets text run on into empty cells to its right but cuts it at the first
-    filled one. For every unwrapped, unmerged text cell whose right-hand neighbour holds a
-    value or formula, the column is made at least :func:`text_width` of the text, up to
-    ``cap``. Widths are only ever increased.
-
-    Parameters
-    ----------
-    sheet : Sheet
-        The sheet to adjust (its ``column_widths`` are updated in place). [-]
-    cap : float
-        Widest a column is made. [characters]
-
-    Returns
-    -------
-    dict
-        Column letters -> new width, for the columns that were widened. [-]
-    """
-    cells = sheet.cell_map()
-    merged: set[tuple[int, int]] = set()
-    for rng in sheet.merges:
-        first, _, last = rng.partition(":")
-        r1, c1 = split_ref(first)
-        r2, c2 = split_ref(last or first)
-        merged.update((r, c) for r in range(r1, r2 + 1) for c in range(c1, c2 + 1))
-    need: dict[str, float] = {}
-    for c in cells.values():
-        if c.formula is not None or not isinstance(c.value, str) or not c.value:
-            continue
-        style = STYLES[c.style]
-        row, col = split_ref(c.ref)
-        if style.wrap or (row, col) in merged:
-            continue
-        right = cells.get(ref(row, col + 1))
-        if right is None or (right.formula is None and right.value in (None, "")):
-            continue
-        letters = col_letter(col)
-        need[letters] = max(need.get(letters, 0.0), min(cap, text_width(c.value, style.size)))
-    widened = {}
-    for letters, width in need.items():
-        if sheet.column_widths.get(letters, DEFAULT_COLUMN_WIDTH) < width:
-            sheet.column_widths[letters] = width
-            widened[letters] = width
-    return widened
-
-
-def wrapped_lines(text: str, width: float, size: float = 10.0, *, bold: bool = False) -> int:
-    """Number of lines ``text`` takes when wrapped at word boundaries in ``width``.
-
-    Parameters
-    ----------
-    text : str
-        The text; explicit line breaks start new lines. [-]
-    width : float
-        Width of the cell (or merged range). [characters]
-    size : float
-        Font size. [pt]
-    bold : bool
-        Bold text, about an eighth wider. [-]
-
-    Returns
-    -------
-    int
-
-    Examples
-    --------
-    >>> wrapped_lines("U, 2 s.f. [W/(m2 K)]", 12.0, bold=True)
-    2
-    """
-    # running text is narrower than the digit '0' that sets the unit: about 0.8 of it for a
-    # 10 pt regular font and 0.9 for bold (measured on our cover in LibreOffice and Excel)
-    per_char = size / 10.0 * (0.9 if bold else 0.8)
-    capacity = max(1, int((width - 1.0) / per_char))
-    lines = 0
-    for para in str(text).split("\n"):
-        used = -1
-        lines += 1
-        for word in para.split():
-            n = len(word)
-            if used >= 0 and used + 1 + n <= capacity:
-                used += 1 + n
-                continue
-            if used >= 0:
-                lines += 1  # the word starts a new line
-            full, rest = divmod(n, capacity)  # a word longer than a line breaks inside
-            if rest:
-                lines, used = lines + full, rest
-            else:
-                lines, used = lines + full - 1, capacity
-    return lines
-
-
-def fit_wrapped_rows(sheet: Sheet) -> dict[int, float]:
-    """Make rows tall enough for the text of their wrapped cells (headers, paragraphs).
-
-    Heights are only ever increased: ``13.5 pt`` per line of a 10 pt font plus 2 pt.
-
-    Parameters
-    ----------
-    sheet : Sheet
-        The sheet to adjust (its ``row_heights`` are updated in place). [-]
-
-    Returns
-    -------
-    dict
-        Row number -> new height, for the rows that were made taller. [pt]
-    """
-    spans: dict[tuple[int, int], tuple[int, int, int]] = {}
-    for rng in sheet.merges:
-        first, _, last = rng.partition(":")
-        r1, c1 = split_ref(first)
-        r2, c2 = split_ref(last or first)
-        spans[(r1, c1)] = (c2, r2 - r1 + 1, c1)
-    need: dict[int, float] = {}
-    for c in sheet.cells():
-        style = STYLES[c.style]
-        if not style.wrap or c.formula is not None or not isinstance(c.value, str):
-            continue
-        row, col = split_ref(c.ref)
-        last_col, n_rows, _ = spans.get((row, col), (col, 1, col))
-        width = sum(sheet.column_widths.get(col_letter(j), DEFAULT_COLUMN_WIDTH)
-                    for j in range(col, last_col + 1))
-        lines = wrapped_lines(c.value, width, style.size, bold=style.bold)
-        height = (13.5 * style.size / 10.0 * lines + 2.0) / n_rows
-        if lines > 1 and height > need.get(row, 0.0):
-            need[row] = height
-    taller = {}
-    for row, height in need.items():
-        if sheet.row_heights.get(row, 15.0) < height:
-            sheet.row_heights[row] = round(height, 1)
-            taller[row] = round(height, 1)
-    return taller
 
 
 # --------------------------------------------------------------------------- sheet, workbook
