@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
+from types import SimpleNamespace
 
 from ..constructions import (
     CORRECTION_THRESHOLD,
@@ -240,13 +241,61 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     -------
     ConstructionRefs
     """
+    st = SimpleNamespace(
+        plan=plan, sheet_name=sheet_name, construction=construction, temp_inside=temp_inside,
+        temp_outside=temp_outside, nodes_per_layer=nodes_per_layer, area=area, target_u=target_u,
+        materials=materials, material_refs=material_refs, bridging_materials=bridging_materials,
+        project_name=project_name, tolerance=tolerance, temperatures=temperatures)
+    _sheet_setup(st)
+    _header(st)
+    _layer_table(st)
+    _layer_rows(st)
+    _ventilation_setup(st)
+    _surface_resistances(st)
+    _bridging_limits(st)
+    _layer_factors_and_total(st)
+    _corrections(st)
+    _ladder_temperatures(st)
+    _chart_space(st)
+    _nodal_table(st)
+    _temperature_chart(st)
+    return _check_count(st)
+
+
+def _sheet_setup(st) -> None:
+    """The sheet, the engine's temperatures and the row writer."""
+    construction = st.construction
+    nodes_per_layer = st.nodes_per_layer
+    plan = st.plan
+    project_name = st.project_name
+    sheet_name = st.sheet_name
+    temp_inside = st.temp_inside
+    temp_outside = st.temp_outside
+    temperatures = st.temperatures
     con = construction
     temps = temperatures or con.temperatures(temp_inside, temp_outside,
                                              nodes_per_layer=nodes_per_layer)
     name = con.name or sheet_name
     sheet = add_calculation_sheet(plan, sheet_name, COLUMN_WIDTHS, f"{project_name} | {name}")
     w = CheckRows(sheet, "$C$8", CONSTRUCTION_ROWS)
+    st.con = con
+    st.name = name
+    st.sheet = sheet
+    st.temps = temps
+    st.w = w
 
+
+def _header(st) -> None:
+    """Title, design inputs, tolerance and the places of the check counters."""
+    area = st.area
+    con = st.con
+    name = st.name
+    sheet = st.sheet
+    target_u = st.target_u
+    temp_inside = st.temp_inside
+    temp_outside = st.temp_outside
+    tolerance = st.tolerance
+    w = st.w
     # ---- header --------------------------------------------------------------------------
     w.put(1, f"{name}: thermal resistance, U-value and temperatures", style="hl title")
     sheet.merges.append("A1:N1")
@@ -284,7 +333,23 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     w.put(6, "State of this sheet")
     state_cell = w.a1(10)
     w.row = HEADER_ROWS
+    st.area_ref = area_ref
+    st.count_cell = count_cell
+    st.ok_ref = ok_ref
+    st.state_cell = state_cell
+    st.target_ref = target_ref
+    st.te = te
+    st.ti = ti
 
+
+def _layer_table(st) -> None:
+    """Rows of the layer table (filled later) and the bridged layers' parts (6.7.2)."""
+    bridging_materials = st.bridging_materials
+    con = st.con
+    material_refs = st.material_refs
+    materials = st.materials
+    temps = st.temps
+    w = st.w
     # ---- layer table ---------------------------------------------------------------------
     w.start("layers", "Layers, inside to outside (EN ISO 6946:2017, 6.7)")
     w.headers([c for c, _ in LAYER_COLUMNS])
@@ -326,7 +391,31 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                 w.put(8, formula=f"=F{w.row}*G{w.row}", fmt=FMT_LAMBDA)
                 w.row += 1
             parts_at[idx] = (first, w.row - 1)
+    st.bridge = bridge
+    st.bridged_idx = bridged_idx
+    st.counted_rows = counted_rows
+    st.counts = counts
+    st.first_layer_row = first_layer_row
+    st.last_layer_row = last_layer_row
+    st.layer_row = layer_row
+    st.parts_at = parts_at
+    st.r = r
+    st.rows = rows
+    st.slightly = slightly
+    st.vent = vent
 
+
+def _layer_rows(st) -> None:
+    """Fill the layer rows now that the bridged parts' rows are known."""
+    con = st.con
+    counts = st.counts
+    layer_row = st.layer_row
+    material_refs = st.material_refs
+    materials = st.materials
+    parts_at = st.parts_at
+    rows = st.rows
+    sheet = st.sheet
+    w = st.w
     # fill the layer rows now that part ranges are known
     w.block = sheet.block("layers")
     rse_used_ref = "$G$0"  # placeholder, set below
@@ -372,11 +461,33 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         if r.counted:
             w.put(13, counts[r.index], role="input", fmt="0", row=rr)
         w.put(14, note, role="note", row=rr)
+    st.layer_cells = layer_cells
+    st.r = r
+    st.rse_used_ref = rse_used_ref
 
+
+def _ventilation_setup(st) -> None:
+    """Still-air Rsi and the cells of a slightly ventilated layer (6.9.3)."""
+    con = st.con
     # ---- ventilation (slightly) ----------------------------------------------------------
     rsi_still = surface_resistance("inside", con.heat_flow)
     vent_refs: dict[str, str] = {}
+    st.rsi_still = rsi_still
+    st.vent_refs = vent_refs
 
+
+def _surface_resistances(st) -> None:
+    """Rsi and Rse (Table 7) and, for a ventilated air layer, its treatment (6.9)."""
+    bridged_idx = st.bridged_idx
+    con = st.con
+    counted_rows = st.counted_rows
+    layer_cells = st.layer_cells
+    rows = st.rows
+    rsi_still = st.rsi_still
+    slightly = st.slightly
+    vent = st.vent
+    vent_refs = st.vent_refs
+    w = st.w
     # ---- surfaces and totals -------------------------------------------------------------
     w.row += 1
     w.start("totals", "Surface resistances (EN ISO 6946:2017, 6.8 and Table 7)")
@@ -432,7 +543,24 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
             note=f"6.9.4: Rse = Rsi of the same direction ({con.heat_flow})")
     else:
         rse_used_ref = w.value_row("Rse used [m2 K/W]", formula=f"={rse}", engine=con.rse_used)
+    st.base_cells = base_cells
+    st.rse_used_ref = rse_used_ref
+    st.rsi = rsi
 
+
+def _bridging_limits(st) -> None:
+    """Upper and lower limits of a bridged construction (6.7.2)."""
+    base_cells = st.base_cells
+    bridge = st.bridge
+    bridged_idx = st.bridged_idx
+    con = st.con
+    layer_cells = st.layer_cells
+    layer_row = st.layer_row
+    parts_at = st.parts_at
+    rse_used_ref = st.rse_used_ref
+    rsi = st.rsi
+    sheet = st.sheet
+    w = st.w
     # bridging limits (upper/lower) need Rsi, Rse used and the own resistances
     bridge_refs: dict[str, str] = {}
     if bridge is not None:
@@ -485,7 +613,28 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         w.put(14, "ISO 6946:2017, 6.7.2.1", role="note")
         w.row += 1
         bridge_refs = {"total": r_t_b, "lower": lower}
+    st.bridge_refs = bridge_refs
 
+
+def _layer_factors_and_total(st) -> None:
+    """Factors of the layer rows, R_T and U before corrections (6.7.1)."""
+    bridge = st.bridge
+    bridge_refs = st.bridge_refs
+    bridged_idx = st.bridged_idx
+    con = st.con
+    counted_rows = st.counted_rows
+    first_layer_row = st.first_layer_row
+    last_layer_row = st.last_layer_row
+    layer_cells = st.layer_cells
+    layer_row = st.layer_row
+    rows = st.rows
+    rse_used_ref = st.rse_used_ref
+    rsi = st.rsi
+    sheet = st.sheet
+    slightly = st.slightly
+    vent = st.vent
+    vent_refs = st.vent_refs
+    w = st.w
     # factors of the layer table (need the bridging/ventilation cells)
     w.block = sheet.block("layers")
     r_b_sum = "+".join(layer_cells[i]["own"] for i in bridged_idx) if bridged_idx else ""
@@ -516,7 +665,18 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                                "the factors" if bridge is not None else "6.7.1")
     u0 = w.value_row("U = 1/R_T, before corrections [W/(m2 K)]", formula=f"=1/{r_total}",
                      engine=con.u_value_uncorrected, fmt=FMT_U)
+    st.r_total = r_total
+    st.u0 = u0
 
+
+def _corrections(st) -> None:
+    """Corrections to U (Annex F) and the U-value reported."""
+    con = st.con
+    layer_cells = st.layer_cells
+    r_total = st.r_total
+    target_ref = st.target_ref
+    u0 = st.u0
+    w = st.w
     # ---- corrections ---------------------------------------------------------------------
     corr = con.corrections
     items = []
@@ -597,7 +757,24 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     w.put(7, formula=f'=IF(ISNUMBER({target_ref}),IF({u_val}<={target_ref},"yes","NO"),'
                      '"no target")')
     w.row += 1
+    st.u_rep = u_rep
+    st.u_val = u_val
 
+
+def _ladder_temperatures(st) -> None:
+    """Temperatures at the interfaces by the resistance ladder."""
+    con = st.con
+    counted_rows = st.counted_rows
+    layer_row = st.layer_row
+    r_total = st.r_total
+    rse_used_ref = st.rse_used_ref
+    rsi = st.rsi
+    sheet = st.sheet
+    te = st.te
+    temp_inside = st.temp_inside
+    temp_outside = st.temp_outside
+    ti = st.ti
+    w = st.w
     # ---- ladder temperatures -------------------------------------------------------------
     w.row += 1
     sheet.row_breaks.append(w.row)  # temperatures and their chart start a printed page
@@ -635,12 +812,33 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
                 formula=f"=(G{first_if}-{te})/({ti}-{te})",
                 engine=(float(ladder[0]) - temp_outside) / (temp_inside - temp_outside),
                 fmt="0.0000", note="plane element; a mould check uses Rsi = 0.25 (ISO 13788)")
+    st.first_if = first_if
+    st.last_if = last_if
+    st.q_ref = q_ref
 
+
+def _chart_space(st) -> None:
+    """Rows kept free for the temperature chart."""
+    sheet = st.sheet
+    w = st.w
     # ---- chart placeholder rows ----------------------------------------------------------
     chart_row = w.row + 1
     w.row += 21
     sheet.row_breaks.append(w.row)  # the nodal table starts a printed page
+    st.chart_row = chart_row
 
+
+def _nodal_table(st) -> None:
+    """The finite-volume nodal table: coefficients, Thomas algorithm, engine check."""
+    con = st.con
+    layer_row = st.layer_row
+    r_total = st.r_total
+    rse_used_ref = st.rse_used_ref
+    rsi = st.rsi
+    te = st.te
+    temps = st.temps
+    ti = st.ti
+    w = st.w
     # ---- finite-volume nodal table -------------------------------------------------------
     w.start("fv", "Finite-volume nodal temperatures (cell-centred, Patankar 1980 ch. 4)")
     fv = temps.fv
@@ -726,7 +924,21 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     for text in con.warnings:
         put_warning(w, f"Warning: {text}")
     last_row = w.row
+    st.last_row = last_row
+    st.node0 = node0
+    st.nodeN = nodeN
 
+
+def _temperature_chart(st) -> None:
+    """The temperature chart through the construction."""
+    chart_row = st.chart_row
+    first_if = st.first_if
+    last_if = st.last_if
+    name = st.name
+    node0 = st.node0
+    nodeN = st.nodeN
+    sheet = st.sheet
+    sheet_name = st.sheet_name
     # ---- chart ---------------------------------------------------------------------------
     sheet.charts.append(Chart(
         "scatter", f"Temperature through {name}", f"B{chart_row}",
@@ -739,6 +951,27 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
         x_title="position from the inside surface [mm]", y_title="temperature [degC]",
         width_cm=30.0, height_cm=10.5))
 
+
+def _check_count(st) -> object:
+    """Fill the sheet's check counters; return the sheet's references."""
+    area_ref = st.area_ref
+    count_cell = st.count_cell
+    first_if = st.first_if
+    last_if = st.last_if
+    last_row = st.last_row
+    name = st.name
+    node0 = st.node0
+    nodeN = st.nodeN
+    ok_ref = st.ok_ref
+    q_ref = st.q_ref
+    r_total = st.r_total
+    sheet = st.sheet
+    sheet_name = st.sheet_name
+    state_cell = st.state_cell
+    target_ref = st.target_ref
+    u_rep = st.u_rep
+    u_val = st.u_val
+    w = st.w
     # ---- sheet check count ---------------------------------------------------------------
     w.block = sheet.block("header")
     w.put(10, w.checks, role="engine", fmt="0", row=int(count_cell[1:]))
