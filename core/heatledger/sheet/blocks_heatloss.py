@@ -21,6 +21,7 @@ clauses 8.2 to 8.4 and Annex B [M].
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from types import SimpleNamespace
 
 from .. import cautions as _cautions
 from ..heatloss import AdjacentRoom, Ground, Outside, Unheated
@@ -171,6 +172,24 @@ def add_heatloss_sheets(plan: WorkbookPlan, building_input, *, project_name: str
 
 # --------------------------------------------------------------------------- room sheet
 def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, project_name):
+    st = SimpleNamespace(
+        plan=plan, sname=sname, room=room, rres=rres, building=building, bi=bi, bref=bref,
+        room_sheet=room_sheet, crefs=crefs, project_name=project_name)
+    _room_setup(st)
+    _room_elements(st)
+    return _room_totals(st)
+
+
+def _room_setup(st) -> None:
+    """The sheet, its header and its inputs."""
+    bref = st.bref
+    building = st.building
+    crefs = st.crefs
+    plan = st.plan
+    project_name = st.project_name
+    room = st.room
+    rres = st.rres
+    sname = st.sname
     sheet = add_calculation_sheet(plan, sname, [w for _h, w in TABLE_COLUMNS],
                                   f"{project_name} | {room.name}")
     w = CheckRows(sheet, f"${_TOL[0]}${_TOL[1:]}", HEATLOSS_ROWS)
@@ -213,7 +232,24 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
                                                                 building.constructions or {})
     w.start("ventilation", "Ventilation heat-loss coefficient")
     vent = _ventilation_rows(w, room, rres)
+    st.area_refs = area_refs
+    st.u_refs = u_refs
+    st.vent = vent
+    st.w = w
 
+
+def _room_elements(st) -> None:
+    """One row per element and thermal bridge: U, factor, H and share with their checks."""
+    area_refs = st.area_refs
+    bref = st.bref
+    building = st.building
+    crefs = st.crefs
+    room = st.room
+    room_sheet = st.room_sheet
+    rres = st.rres
+    u_refs = st.u_refs
+    vent = st.vent
+    w = st.w
     # ---- element table -------------------------------------------------------------------
     w.start("elements", "Elements, thermal bridges, ventilation and heating-up (EN 12831-1, "
                         "clause 6)")
@@ -291,7 +327,25 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
     w.put(19, "Φ_hu = f_RH A_floor (f_RH [W/m2] input; check compares Φ_hu)", role="note",
           style=NOTE_STYLE)
     w.row = reheat_row + 1
+    st.first = first
+    st.last_trans = last_trans
+    st.n_trans = n_trans
+    st.reheat_row = reheat_row
+    st.total_ref = total_ref
+    st.vent_row = vent_row
 
+
+def _room_totals(st) -> object:
+    """Totals of the room: H_T, ventilation, reheat and the design heat load."""
+    first = st.first
+    last_trans = st.last_trans
+    n_trans = st.n_trans
+    reheat_row = st.reheat_row
+    rres = st.rres
+    sname = st.sname
+    total_ref = st.total_ref
+    vent_row = st.vent_row
+    w = st.w
     # ---- totals (fixed layout: total_ref above points at Φ_HL) --------------------------
     w.start("totals", "Design heat load of the room")
     rng = f"K{first}:K{last_trans}"

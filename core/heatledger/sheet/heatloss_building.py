@@ -4,6 +4,7 @@
 from __future__ import annotations
 
 import math
+from types import SimpleNamespace
 
 from .. import cautions as _cautions
 from .blocks_construction import add_calculation_sheet
@@ -35,6 +36,22 @@ __all__ = []
 # --------------------------------------------------------------------------- building sheet
 def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance,
                     project_name) -> dict:
+    st = SimpleNamespace(
+        plan=plan, bi=bi, result=result, rooms_out=rooms_out, room_sheet=room_sheet,
+        counters=counters, tolerance=tolerance, project_name=project_name)
+    _building_setup(st)
+    _building_rooms(st)
+    _building_by_kind(st)
+    _building_energy(st)
+    return _building_totals(st)
+
+
+def _building_setup(st) -> None:
+    """The sheet, its header and its inputs."""
+    bi = st.bi
+    plan = st.plan
+    project_name = st.project_name
+    tolerance = st.tolerance
     widths = [5, 40, 24, 10, 11, 11, 11, 11, 12, 12, 10, 10, 10, 10, 10, 10, 10, 10, 60]
     sheet = add_calculation_sheet(plan, BUILDING_SHEET, widths,
                                   f"{project_name} | building heat loss")
@@ -66,7 +83,19 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
         w.put(2, label, row=row)
         w.put(3, value, role="input", fmt=fmt, row=row)
     w.row = HEADER_ROWS
+    st.b = b
+    st.sheet = sheet
+    st.w = w
 
+
+def _building_rooms(st) -> None:
+    """One row per room: coefficients, loads and shares, linked to the room sheets."""
+    b = st.b
+    result = st.result
+    room_sheet = st.room_sheet
+    rooms_out = st.rooms_out
+    sheet = st.sheet
+    w = st.w
     # ---- rooms ---------------------------------------------------------------------------
     w.start("rooms", "Rooms (live references to the room sheets)")
     heads = ["No.", "Room", "Sheet", "θ_int [degC]", "H_T [W/K]", "H_int [W/K]", "H_V [W/K]",
@@ -121,7 +150,19 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
     sheet.merges.append(f"B{w.row}:S{w.row}")
     sheet.row_heights[w.row] = 27.0
     w.row += 1
+    st.h = h
+    st.h_t = h_t
+    st.h_v = h_v
+    st.load = load
 
+
+def _building_by_kind(st) -> None:
+    """Heat loss by element kind, for the chart."""
+    b = st.b
+    load = st.load
+    result = st.result
+    rooms_out = st.rooms_out
+    w = st.w
     # ---- by element type -----------------------------------------------------------------
     w.start("by_kind", "Heat loss by element type (exchange between rooms left out)")
     for j, hname in ((2, "Element type"), (7, "Φ [W]"), (12, "Engine Φ [W]"), (13, "Check"),
@@ -130,7 +171,6 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
     w.row += 1
     k_first = w.row
     for kind, engine_q in result.by_kind.items():
-        r = w.row
         w.put(2, kind, style="hl text")
         terms = []
         for room in b.rooms:
@@ -148,7 +188,21 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
     k_last = w.row - 1
     chart_row = w.row + 1
     w.row += 19
+    st.c = c
+    st.chart_row = chart_row
+    st.k_first = k_first
+    st.k_last = k_last
+    st.n = n
 
+
+def _building_energy(st) -> None:
+    """Annual energy by the degree-day method."""
+    b = st.b
+    bi = st.bi
+    h = st.h
+    result = st.result
+    rooms_out = st.rooms_out
+    w = st.w
     # ---- annual energy -------------------------------------------------------------------
     w.start("energy", "Annual heating energy from degree-days")
     energy_ref = ""
@@ -181,7 +235,27 @@ def _building_sheet(plan, bi, result, rooms_out, room_sheet, counters, tolerance
         w.put(2, text, role="note")
         w.row += 1
     last_row = w.row
+    st.energy_ref = energy_ref
+    st.last_row = last_row
+    st.room_energy = room_energy
 
+
+def _building_totals(st) -> object:
+    """Check counts of all heat-loss sheets; return the sheet's references."""
+    chart_row = st.chart_row
+    counters = st.counters
+    energy_ref = st.energy_ref
+    h = st.h
+    h_t = st.h_t
+    h_v = st.h_v
+    k_first = st.k_first
+    k_last = st.k_last
+    last_row = st.last_row
+    load = st.load
+    room_energy = st.room_energy
+    rooms_out = st.rooms_out
+    sheet = st.sheet
+    w = st.w
     # ---- totals of all heat-loss sheets -----------------------------------------------
     w.row += 1
     w.block = sheet.block("all_checks")
