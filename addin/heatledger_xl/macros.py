@@ -1,7 +1,7 @@
 """Macros: write the full calculation sheet of a construction into the open workbook.
 
 The sheet is the one the headless audit writes for a construction
-(:func:`heatledger.sheet.blocks_construction.add_construction_sheet`), rendered through
+(:func:`heatledger.sheet.construction_sheet.add_construction_sheet`), rendered through
 xlwings (:mod:`heatledger_xl.render_xlwings`), so the live formulas, the engine's values and
 the check cells are the same.
 
@@ -31,7 +31,7 @@ import xlwings as xw
 from xlwings import script
 
 from heatledger.errors import HeatLedgerError
-from heatledger.sheet.blocks_construction import add_construction_sheet
+from heatledger.sheet.construction_sheet import add_construction_sheet
 from heatledger.sheet.plan import WorkbookPlan, safe_sheet_name
 
 from .cells import heat_flow_value, number, text

@@ -7,7 +7,8 @@ the add-in renders the same plan through xlwings). This package never imports xl
 """
 
 from .audit import audit_bytes, audit_plan, write_audit
-from .blocks_construction import ConstructionRefs, add_construction_sheet
+from .blocks_construction import ConstructionRefs
+from .construction_sheet import add_construction_sheet
 from .plan import STYLES, Block, Cell, Chart, ChartSeries, PrintSetup, Sheet, WorkbookPlan
 from .render_openpyxl import render_workbook, workbook_bytes, write_workbook
 from .template import project_from_template, read_template, template_plan

@@ -3,7 +3,8 @@ Summary of constructions (hooks of :mod:`heatledger.families`)."""
 
 from __future__ import annotations
 
-from .blocks_construction import FMT_U_2SF, ConstructionRefs, add_construction_sheet
+from .blocks_construction import FMT_U_2SF, ConstructionRefs
+from .construction_sheet import add_construction_sheet
 from .plan import Chart, ChartSeries, col_letter, safe_sheet_name, sheet_ref
 
 __all__ = ["add_sheets", "topics", "METHODS"]

@@ -1,0 +1,84 @@
+"""Code short enough to read: no function over about 80 code lines (data tables aside), no
+module over about 600 lines.
+
+Lines are counted without blank lines, comments and the docstring. The functions and
+modules still over the limits are listed below, each with its reason; the test fails on any
+new one, and on an entry of the list that is no longer over (so the list only shrinks).
+"""
+
+from __future__ import annotations
+
+import ast
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[1]
+MAX_FUNCTION_LINES = 80
+MAX_MODULE_LINES = 600
+#: Functions still over the limit, with why they are left (to be cut).
+LONG_FUNCTIONS = {
+    "core/heatledger/sheet/fins_fv_sheet.py:_fv": "one nodal table with its live formulas",
+    "core/heatledger/sheet/heatloss_rows.py:_ground_rows": "three ground methods' rows",
+    "core/heatledger/fins/fv.py:_solve": "the Newton iteration with refinement and stall checks",
+    "core/heatledger/fins/fv.py:solve_fin_fv": "validation of every argument of the front door",
+    "core/heatledger/sheet/blocks_fins.py:add_fin_sheet": "the fin sheet's sections in order",
+    "core/heatledger/sheet/audit.py:_cover": "the cover's sections in order",
+    "core/heatledger/sheet/blocks_fins_closed.py:_annular": "the annular fin's Bessel rows",
+    "core/heatledger/windows.py:window": "the ISO 10077-1 checks of every argument",
+    "core/heatledger/sheet/construction_sheet_steps.py:_corrections":
+        "the three Annex F corrections' rows",
+    "core/heatledger/sheet/construction_sheet_steps.py:_nodal_table":
+        "one nodal table with its live formulas",
+    "core/heatledger/sheet/blocks_heatloss.py:_room_elements": "the element table of a room",
+}
+#: Modules still over the limit.
+LONG_MODULES = {
+    "addin/heatledger_xl/udfs_fins.py": "the fin functions of the add-in (605 lines)",
+}
+
+
+def _code_lines(lines: list[str], node) -> int:
+    doc = None
+    body = node.body
+    if body and isinstance(body[0], ast.Expr) and isinstance(body[0].value, ast.Constant) \
+            and isinstance(body[0].value.value, str):
+        doc = (body[0].lineno, body[0].end_lineno)
+    return sum(1 for i in range(node.lineno, node.end_lineno + 1)
+               if not (doc and doc[0] <= i <= doc[1])
+               and lines[i - 1].strip() and not lines[i - 1].strip().startswith("#"))
+
+
+def _measure():
+    functions, modules = {}, {}
+    for folder in ("core", "addin"):
+        for path in (ROOT / folder).rglob("*.py"):
+            text = path.read_text(encoding="utf-8")
+            rel = path.relative_to(ROOT).as_posix()
+            lines = text.splitlines()
+            modules[rel] = len(lines)
+            for node in ast.walk(ast.parse(text)):
+                if isinstance(node, (ast.FunctionDef, ast.AsyncFunctionDef)):
+                    functions[f"{rel}:{node.name}"] = _code_lines(lines, node)
+    return functions, modules
+
+
+FUNCTIONS, MODULES = _measure()
+
+
+def test_no_new_long_function():
+    long = {k: n for k, n in FUNCTIONS.items() if n > MAX_FUNCTION_LINES}
+    assert set(long) <= set(LONG_FUNCTIONS), {k: long[k] for k in set(long) - set(LONG_FUNCTIONS)}
+
+
+def test_the_list_of_long_functions_only_shrinks():
+    fixed = [k for k in LONG_FUNCTIONS if FUNCTIONS.get(k, 0) <= MAX_FUNCTION_LINES]
+    assert not fixed, f"no longer over the limit, remove from the list: {fixed}"
+
+
+def test_no_new_long_module():
+    long = {k: n for k, n in MODULES.items() if n > MAX_MODULE_LINES}
+    assert set(long) <= set(LONG_MODULES), long
+
+
+def test_the_list_of_long_modules_only_shrinks():
+    fixed = [k for k in LONG_MODULES if MODULES.get(k, 0) <= MAX_MODULE_LINES]
+    assert not fixed, f"no longer over the limit, remove from the list: {fixed}"
