@@ -10,6 +10,7 @@ derived from the families' input schemas. Every problem names its key path, for 
 
 from __future__ import annotations
 
+import copy
 import hashlib
 import tomllib
 from dataclasses import dataclass, field
@@ -50,14 +51,13 @@ class Project:
         Design temperatures of [design]. [degC]
     materials : MaterialLibrary
         The library with the project's own materials. [-]
-    constructions : list of ConstructionEntry
-        Constructions, in file order. [-]
     user_materials : list of Material
         The project's own materials. [-]
-    fins : list of FinEntry
-        Fins, in file order. [-]
-    building : BuildingInput or None
-        Rooms and building of the heat-loss family. [-]
+    entries : dict
+        Family name -> the family's entries (see :data:`heatledger.families.FAMILIES`); each
+        is also an attribute named as the family declares: ``constructions`` (list of
+        ConstructionEntry), ``fins`` (list of FinEntry), ``building`` (BuildingInput or
+        None). [-]
     raw : dict
         The project data as read. [-]
     source_bytes : bytes
@@ -72,15 +72,20 @@ class Project:
     temp_inside: float
     temp_outside: float
     materials: MaterialLibrary
-    constructions: list
     user_materials: list = field(default_factory=list)
-    fins: list = field(default_factory=list)
-    building: object = None
+    entries: dict = field(default_factory=dict)
     raw: dict = field(default_factory=dict)
     source_bytes: bytes = b""
     source_name: str = ""
     #: Input that is probably a slip, as ``(key path, message)``: shown beside the results.
     warnings: list = field(default_factory=list)
+
+    def __getattr__(self, name: str):
+        """A family's entries by the attribute name it declares (``project.fins``). [-]"""
+        for fam in FAMILIES:
+            if fam.attribute == name:
+                return self.__dict__.get("entries", {}).get(fam.name, fam.empty)
+        raise AttributeError(f"{type(self).__name__!r} object has no attribute {name!r}")
 
     @property
     def sha256(self) -> str:
@@ -180,7 +185,7 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
         if any(key in data for key in fam.sections):
             context.entries[fam.name] = fam.load("parse")(data, context, problems)
         else:
-            context.entries[fam.name] = fam.empty
+            context.entries[fam.name] = copy.copy(fam.empty)
     if problems:
         raise ProjectError(problems, source=source_name)
     warnings = [w for fam in FAMILIES
@@ -188,7 +193,7 @@ def project_from_dict(data: dict, *, source_bytes: bytes = b"", source_name: str
     return Project(info=info, temp_inside=t_i, temp_outside=t_e, materials=library,
                    user_materials=user_materials, raw=data, source_bytes=source_bytes,
                    source_name=source_name, warnings=warnings,
-                   **{fam.attribute: context.entries[fam.name] for fam in FAMILIES})
+                   entries=dict(context.entries))
 
 
 def _family_warnings(fam, entries) -> list:
