@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass, field
+from types import SimpleNamespace
 
 from .. import cautions as _cautions
 from ..families import FAMILIES
@@ -217,6 +218,19 @@ def _entry_raw(project, entry) -> dict:
 
 
 def _cover(sheet, project, summary_cells, audit) -> None:
+    st = SimpleNamespace(sheet=sheet, project=project, summary_cells=summary_cells, audit=audit)
+    _cover_setup(st)
+    _cover_record(st)
+    _cover_checks(st)
+    _cover_methods(st)
+    _cover_how_to_read(st)
+
+
+def _cover_setup(st) -> None:
+    """Setup."""
+    audit = st.audit
+    project = st.project
+    sheet = st.sheet
     tolerance = audit.tolerance
     info = project.info
     b = sheet.block("cover")
@@ -238,6 +252,19 @@ def _cover(sheet, project, summary_cells, audit) -> None:
     b.put(f"B{r}", "Design temperature outside [degC]")
     b.put(f"C{r}", float(project.temp_outside), role="input", number_format="0.0")
     r += 2
+    st.b = b
+    st.r = r
+    st.tolerance = tolerance
+
+
+def _cover_record(st) -> None:
+    """Record."""
+    b = st.b
+    project = st.project
+    r = st.r
+    sheet = st.sheet
+    tolerance = st.tolerance
+    # ---- record --------------------------------------------------------------------------
     b.put(f"B{r}", "Record", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
@@ -252,6 +279,18 @@ def _cover(sheet, project, summary_cells, audit) -> None:
             b.put(f"C{r}", value, style="hl text")
         r += 1
     r += 1
+    st.r = r
+
+
+def _cover_checks(st) -> None:
+    """Checks."""
+    audit = st.audit
+    b = st.b
+    project = st.project
+    r = st.r
+    sheet = st.sheet
+    summary_cells = st.summary_cells
+    # ---- checks --------------------------------------------------------------------------
     b.put(f"B{r}", "Checks (formula against engine, after recalculation)", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
@@ -275,6 +314,16 @@ def _cover(sheet, project, summary_cells, audit) -> None:
     b.put(f"C{r}", text, style="hl paragraph")
     sheet.merges.append(f"C{r}:D{r}")
     r = _input_warnings(b, sheet, project, r + 2)
+    st.r = r
+
+
+def _cover_methods(st) -> None:
+    """Methods."""
+    b = st.b
+    project = st.project
+    r = st.r
+    sheet = st.sheet
+    # ---- methods -------------------------------------------------------------------------
     b.put(f"B{r}", "Methods and standards applied", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
@@ -295,6 +344,15 @@ def _cover(sheet, project, summary_cells, audit) -> None:
         sheet.row_heights[r] = _height(text, 78)
         r += 1
     r += 1
+    st.r = r
+
+
+def _cover_how_to_read(st) -> None:
+    """How to read."""
+    b = st.b
+    r = st.r
+    sheet = st.sheet
+    # ---- how to read ---------------------------------------------------------------------
     b.put(f"B{r}", "How to read this workbook", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
