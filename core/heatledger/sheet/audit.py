@@ -227,7 +227,7 @@ def _cover(sheet, project, summary_cells, audit) -> None:
 
 
 def _cover_setup(st) -> None:
-    """Setup."""
+    """The inputs and first rows of this part of the sheet."""
     audit = st.audit
     project = st.project
     sheet = st.sheet
@@ -258,7 +258,7 @@ def _cover_setup(st) -> None:
 
 
 def _cover_record(st) -> None:
-    """Record."""
+    """The record: tool, input file, its hash, the tolerance."""
     b = st.b
     project = st.project
     r = st.r
@@ -283,7 +283,7 @@ def _cover_record(st) -> None:
 
 
 def _cover_checks(st) -> None:
-    """Checks."""
+    """The check counts and where the checks are."""
     audit = st.audit
     b = st.b
     project = st.project
@@ -318,7 +318,7 @@ def _cover_checks(st) -> None:
 
 
 def _cover_methods(st) -> None:
-    """Methods."""
+    """The methods, standards and cautions applied."""
     b = st.b
     project = st.project
     r = st.r
@@ -348,7 +348,7 @@ def _cover_methods(st) -> None:
 
 
 def _cover_how_to_read(st) -> None:
-    """How to read."""
+    """How to read the workbook."""
     b = st.b
     r = st.r
     sheet = st.sheet

@@ -31,6 +31,7 @@ M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, 1964, eq. 9.6
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from types import SimpleNamespace
 
 from .. import cautions as _cautions
 from ..fins.annular import AnnularFin
@@ -178,6 +179,20 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
     -------
     FinRefs
     """
+    st = SimpleNamespace(
+        plan=plan, sheet_name=sheet_name, entry=entry, tolerance=tolerance,
+        project_name=project_name)
+    _fin_setup(st)
+    return _fin_inputs(st)
+
+
+def _fin_setup(st) -> None:
+    """The inputs and first rows of this part of the sheet."""
+    entry = st.entry
+    plan = st.plan
+    project_name = st.project_name
+    sheet_name = st.sheet_name
+    tolerance = st.tolerance
     fin = entry.fin
     res = entry.evaluate()
     sheet = add_calculation_sheet(plan, sheet_name, COLUMN_WIDTHS,
@@ -218,7 +233,23 @@ def add_fin_sheet(plan: WorkbookPlan, sheet_name: str, entry, *,
         w.put(2, "Notes")
         w.put(3, entry.notes, style="hl text")
     w.row = HEADER_ROWS
+    st.fin = fin
+    st.r = r
+    st.res = res
+    st.sheet = sheet
+    st.w = w
 
+
+def _fin_inputs(st) -> object:
+    """The inputs of the fin and the sections that follow them."""
+    entry = st.entry
+    fin = st.fin
+    r = st.r
+    res = st.res
+    sheet = st.sheet
+    sheet_name = st.sheet_name
+    w = st.w
+    # ---- inputs --------------------------------------------------------------------------
     w.start("inputs", "Inputs")
     mat = entry.material
     r["k"] = w.value_row("λ, thermal conductivity of the fin [W/(m K)]",

@@ -15,6 +15,7 @@ Sources: K_n by its integral form [source: abramowitz-stegun, 9.6.24].
 from __future__ import annotations
 
 import math
+from types import SimpleNamespace
 
 from ..fins.annular import AnnularFin
 from .plan import col_letter
@@ -237,6 +238,16 @@ def _profile_ratio(fin, r, xt: str) -> str:
 
 
 def _annular(w, r, fin, res, entry):
+    st = SimpleNamespace(w=w, r=r, fin=fin, res=res, entry=entry)
+    _ann_setup(st)
+    _ann_results(st)
+
+
+def _ann_setup(st) -> None:
+    """The inputs and first rows of this part of the sheet."""
+    fin = st.fin
+    r = st.r
+    w = st.w
     d1 = w.value_row("D_1, tube outside diameter (fin root) [mm]",
                      value=fin.inner_radius * 2000.0, fmt="0.000")
     d2 = w.value_row("D_2, fin outside diameter [mm]", value=fin.outer_radius * 2000.0, fmt="0.000")
@@ -287,6 +298,29 @@ def _annular(w, r, fin, res, entry):
     r["A"] = w.value_row("A = b/(b I0(x_1) − a K0(x_1)) [-]", formula=f"={bb}/{den}", fmt=F_E,
                          note="θ(r_1) = θ_b and λ θ'(r_2c) + h_rim θ(r_2c) = 0")
     r["B"] = w.value_row("B = −a/(b I0(x_1) − a K0(x_1)) [-]", formula=f"=-{a}/{den}", fmt=F_E)
+    st.b = b
+    st.exact_rim = exact_rim
+    st.k = k
+    st.m = m
+    st.nodes = nodes
+    st.x1 = x1
+    st.x2 = x2
+
+
+def _ann_results(st) -> None:
+    """The results of the part with their checks."""
+    b = st.b
+    exact_rim = st.exact_rim
+    fin = st.fin
+    k = st.k
+    m = st.m
+    nodes = st.nodes
+    r = st.r
+    res = st.res
+    w = st.w
+    x1 = st.x1
+    x2 = st.x2
+    # ---- results -------------------------------------------------------------------------
     w.start("results", "Heat rate, efficiency, effectiveness, resistance")
     pi2 = "2*PI()"
     r["Ac"] = w.value_row("A_c,b = 2π r_1 t [m2]", formula=f"={pi2}*{r['r1']}*{r['t']}",

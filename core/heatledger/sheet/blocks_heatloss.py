@@ -240,6 +240,14 @@ def _room_setup(st) -> None:
 
 def _room_elements(st) -> None:
     """One row per element and thermal bridge: U, factor, H and share with their checks."""
+    _elem_setup(st)
+    _elem_element_table(st)
+    _elem_ventilation_row(st)
+    _elem_reheat_row(st)
+
+
+def _elem_setup(st) -> None:
+    """The inputs and first rows of this part of the sheet."""
     area_refs = st.area_refs
     bref = st.bref
     building = st.building
@@ -249,6 +257,29 @@ def _room_elements(st) -> None:
     rres = st.rres
     u_refs = st.u_refs
     vent = st.vent
+    w = st.w
+    st.area_refs = area_refs
+    st.bref = bref
+    st.building = building
+    st.crefs = crefs
+    st.room = room
+    st.room_sheet = room_sheet
+    st.rres = rres
+    st.u_refs = u_refs
+    st.vent = vent
+    st.w = w
+
+
+def _elem_element_table(st) -> None:
+    """One row per element and thermal bridge with U, factor, H and share."""
+    area_refs = st.area_refs
+    bref = st.bref
+    building = st.building
+    crefs = st.crefs
+    room = st.room
+    room_sheet = st.room_sheet
+    rres = st.rres
+    u_refs = st.u_refs
     w = st.w
     # ---- element table -------------------------------------------------------------------
     w.start("elements", "Elements, thermal bridges, ventilation and heating-up (EN 12831-1, "
@@ -292,6 +323,23 @@ def _room_elements(st) -> None:
         _share_cells(w, r, total_ref, line)
         w.put(18, 1 if line.internal else 0, role="engine", fmt="0")
         w.put(19, f"{line.factor_rule}; U from {line.source}", role="note", style=NOTE_STYLE)
+    st.first = first
+    st.last_trans = last_trans
+    st.n_trans = n_trans
+    st.reheat_row = reheat_row
+    st.total_ref = total_ref
+    st.vent_row = vent_row
+
+
+def _elem_ventilation_row(st) -> None:
+    """The ventilation row of the room."""
+    n_trans = st.n_trans
+    rres = st.rres
+    total_ref = st.total_ref
+    vent = st.vent
+    vent_row = st.vent_row
+    w = st.w
+    # ---- ventilation row -----------------------------------------------------------------
     # ventilation row
     vline, rline = rres.lines[n_trans], rres.lines[n_trans + 1]
     r = w.row = vent_row
@@ -310,6 +358,21 @@ def _room_elements(st) -> None:
     w.put(18, 0, role="engine", fmt="0")
     w.put(19, "H_V = V_eff ρ c_p / 3600 (quantity V_eff, transmittance ρ c_p/3600)", role="note",
           style=NOTE_STYLE)
+    st.rline = rline
+
+
+def _elem_reheat_row(st) -> None:
+    """The heating-up row of the room."""
+    first = st.first
+    last_trans = st.last_trans
+    n_trans = st.n_trans
+    reheat_row = st.reheat_row
+    rline = st.rline
+    room = st.room
+    total_ref = st.total_ref
+    vent_row = st.vent_row
+    w = st.w
+    # ---- reheat row ----------------------------------------------------------------------
     # reheat row
     r = w.row = reheat_row
     w.put(1, n_trans + 2)

@@ -30,10 +30,32 @@ __all__ = []
 
 def _corrections(st) -> None:
     """Corrections to U (Annex F) and the U-value reported."""
+    _corrections_setup(st)
+    _correction_rows(st)
+    _u_value_rows(st)
+
+
+def _corrections_setup(st) -> None:
+    """The inputs and first rows of this part of the sheet."""
     con = st.con
     layer_cells = st.layer_cells
     r_total = st.r_total
     target_ref = st.target_ref
+    u0 = st.u0
+    w = st.w
+    st.con = con
+    st.layer_cells = layer_cells
+    st.r_total = r_total
+    st.target_ref = target_ref
+    st.u0 = u0
+    st.w = w
+
+
+def _correction_rows(st) -> None:
+    """Corrections."""
+    con = st.con
+    layer_cells = st.layer_cells
+    r_total = st.r_total
     u0 = st.u0
     w = st.w
     # ---- corrections ---------------------------------------------------------------------
@@ -105,6 +127,19 @@ def _corrections(st) -> None:
         engine=1.0 if corr.applied else 0.0, fmt="0",
         note="Annex F: not applied when Σ ΔU < 3 % of U")
     w.row += 1
+    st.applied = applied
+    st.du_sum = du_sum
+
+
+def _u_value_rows(st) -> None:
+    """The U-value with its corrections and the U reported."""
+    applied = st.applied
+    con = st.con
+    du_sum = st.du_sum
+    target_ref = st.target_ref
+    u0 = st.u0
+    w = st.w
+    # ---- u value -------------------------------------------------------------------------
     w.start("u_value", "U-value")
     u_val = w.value_row("U = U + ΔU (when applied) [W/(m2 K)]",
                         formula=f"={u0}+{applied}*{du_sum}", engine=con.u_value, fmt=FMT_U)
@@ -189,6 +224,14 @@ def _chart_space(st) -> None:
 
 def _nodal_table(st) -> None:
     """The finite-volume nodal table: coefficients, Thomas algorithm, engine check."""
+    _nodal_setup(st)
+    _nodal_heading(st)
+    _nodal_rows(st)
+    _nodal_checks(st)
+
+
+def _nodal_setup(st) -> None:
+    """The inputs and first rows of this part of the sheet."""
     con = st.con
     layer_row = st.layer_row
     r_total = st.r_total
@@ -197,6 +240,24 @@ def _nodal_table(st) -> None:
     te = st.te
     temps = st.temps
     ti = st.ti
+    w = st.w
+    st.con = con
+    st.layer_row = layer_row
+    st.r_total = r_total
+    st.rse_used_ref = rse_used_ref
+    st.rsi = rsi
+    st.te = te
+    st.temps = temps
+    st.ti = ti
+    st.w = w
+
+
+def _nodal_heading(st) -> None:
+    """Finite volume nodal table."""
+    layer_row = st.layer_row
+    rse_used_ref = st.rse_used_ref
+    rsi = st.rsi
+    temps = st.temps
     w = st.w
     # ---- finite-volume nodal table -------------------------------------------------------
     w.start("fv", "Finite-volume nodal temperatures (cell-centred, Patankar 1980 ch. 4)")
@@ -223,6 +284,29 @@ def _nodal_table(st) -> None:
     w.headers(FV_COLUMNS)
     assert w.row == node0, (w.row, node0)
     layer_rows_of_nodes = [layer_row[int(i)] for i in temps.layer_of_node]
+    st.fv = fv
+    st.g_left = g_left
+    st.g_right = g_right
+    st.layer_rows_of_nodes = layer_rows_of_nodes
+    st.n = n
+    st.node0 = node0
+    st.nodeN = nodeN
+
+
+def _nodal_rows(st) -> None:
+    """One row per cell: coefficients, the Thomas algorithm and the checks."""
+    fv = st.fv
+    g_left = st.g_left
+    g_right = st.g_right
+    layer_rows_of_nodes = st.layer_rows_of_nodes
+    n = st.n
+    node0 = st.node0
+    nodeN = st.nodeN
+    te = st.te
+    temps = st.temps
+    ti = st.ti
+    w = st.w
+    # ---- nodal rows ----------------------------------------------------------------------
     for i in range(n):
         rr = w.row
         lr = layer_rows_of_nodes[i]
@@ -274,6 +358,19 @@ def _nodal_table(st) -> None:
     w.value_row("heat flux through the outside surface q = G_e (T_N − θe) [W/m2]",
                 formula=f"={g_right}*(M{nodeN}-{te})", engine=temps.heat_flux_outside,
                 fmt="0.0000")
+
+
+def _nodal_checks(st) -> None:
+    """The solution record and the sheet's warnings."""
+    con = st.con
+    node0 = st.node0
+    nodeN = st.nodeN
+    r_total = st.r_total
+    te = st.te
+    temps = st.temps
+    ti = st.ti
+    w = st.w
+    # ---- nodal checks --------------------------------------------------------------------
     if temps.ladder_heat_flux is not None:
         w.value_row("independent check: ladder heat flux q = (θi − θe)/R_T [W/m2]",
                     formula=f"=({ti}-{te})/{r_total}", engine=temps.heat_flux, fmt="0.0000",

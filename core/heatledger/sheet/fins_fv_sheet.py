@@ -5,6 +5,7 @@ algorithm as live formulas and the engine check.
 from __future__ import annotations
 
 import math
+from types import SimpleNamespace
 
 from .._constants import STEFAN_BOLTZMANN as Stefan_Boltzmann
 from .._constants import ZERO_CELSIUS as zero_Celsius
@@ -27,6 +28,19 @@ FV_COLUMNS = ["Cell", "x [mm]", "A [m2]", "P [m]", "G east [W/K]", "a_W [W/K]", 
 
 # --------------------------------------------------------------------------- finite volumes
 def _fv(w, r, fin, entry):
+    state = SimpleNamespace(w=w, r=r, fin=fin, entry=entry)
+    _fvs_setup(state)
+    _fvs_tip_and_table_heading(state)
+    _fvs_nodal_rows(state)
+    return _fvs_results(state)
+
+
+def _fvs_setup(state) -> None:
+    """The settings and the mesh of the finite volumes."""
+    entry = state.entry
+    fin = state.fin
+    r = state.r
+    w = state.w
     fv = entry.finite_volume()
     sol = fv.solution
     st = fv.settings
@@ -68,6 +82,40 @@ def _fv(w, r, fin, entry):
                      fmt=F_E, note="fixed base temperature, half a cell away")
     tip = st["tip"]
     half = f"{dx}/(2*{k}*C{node_n})"
+    state.annular = annular
+    state.dx = dx
+    state.fv = fv
+    state.g0 = g0
+    state.h = h
+    state.half = half
+    state.k = k
+    state.n = n
+    state.node0 = node0
+    state.node_n = node_n
+    state.nonlinear = nonlinear
+    state.sig = sig
+    state.sol = sol
+    state.st = st
+    state.tinf = tinf
+    state.tip = tip
+
+
+def _fvs_tip_and_table_heading(state) -> None:
+    """The tip condition and the heading of the nodal table."""
+    annular = state.annular
+    dx = state.dx
+    h = state.h
+    half = state.half
+    k = state.k
+    node0 = state.node0
+    node_n = state.node_n
+    nonlinear = state.nonlinear
+    r = state.r
+    st = state.st
+    tinf = state.tinf
+    tip = state.tip
+    w = state.w
+    # ---- tip and table heading -----------------------------------------------------------
     if tip == "adiabatic":
         gl, t_r = "0", tinf
         w.stated("tip: adiabatic, no conductance", "0")
@@ -92,6 +140,34 @@ def _fv(w, r, fin, entry):
     w.headers(FV_COLUMNS)
     assert w.row == node0, (w.row, node0)
     t_sur = st["temp_surroundings"]
+    state.gl = gl
+    state.t_r = t_r
+    state.t_sur = t_sur
+
+
+def _fvs_nodal_rows(state) -> None:
+    """One row per cell: coefficients, the Thomas algorithm and the checks."""
+    annular = state.annular
+    dx = state.dx
+    entry = state.entry
+    fin = state.fin
+    fv = state.fv
+    g0 = state.g0
+    gl = state.gl
+    h = state.h
+    k = state.k
+    n = state.n
+    node0 = state.node0
+    node_n = state.node_n
+    nonlinear = state.nonlinear
+    r = state.r
+    sig = state.sig
+    sol = state.sol
+    t_r = state.t_r
+    t_sur = state.t_sur
+    tinf = state.tinf
+    w = state.w
+    # ---- nodal rows ----------------------------------------------------------------------
     for i in range(n):
         rr = w.row
         first, last = i == 0, i == n - 1
@@ -144,6 +220,23 @@ def _fv(w, r, fin, entry):
     w.value_row("loss from the fin's side Σ loss [W]", formula=f"=SUM(V{node0}:V{node_n})",
                 engine=fv.heat_loss_surface, note="non-linear laws at the final temperatures"
                 if nonlinear else "Σ h P dx (T_i − T_inf)")
+    state.q_fv = q_fv
+
+
+def _fvs_results(state) -> object:
+    """The heat rate, tip temperature and the solution record with their checks."""
+    fv = state.fv
+    gl = state.gl
+    half = state.half
+    node0 = state.node0
+    node_n = state.node_n
+    nonlinear = state.nonlinear
+    q_fv = state.q_fv
+    r = state.r
+    t_r = state.t_r
+    tip = state.tip
+    w = state.w
+    # ---- results -------------------------------------------------------------------------
     if not nonlinear or tip == "adiabatic":
         face = (f"=N{node_n}" if tip == "adiabatic" else
                 f"=N{node_n}-{gl}*(N{node_n}-{t_r})*{half}")
