@@ -3,6 +3,8 @@
 
 from __future__ import annotations
 
+from types import SimpleNamespace
+
 from ..ground.soil import RSE_GROUND, RSI_FLOOR
 from ..heatloss import AIR_DENSITY, AIR_SPECIFIC_HEAT
 from .heatloss_layout import (
@@ -42,6 +44,8 @@ def _window_rows(w, el):
 
 
 def _ground_rows(w, el, crefs, constructions):
+    """The rows of a ground element (EN ISO 13370): the inputs every method shares, then
+    the method's own rows; returns the cells of U and of the area."""
     g = el.u
     res = g.result
     w.put(2, f"{g.method_key.replace('_', ' ')}: {el.name}", style="hl label")
@@ -56,75 +60,101 @@ def _ground_rows(w, el, crefs, constructions):
     rse = w.value_row("R_se [m2 K/W]", value=RSE_GROUND, fmt="0.00")
     b = w.value_row("B' = A/(0.5 P) [m]", formula=f"={a}/(0.5*{p})",
                     engine=res.characteristic_dimension, fmt="0.0000")
-    key = g.method_key
-    if key in ("slab_on_ground", "heated_basement"):
-        rf = _resistance_row(w, "R_f floor construction", g.inputs["rf"], g.construction,
-                             crefs, constructions)
-        dt_engine = res.equivalent_thickness if key == "slab_on_ground" else \
-            res.floor_equivalent_thickness
-        dt = w.value_row("d_t = w + λ (R_si + R_f + R_se) [m]",
-                         formula=f"={wt}+{lam}*({rsi}+{rf}+{rse})", engine=dt_engine,
-                         fmt="0.0000")
-    if key == "slab_on_ground":
-        u0 = w.value_row(
-            "U_0: d_t < B' → 2λ/(πB' + d_t) ln(πB'/d_t + 1); else λ/(0.457 B' + d_t) "
-            "[W/(m2 K)]",
-            formula=_floor_u_formula(lam, b, dt),
-            engine=res.u_without_edge, fmt=FMT_U, note=f"regime here: {res.regime}")
-        edge = res.edge_insulation
-        if edge is not None:
-            dd = w.value_row("D edge insulation width (horizontal) or depth (vertical) [m]",
-                             value=float(edge.extent), fmt="0.000")
-            k = w.value_row("orientation factor: 1 horizontal, 2 vertical [-]",
-                            value=1.0 if edge.orientation == "horizontal" else 2.0, fmt="0")
-            rn = w.value_row("R_n edge insulation [m2 K/W]", value=float(edge.resistance),
-                             fmt="0.000")
-            dn = w.value_row("d_n edge insulation thickness [m]", value=float(edge.thickness),
-                             fmt="0.000")
-            rx = w.value_row("R' = R_n − d_n/λ [m2 K/W]", formula=f"={rn}-{dn}/{lam}",
-                             engine=res.edge_extra_resistance, fmt="0.0000")
-            dx = w.value_row("d' = R' λ [m]", formula=f"={rx}*{lam}",
-                             engine=res.edge_extra_thickness, fmt="0.0000")
-            psi = w.value_row(
-                "ψ_ge = −(λ/π)[ln(kD/d_t + 1) − ln(kD/(d_t + d') + 1)] [W/(m K)]",
-                formula=(f"=-({lam}/PI())*(LN({k}*{dd}/{dt}+1)-LN({k}*{dd}/({dt}+{dx})+1))"),
-                engine=res.psi_edge, fmt="0.00000", note="EN ISO 13370 Annex B [M]")
-            u = w.value_row("U = U_0 + 2 ψ_ge/B' [W/(m2 K)]", formula=f"={u0}+2*{psi}/{b}",
-                            engine=res.u_value, fmt=FMT_U)
-        else:
-            u = w.value_row("U = U_0 (no edge insulation) [W/(m2 K)]", formula=f"={u0}",
-                            engine=res.u_value, fmt=FMT_U)
-        return u, a
-    if key == "suspended_floor":
-        rd = _resistance_row(w, "R_deck suspended deck", res.deck_resistance, g.construction,
-                             crefs, constructions)
-        h = w.value_row("h deck height above outside ground [m]",
-                        value=g.inputs["h"], fmt="0.000")
-        uw = w.value_row("U_w walls of the underfloor space [W/(m2 K)]",
-                         value=g.inputs["uw"], fmt=FMT_U)
-        eps = w.value_row("ε vent area per perimeter [m2/m]",
-                          value=g.inputs["eps"], fmt="0.0000")
-        v = w.value_row("v wind speed at 10 m [m/s]", value=g.inputs["v"],
-                        fmt="0.00")
-        fw = w.value_row("f_w wind shielding factor [-]", value=float(res.wind_shielding_factor),
-                         fmt="0.00")
-        rg = w.value_row("R_g insulation on the underfloor ground [m2 K/W]",
-                         value=g.inputs["rg"], fmt="0.000")
-        uf = w.value_row("U_f = 1/(R_si + R_deck + R_si) [W/(m2 K)]",
-                         formula=f"=1/({rsi}+{rd}+{rsi})", engine=res.deck_u, fmt=FMT_U)
-        dg = w.value_row("d_g = w + λ (R_si + R_g + R_se) [m]",
-                         formula=f"={wt}+{lam}*({rsi}+{rg}+{rse})",
-                         engine=res.ground_equivalent_thickness, fmt="0.0000")
-        ug = w.value_row("U_g = 2λ/(πB' + d_g) ln(πB'/d_g + 1) [W/(m2 K)]",
-                         formula=f"=2*{lam}/(PI()*{b}+{dg})*LN(PI()*{b}/{dg}+1)",
-                         engine=res.ground_u, fmt=FMT_U)
-        ux = w.value_row("U_x = 2 h U_w/B' + 1450 ε v f_w/B' [W/(m2 K)]",
-                         formula=f"=2*{h}*{uw}/{b}+1450*{eps}*{v}*{fw}/{b}",
-                         engine=res.exchange_u, fmt=FMT_U)
-        u = w.value_row("U = 1/(1/U_f + 1/(U_g + U_x)) [W/(m2 K)]",
-                        formula=f"=1/(1/{uf}+1/({ug}+{ux}))", engine=res.u_value, fmt=FMT_U)
-        return u, a
-    # heated basement
+    c = SimpleNamespace(w=w, g=g, res=res, a=a, p=p, wt=wt, lam=lam, rsi=rsi, rse=rse, b=b,
+                        crefs=crefs, constructions=constructions)
+    rows = {"slab_on_ground": _slab_rows, "suspended_floor": _suspended_rows,
+            "heated_basement": _basement_rows}
+    return rows[g.method_key](c)
+
+
+def _floor_dt(c) -> tuple:
+    """R_f of the floor and the equivalent thickness d_t (slab and basement floors)."""
+    w, g, res, wt = c.w, c.g, c.res, c.wt
+    lam, rsi, rse, crefs, constructions = c.lam, c.rsi, c.rse, c.crefs, c.constructions
+    rf = _resistance_row(w, "R_f floor construction", g.inputs["rf"], g.construction,
+                         crefs, constructions)
+    dt_engine = res.equivalent_thickness if g.method_key == "slab_on_ground" else \
+        res.floor_equivalent_thickness
+    dt = w.value_row("d_t = w + λ (R_si + R_f + R_se) [m]",
+                     formula=f"={wt}+{lam}*({rsi}+{rf}+{rse})", engine=dt_engine,
+                     fmt="0.0000")
+    return rf, dt
+
+
+def _slab_rows(c) -> tuple:
+    """Slab on ground (8.2) with edge insulation (Annex B); returns the U and area cells."""
+    w, res, a, lam, b = c.w, c.res, c.a, c.lam, c.b
+    rf, dt = _floor_dt(c)
+    u0 = w.value_row(
+        "U_0: d_t < B' → 2λ/(πB' + d_t) ln(πB'/d_t + 1); else λ/(0.457 B' + d_t) "
+        "[W/(m2 K)]",
+        formula=_floor_u_formula(lam, b, dt),
+        engine=res.u_without_edge, fmt=FMT_U, note=f"regime here: {res.regime}")
+    edge = res.edge_insulation
+    if edge is not None:
+        dd = w.value_row("D edge insulation width (horizontal) or depth (vertical) [m]",
+                         value=float(edge.extent), fmt="0.000")
+        k = w.value_row("orientation factor: 1 horizontal, 2 vertical [-]",
+                        value=1.0 if edge.orientation == "horizontal" else 2.0, fmt="0")
+        rn = w.value_row("R_n edge insulation [m2 K/W]", value=float(edge.resistance),
+                         fmt="0.000")
+        dn = w.value_row("d_n edge insulation thickness [m]", value=float(edge.thickness),
+                         fmt="0.000")
+        rx = w.value_row("R' = R_n − d_n/λ [m2 K/W]", formula=f"={rn}-{dn}/{lam}",
+                         engine=res.edge_extra_resistance, fmt="0.0000")
+        dx = w.value_row("d' = R' λ [m]", formula=f"={rx}*{lam}",
+                         engine=res.edge_extra_thickness, fmt="0.0000")
+        psi = w.value_row(
+            "ψ_ge = −(λ/π)[ln(kD/d_t + 1) − ln(kD/(d_t + d') + 1)] [W/(m K)]",
+            formula=(f"=-({lam}/PI())*(LN({k}*{dd}/{dt}+1)-LN({k}*{dd}/({dt}+{dx})+1))"),
+            engine=res.psi_edge, fmt="0.00000", note="EN ISO 13370 Annex B [M]")
+        u = w.value_row("U = U_0 + 2 ψ_ge/B' [W/(m2 K)]", formula=f"={u0}+2*{psi}/{b}",
+                        engine=res.u_value, fmt=FMT_U)
+    else:
+        u = w.value_row("U = U_0 (no edge insulation) [W/(m2 K)]", formula=f"={u0}",
+                        engine=res.u_value, fmt=FMT_U)
+    return u, a
+
+
+def _suspended_rows(c) -> tuple:
+    """Suspended floor (8.3); returns the U and area cells."""
+    w, g, res, a, wt = c.w, c.g, c.res, c.a, c.wt
+    lam, rsi, rse, b, crefs, constructions = c.lam, c.rsi, c.rse, c.b, c.crefs, c.constructions
+    rd = _resistance_row(w, "R_deck suspended deck", res.deck_resistance, g.construction,
+                         crefs, constructions)
+    h = w.value_row("h deck height above outside ground [m]",
+                    value=g.inputs["h"], fmt="0.000")
+    uw = w.value_row("U_w walls of the underfloor space [W/(m2 K)]",
+                     value=g.inputs["uw"], fmt=FMT_U)
+    eps = w.value_row("ε vent area per perimeter [m2/m]",
+                      value=g.inputs["eps"], fmt="0.0000")
+    v = w.value_row("v wind speed at 10 m [m/s]", value=g.inputs["v"],
+                    fmt="0.00")
+    fw = w.value_row("f_w wind shielding factor [-]", value=float(res.wind_shielding_factor),
+                     fmt="0.00")
+    rg = w.value_row("R_g insulation on the underfloor ground [m2 K/W]",
+                     value=g.inputs["rg"], fmt="0.000")
+    uf = w.value_row("U_f = 1/(R_si + R_deck + R_si) [W/(m2 K)]",
+                     formula=f"=1/({rsi}+{rd}+{rsi})", engine=res.deck_u, fmt=FMT_U)
+    dg = w.value_row("d_g = w + λ (R_si + R_g + R_se) [m]",
+                     formula=f"={wt}+{lam}*({rsi}+{rg}+{rse})",
+                     engine=res.ground_equivalent_thickness, fmt="0.0000")
+    ug = w.value_row("U_g = 2λ/(πB' + d_g) ln(πB'/d_g + 1) [W/(m2 K)]",
+                     formula=f"=2*{lam}/(PI()*{b}+{dg})*LN(PI()*{b}/{dg}+1)",
+                     engine=res.ground_u, fmt=FMT_U)
+    ux = w.value_row("U_x = 2 h U_w/B' + 1450 ε v f_w/B' [W/(m2 K)]",
+                     formula=f"=2*{h}*{uw}/{b}+1450*{eps}*{v}*{fw}/{b}",
+                     engine=res.exchange_u, fmt=FMT_U)
+    u = w.value_row("U = 1/(1/U_f + 1/(U_g + U_x)) [W/(m2 K)]",
+                    formula=f"=1/(1/{uf}+1/({ug}+{ux}))", engine=res.u_value, fmt=FMT_U)
+    return u, a
+
+
+def _basement_rows(c) -> tuple:
+    """Heated basement (8.4); returns the U and area cells."""
+    w, g, res, a, p = c.w, c.g, c.res, c.a, c.p
+    lam, rse, b, crefs, constructions = c.lam, c.rse, c.b, c.crefs, c.constructions
+    rf, dt = _floor_dt(c)
     z = w.value_row("z depth of the basement floor below ground [m]", value=float(res.depth),
                     fmt="0.000")
     rw = _resistance_row(w, "R_w basement wall", g.inputs["rw"], g.wall_construction,
@@ -151,6 +181,7 @@ def _ground_rows(w, el, crefs, constructions):
     area = w.value_row("element area A + z P [m2]", formula=f"={a}+{z}*{p}", engine=g.area,
                        fmt="0.00")
     return u, area
+
 
 
 def _floor_u_formula(lam, b, d) -> str:
