@@ -221,24 +221,7 @@ def window(
     _check_perimeter("glazing_perimeter", lg, "glazing_area", ag, shape)
     _check_perimeter("panel_perimeter", lp, "panel_area", ap, shape)
     if window_area is not None:
-        aw = _area_array("window_area", window_area)
-        too_big = af > aw
-        if np.any(too_big):
-            i = int(np.argmax(np.broadcast_to(too_big, np.broadcast(af, aw).shape).ravel()))
-            af, aw = np.broadcast_arrays(af, aw)
-            raise HeatLedgerError(
-                f"frame_area must not be larger than the window area; got frame_area "
-                f"{_pick(af, i):g} m2 > window_area {_pick(aw, i):g} m2"
-            )
-        mismatch = np.abs(total - aw) > WINDOW_AREA_RTOL * aw
-        if np.any(mismatch):
-            i = int(np.argmax(np.broadcast_to(mismatch, np.broadcast(total, aw).shape).ravel()))
-            total, aw = np.broadcast_arrays(total, aw)
-            raise HeatLedgerError(
-                "glazing_area + frame_area + panel_area must equal window_area within "
-                f"{WINDOW_AREA_RTOL:.1%}; got {_pick(total, i):g} m2 against "
-                f"{_pick(aw, i):g} m2"
-            )
+        _check_window_area(window_area, af, total)
 
     t_g = ag * ug
     t_f = af * uf
@@ -269,6 +252,28 @@ def window(
         u_value=_out(uw),
         warnings=_window_warnings(ag, af, uw),
     )
+
+
+def _check_window_area(window_area, af, total) -> None:
+    """Refuse a frame larger than the stated window area, or parts that do not add up to it
+    within :data:`WINDOW_AREA_RTOL`."""
+    aw = _area_array("window_area", window_area)
+    too_big = af > aw
+    if np.any(too_big):
+        i = int(np.argmax(np.broadcast_to(too_big, np.broadcast(af, aw).shape).ravel()))
+        af, aw = np.broadcast_arrays(af, aw)
+        raise HeatLedgerError(
+            f"frame_area must not be larger than the window area; got frame_area "
+            f"{_pick(af, i):g} m2 > window_area {_pick(aw, i):g} m2"
+        )
+    mismatch = np.abs(total - aw) > WINDOW_AREA_RTOL * aw
+    if np.any(mismatch):
+        i = int(np.argmax(np.broadcast_to(mismatch, np.broadcast(total, aw).shape).ravel()))
+        total, aw = np.broadcast_arrays(total, aw)
+        raise HeatLedgerError(
+            "glazing_area + frame_area + panel_area must equal window_area within "
+            f"{WINDOW_AREA_RTOL:.1%}; got {_pick(total, i):g} m2 against {_pick(aw, i):g} m2"
+        )
 
 
 @dataclass(frozen=True)
