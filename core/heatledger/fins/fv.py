@@ -220,26 +220,10 @@ def solve_fin_fv(
     if mesh_q is not None and out["q"] != 0.0 and mesh_q.error_estimate > 0.01 * abs(out["q"]):
         warn = warn + (f"mesh estimate of the heat rate differs by "
                        f"{100 * mesh_q.error_estimate / abs(out['q']):.2g} %: use more nodes",)
-    settings = {
-        "method": "cell-centred finite volume (heatledger.fv1d.solve_conduction), uniform cells",
-        "cells": nodes,
-        "tip": tip,
-        "h_law": law[0],
-        "h_parameters": law[2],
-        "emissivity": eps,
-        "temp_surroundings": t_sur,
-        "linearisation": linearisation if out["nonlinear"] else "none (linear problem)",
-        "tolerance_K": tolerance,
-        "max_iterations": max_iterations,
-        "mesh_refinement": (f"three meshes {mesh_q.meshes}, {mesh_q.basis}" if mesh_q
-                            else "none"),
-        "temp_base": t_b,
-        "temp_fluid": t_inf,
-        "tip_temperature": t_tip_fixed if tip == "temperature" else None,
-        "length": length,
-        "conductivity": k,
-        "x_offset": float(x_offset),
-    }
+    settings = _settings(nodes, tip, law, eps, t_sur, linearisation if out["nonlinear"] else
+                         "none (linear problem)", tolerance, max_iterations, mesh_q, t_b,
+                         t_inf, t_tip_fixed if tip == "temperature" else None, length, k,
+                         x_offset)
     return FinFVResult(
         x=x, temperature=temp, heat_rate=out["q"], heat_loss_surface=out["loss_side"],
         heat_loss_tip=out["loss_tip"], tip_temperature=out["t_tip"],
@@ -249,6 +233,31 @@ def solve_fin_fv(
         converged_change=out["change"], solution=sol, settings=settings,
         warnings=warn, notes=notes,
     )
+
+
+def _settings(nodes, tip, law, eps, t_sur, linearisation, tolerance, max_iterations, mesh_q,
+              t_b, t_inf, t_tip, length, k, x_offset) -> dict:
+    """The finite-volume settings of a fin result, for the record (the sheet states them)."""
+    return {
+        "method": "cell-centred finite volume (heatledger.fv1d.solve_conduction), uniform cells",
+        "cells": nodes,
+        "tip": tip,
+        "h_law": law[0],
+        "h_parameters": law[2],
+        "emissivity": eps,
+        "temp_surroundings": t_sur,
+        "linearisation": linearisation,
+        "tolerance_K": tolerance,
+        "max_iterations": max_iterations,
+        "mesh_refinement": (f"three meshes {mesh_q.meshes}, {mesh_q.basis}" if mesh_q
+                            else "none"),
+        "temp_base": t_b,
+        "temp_fluid": t_inf,
+        "tip_temperature": t_tip,
+        "length": length,
+        "conductivity": k,
+        "x_offset": float(x_offset),
+    }
 
 
 # ----------------------------------------------------------------------------- internals
