@@ -434,19 +434,8 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
     iterations = 0
     change = math.inf
     while True:
-        if not nonlinear:
-            h_c = law[1]
-            sc, sp = h_c * p_dx * t_inf, -h_c * p_dx
-        elif linearisation == "picard":
-            h_c = _h_of(law, x, temp, t_inf)
-            sc, sp = h_c * p_dx * t_inf, -h_c * p_dx
-            if eps > 0.0:
-                tk, sk = temp + zero_Celsius, t_sur + zero_Celsius
-                h_r = eps * Stefan_Boltzmann * (tk * tk + sk * sk) * (tk + sk)
-                sc, sp = sc + h_r * p_dx * t_sur, sp - h_r * p_dx
-        else:
-            g0, g1 = _flux_and_slope(law, eps, x, temp, t_inf, t_sur)
-            sc, sp = -p_dx * (g0 - g1 * temp), -p_dx * g1
+        sc, sp = _cell_sources(law, eps, x, temp, t_inf, t_sur, p_dx,
+                               "linear" if not nonlinear else linearisation)
         system = (right_bc(t_tip), sc, sp)
         # refinement only near convergence: the iterates before are replaced anyway
         near = not nonlinear or change < REFINE_NEAR_K
@@ -475,6 +464,35 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
                                source=system[1], source_slope=system[2], refine="auto")
         temp, t_tip = sol.temperature, float(sol.face_temperature[-1])
 
+    out = _fin_balance(sol, law, eps, x, temp, t_b, t_inf, t_sur, t_tip, p_dx, tip, a_tip,
+                       length, n)
+    out.update({"iterations": iterations, "change": change, "nonlinear": nonlinear})
+    return out
+
+
+def _cell_sources(law, eps, x, temp, t_inf, t_sur, p_dx, linearisation) -> tuple:
+    """The linearised loss of each cell to the fluid (and surroundings), ``S = S_c + S_p T``
+    (Patankar 1980, 7.2): constant h; Picard (h and h_r at the last iterate); or Newton (the
+    tangent of the loss at the last iterate)."""
+    if linearisation == "linear":
+        h_c = law[1]
+        return h_c * p_dx * t_inf, -h_c * p_dx
+    if linearisation == "picard":
+        h_c = _h_of(law, x, temp, t_inf)
+        sc, sp = h_c * p_dx * t_inf, -h_c * p_dx
+        if eps > 0.0:
+            tk, sk = temp + zero_Celsius, t_sur + zero_Celsius
+            h_r = eps * Stefan_Boltzmann * (tk * tk + sk * sk) * (tk + sk)
+            sc, sp = sc + h_r * p_dx * t_sur, sp - h_r * p_dx
+        return sc, sp
+    g0, g1 = _flux_and_slope(law, eps, x, temp, t_inf, t_sur)
+    return -p_dx * (g0 - g1 * temp), -p_dx * g1
+
+
+def _fin_balance(sol, law, eps, x, temp, t_b, t_inf, t_sur, t_tip, p_dx, tip, a_tip, length,
+                 n) -> dict:
+    """The base heat rate, the losses of side and tip, the efficiency and the energy balance
+    of a converged fin solution."""
     q_base = float(sol.face_heat_rate[0])
     # numpy's pairwise sum, not np.dot: the reported heat rates must not depend on the BLAS
     # kernel's summation order (math.fsum would cost a linear solve at 100,000 cells)
@@ -497,5 +515,4 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
     scale = max(abs(q_base), abs(loss_side), abs(loss_tip), np.finfo(float).tiny)
     residual = (q_base - loss_side - loss_tip) / scale
     return {"sol": sol, "q": q_base, "loss_side": loss_side, "loss_tip": loss_tip,
-            "t_tip": t_tip, "efficiency": float(efficiency), "residual": float(residual),
-            "iterations": iterations, "change": change, "nonlinear": nonlinear}
+            "t_tip": t_tip, "efficiency": float(efficiency), "residual": float(residual)}
