@@ -47,7 +47,7 @@ if "HL_UVALUE" in globals():
     from heatledger.families import FAMILIES as _FAMILIES
 
     _family_modules = tuple(f.hooks["functions"].rpartition(".")[2] for f in _FAMILIES)
-    for _module in ("cache", "cells", "ranges", "correction_ranges") + _family_modules:
+    for _module in ("cache", "cells", "ranges", "correction_ranges", "fin_cells") + _family_modules:
         if _module != __name__.rpartition(".")[2] and f"{__package__}.{_module}" in sys.modules:
             importlib.reload(sys.modules[f"{__package__}.{_module}"])
 
