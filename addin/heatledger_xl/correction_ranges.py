@@ -25,15 +25,16 @@ least 3 % of U (Annex F); :func:`heatledger_xl.udfs.HL_CORRECTIONS` shows what i
 
 from __future__ import annotations
 
-from heatledger.construction_family.schema import CORRECTION_KINDS
+from heatledger.construction_family.schema import CORRECTION_KINDS, CORRECTION_TABLE
 from heatledger.constructions import (
     AirGapCorrection,
     FastenerCorrection,
     InvertedRoofCorrection,
 )
 from heatledger.errors import HeatLedgerError
+from heatledger.schema import check_value
 
-from .cells import ERROR_VALUES, number, text
+from .cells import ERROR_VALUES, REQUIRED, number, text
 from .cells import is_blank as _is_blank
 from .cells import unwrap_single as _unwrap_single
 from .ranges import LIBRARY, _no_booleans, check_blank_below
@@ -148,25 +149,31 @@ def _correction(where: str, cells: tuple, layer_names: list[str]):
                               + ", ".join(map(repr, CORRECTION_KINDS)) + f"; got {kind!r}")
     idx = _layer_index(where, c_layer, layer_names)
     if kind == "air_gaps":
-        level = number(f"{where} level", c3, low=0, low_inclusive=True, high=2)
-        if level not in (0.0, 1.0, 2.0):
-            raise HeatLedgerError(f"{where} level must be 0, 1 or 2; got {level:g}")
+        level = _value(where, "level", c3)
         _blank_rest(where, kind, (c4, c5, c6), 4)
-        return AirGapCorrection(idx, int(level))
+        return AirGapCorrection(idx, level)
     if kind == "fasteners":
         lam = _conductivity(f"{where} conductivity", c3)
-        area_mm2 = number(f"{where} cross_section_mm2", c4, low=0.0, high=1.0e5, unit="mm2")
-        count = number(f"{where} count_per_m2", c5, low=0.0, low_inclusive=True, high=1.0e4,
-                       unit="1/m2")
-        pen = number(f"{where} penetration_mm", c6, None, low=0.0, high=1.0e4, unit="mm")
+        area_mm2 = _value(where, "cross_section_mm2", c4)
+        count = _value(where, "count_per_m2", c5)
+        pen = _value(where, "penetration_mm", c6, None)
         return FastenerCorrection(idx, lam, area_mm2 * 1e-6, count,
                                   penetration=None if pen is None else pen / 1000.0)
-    p = number(f"{where} precipitation_mm_per_day", c3, low=0.0, low_inclusive=True,
-               high=1.0e3, unit="mm/day")
-    f = number(f"{where} drainage_factor", c4, low=0.0, low_inclusive=True, high=1.0)
-    x = number(f"{where} factor_x", c5, 0.04, low=0.0, low_inclusive=True, high=10.0)
+    p = _value(where, "precipitation_mm_per_day", c3)
+    f = _value(where, "drainage_factor", c4)
+    x = _value(where, "factor_x", c5, 0.04)
     _blank_rest(where, kind, (c6,), 6)
     return InvertedRoofCorrection(idx, p, f, x)
+
+
+def _value(where: str, key: str, value: object, default: object = REQUIRED):
+    """A number of a correction row, checked by the rule of its project-file key (the
+    schema's :data:`~heatledger.construction_family.schema.CORRECTION_TABLE`)."""
+    out = number(f"{where} {key}", value, default)
+    if out is None:
+        return None
+    return check_value(CORRECTION_TABLE.column(key), int(out) if out == int(out) and
+                       CORRECTION_TABLE.column(key).type == "int" else out, f"{where} {key}")
 
 
 def _conductivity(where: str, value: object) -> float:

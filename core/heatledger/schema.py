@@ -232,6 +232,8 @@ def _number_problem(col: Column, value) -> str | None:
     if col.type == "int" and float(value) != int(value):
         return f"must be a whole number; got {show(value)}"
     v = float(value)
+    if col.choices and f"{v:g}" not in col.choices:
+        return f"must be one of {choices_text(col.choices)}; got {v:g}"
     if col.sign == "positive" and v <= 0.0:
         return f"must be greater than zero; got {v:g}"
     if col.sign == "non_negative" and v < 0.0:

@@ -425,7 +425,7 @@ def test_small_corrections_are_not_applied_and_blank_means_none():
 
 
 @pytest.mark.parametrize(("table", "fragment"), [
-    ([["air_gaps", 2, 3]], "corrections row 1 level must be at most 2"),
+    ([["air_gaps", 2, 3]], 'corrections row 1 level must be one of "0", "1" or "2"; got 3'),
     ([["air_gaps", 9, 1]], "corrections row 1 layer must be at most 4"),
     ([["air_gaps", "roof", 1]], "corrections row 1 layer must be a layer number 1 to 4"),
     ([["air_gaps", 2, 1, 5]], "corrections row 1: column 4 must be blank for air_gaps"),
