@@ -22,6 +22,7 @@ from heatledger.construction_family.schema import (
     PROJECT_TABLE,
 )
 from heatledger.families import FAMILIES
+from heatledger.heatloss.schema import FUNCTION_ELEMENT_TABLE
 from tests._names import engine_names, function_arguments
 
 #: Units that hold for any quantity a name may carry.
@@ -39,7 +40,8 @@ INSTEAD = {bad.strip(): row["name"] for row in GLOSSARY.values()
            for bad in row["instead_of"].split(";") if bad.strip()}
 ENGINE = engine_names()
 FUNCTIONS = function_arguments()
-TABLES = (PROJECT_TABLE, DESIGN_TABLE, MATERIAL_TABLE, FUNCTION_LAYER_TABLE) + tuple(
+TABLES = (PROJECT_TABLE, DESIGN_TABLE, MATERIAL_TABLE, FUNCTION_LAYER_TABLE,
+          FUNCTION_ELEMENT_TABLE) + tuple(
     t for fam in FAMILIES for t in fam.tables)
 SCHEMA = {c.key: c.unit for t in TABLES for c in t.columns if c.place != "sheet"}
 

@@ -50,6 +50,7 @@ from __future__ import annotations
 
 import math
 
+from heatledger.construction_family.schema import DESIGN_TABLE
 from heatledger.errors import HeatLedgerError
 from heatledger.ground import (
     SOIL_TYPES,
@@ -76,6 +77,13 @@ from heatledger.heatloss import (
     Ventilation,
     ventilation_heat_loss_coefficient,
 )
+from heatledger.heatloss.schema import (
+    BUILDING_TABLE,
+    ELEMENT_TABLE,
+    FUNCTION_ELEMENT_TABLE,
+    ROOM_TABLE,
+)
+from heatledger.schema import check_value
 from heatledger.windows import window
 
 from .cells import ERROR_VALUES, flag, number, text
@@ -405,19 +413,21 @@ def _edge(orientation, extent, resistance, thickness_mm):
                                       "\"horizontal\" or \"vertical\", or leave all edge "
                                       "cells blank")
         return None
-    o = _choice("edge_orientation", o, ("horizontal", "vertical"))
-    d = number("edge_extent", extent, low=0.0, high=100.0, unit="m")
-    rn = number("edge_resistance", resistance, low=0.0, high=100.0, low_inclusive=True,
-                unit="m2 K/W")
-    dn = number("edge_thickness_mm", thickness_mm, low=0.0, high=10000.0, unit="mm")
+    edge = {c.key: c for c in ELEMENT_TABLE.columns if c.sub == "edge_insulation"}
+    o = _choice("edge_orientation", o, edge["orientation"].choices)
+    d, rn, dn = (check_value(edge[key], number(f"edge_{key}", value), f"edge_{key}")
+                 for key, value in (("extent", extent), ("resistance", resistance),
+                                    ("thickness_mm", thickness_mm)))
     return EdgeInsulation(o, d, rn, dn / 1000.0)
 
 
 def _ground(annual_mean_external_temperature, groundwater):
     """(theta_m,e or None, G_w) for rows marked "ground"."""
-    gw = _choice("groundwater", groundwater, ("deep", "shallow"), "deep")
-    tme = number("annual_mean_external_temperature", annual_mean_external_temperature, None,
-                 low=-100.0, high=100.0, unit="degC")
+    gw = _choice("groundwater", groundwater, BUILDING_TABLE.column("groundwater").choices,
+                 BUILDING_TABLE.column("groundwater").default)
+    key = "annual_mean_external_temperature"
+    tme = number(key, annual_mean_external_temperature, None)
+    tme = None if tme is None else check_value(BUILDING_TABLE.column(key), tme, key)
     return tme, GROUNDWATER_FACTOR_SHALLOW if gw == "shallow" else GROUNDWATER_FACTOR_DEEP
 
 
@@ -431,8 +441,10 @@ def _ventilation_and_reheat(ventilation_coefficient, reheat):
 
 
 def _room(cells, temp_inside, temp_outside, h_v, phi_hu, ground):
-    ti = number("temp_inside", temp_inside, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
-    te = number("temp_outside", temp_outside, low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
+    ti = check_value(ROOM_TABLE.column("temp_inside"), number("temp_inside", temp_inside),
+                     "temp_inside")
+    te = check_value(DESIGN_TABLE.column("temp_outside"), number("temp_outside", temp_outside),
+                     "temp_outside")
     if not te < ti:
         raise HeatLedgerError(f"temp_outside {te:g} degC must be below temp_inside {ti:g} degC "
                               "for a design heat load")
@@ -467,20 +479,17 @@ def _element_rows(cells, ground):
                                   "quantity, transmittance, temperature, factor, Delta U_TB)")
         row = row + [None] * (6 - len(row))
         where = f"elements row {n}"
-        kind = text(f"{where} kind", row[0]).lower()
-        if kind not in _ROW_KINDS:
-            raise HeatLedgerError(f"{where} kind must be one of "
-                                  f"{', '.join(_ROW_KINDS)}; got {kind[:40]!r}")
-        q = number(f"{where} quantity", row[1], low=0.0, high=MAX_QUANTITY,
-                   unit="m2, m or count")
-        t = number(f"{where} transmittance", row[2], low=-_MAX_U, high=_MAX_U,
-                   unit="W/(m2 K), W/(m K) or W/K")
+        kind = _row_value(where, "kind", text(f"{where} kind", row[0]).lower())
+        q = _row_value(where, "quantity", number(f"{where} quantity", row[1]))
+        t = _row_value(where, "transmittance", number(f"{where} transmittance", row[2]))
         on_ground = isinstance(row[3], str) and row[3].strip().lower() == "ground"
-        temp = None if on_ground else number(f"{where} temperature", row[3], None,
-                                             low=_ABS_ZERO, high=_MAX_TEMP, unit="degC")
-        b = number(f"{where} factor", row[4], None, low=0.0, high=1.0, low_inclusive=True)
-        dutb = number(f"{where} Delta U_TB", row[5], 0.0, low=0.0, high=_MAX_U,
-                      low_inclusive=True, unit="W/(m2 K)")
+        temp = None if on_ground else _row_value(
+            where, "temperature", number(f"{where} temperature", row[3], None))
+        b = _row_value(where, "adjustment_factor", number(f"{where} factor", row[4], None))
+        if b is not None and b > 1.0:
+            raise HeatLedgerError(f"{where} factor must be between 0 and 1; got {b:g}")
+        dutb = _row_value(where, "thermal_bridge_allowance",
+                          number(f"{where} Delta U_TB", row[5], 0.0))
         if (temp is not None or on_ground) and b is not None:
             raise HeatLedgerError(f"{where}: give a temperature or \"ground\" (column 4) or "
                                   "a factor (column 5), not both")
@@ -509,6 +518,15 @@ def _element_rows(cells, ground):
                                       f"count of at least 1; got {q:g}")
             bridges.append(PointBridge(label, t, int(q), boundary))
     return elements, bridges
+
+
+def _row_value(where: str, key: str, value):
+    """A cell of an element row checked by the rule of its column in the schema
+    (:data:`~heatledger.heatloss.schema.FUNCTION_ELEMENT_TABLE`); None stays None."""
+    col = FUNCTION_ELEMENT_TABLE.column(key)
+    if value is None:
+        return None
+    return check_value(col, value, f"{where} {col.label}")
 
 
 def _blank(value) -> bool:

@@ -11,6 +11,7 @@ from ..windows import PERIMETER_SHAPES
 from .elements import ELEMENT_KINDS
 
 __all__ = ["BUILDING_TABLE", "ROOM_TABLE", "ELEMENT_TABLE", "BRIDGE_TABLE", "TABLES",
+           "FUNCTION_ELEMENT_TABLE",
            "ELEMENT_METHOD_NAMES", "BOUNDARIES", "GROUND_METHODS"]
 
 #: How an element's U-value is found.
@@ -227,6 +228,30 @@ BRIDGE_TABLE = Table(
         Column("count", "Count", "-", "int", "number of point bridges", sign="positive"),
         *_boundary_columns("bridge"),
         Column("notes", "Notes", "", "text", "free text"),
+    ),
+)
+
+#: The element range of the spreadsheet functions (``HL_ROOM_HT`` and its kin): one row per
+#: element or thermal bridge, six columns by position.
+FUNCTION_ELEMENT_TABLE = Table(
+    key="elements", title="an element or thermal bridge of a room's element range",
+    columns=(
+        Column("kind", "kind", "", "text",
+               "element kind, or linear / point for a thermal bridge",
+               choices=ELEMENT_KINDS + ("linear", "point"), required=True),
+        Column("quantity", "quantity", "m2, m or count", "number",
+               "area, length or count", required=True, sign="non_negative"),
+        Column("transmittance", "transmittance", "W/(m2 K), W/(m K) or W/K", "number",
+               "U, psi or chi", required=True),
+        Column("temperature", "temperature", "degC", "number",
+               "temperature on the other side; blank = outside; the text ground = the ground",
+               limit="temperature"),
+        Column("adjustment_factor", "factor", "-", "number",
+               "temperature adjustment factor b_u instead of a temperature",
+               sign="non_negative"),
+        Column("thermal_bridge_allowance", "Delta U_TB", "W/(m2 K)", "number",
+               "allowance for thermal bridges added to U (areas only)", default=0.0,
+               sign="non_negative"),
     ),
 )
 
