@@ -5,7 +5,7 @@ import pytest
 
 from heatledger import HeatLedgerError, air_layer_resistance, ventilation_class
 from tests._tables import read_table
-from tests.tolerances import ATOL_TABLE_M2K_W
+from tests.tolerances import ATOL_TABLE_INTERPOLATION, ATOL_TABLE_M2K_W, RTOL_APPROXIMATION
 
 # source: EN ISO 6946:2017, Table 8, emissivities 0.9, mean temperature 10 degC
 # [source: iso6946-airlayers, Table 8] (tests/data; from memory, reproduced by the Annex D
@@ -63,7 +63,7 @@ def test_intermediate_thickness_close_to_linear_interpolation():
     calc = air_layer_resistance(0.0375, "down")
     interp = np.interp(37.5, ISO6946_TABLE8_THICKNESS_MM, ISO6946_TABLE8_UNVENTILATED_AIR_LAYERS[
         "down"])
-    assert calc == pytest.approx(interp, abs=0.01)
+    assert calc == pytest.approx(interp, abs=ATOL_TABLE_INTERPOLATION)
 
 
 def test_low_emissivity_face_raises_resistance():
@@ -76,7 +76,7 @@ def test_low_emissivity_face_raises_resistance():
 def test_small_void_form_tends_to_wide_layer():
     wide = air_layer_resistance(0.02, "horizontal")
     assert air_layer_resistance(0.02, "horizontal", width=100.0) == pytest.approx(wide,
-                                                                                  rel=1e-3)
+                                                                                  rel=RTOL_APPROXIMATION)
 
 
 # source: EN ISO 6946:2017 6.9.2-6.9.4: 500 and 1500 mm2 thresholds (confirmed in a

@@ -18,7 +18,7 @@ from heatledger import (
     required_thickness,
     round_significant,
 )
-from tests.tolerances import RTOL_HAND, RTOL_ITERATION, RTOL_ROUND_OFF
+from tests.tolerances import RTOL_APPROXIMATION, RTOL_HAND, RTOL_ITERATION, RTOL_ROUND_OFF
 
 
 def test_series_sum_of_homogeneous_layers():
@@ -51,7 +51,7 @@ def test_bridged_layer_worked_by_hand():
     assert br.upper == pytest.approx(3.15378, rel=RTOL_HAND)
     assert br.lower == pytest.approx(3.06264, rel=RTOL_HAND)
     assert wall.total_resistance == pytest.approx(3.10821, rel=RTOL_HAND)
-    assert br.relative_error == pytest.approx(0.014661, rel=1e-3)
+    assert br.relative_error == pytest.approx(0.014661, rel=RTOL_APPROXIMATION)
     assert wall.u_value == pytest.approx(1 / 3.10821, rel=RTOL_HAND)
     assert wall.u_value_reported == 0.32
     # the ladder used for temperatures sums to R_T

@@ -14,7 +14,13 @@ from heatledger.fv1d import (
     solve_tridiagonal,
     surface_to_ambient,
 )
-from tests.tolerances import ATOL_ITERATION, RTOL_ITERATION, RTOL_LINEAR_SOLVE, RTOL_ROUND_OFF
+from tests.tolerances import (
+    ATOL_ITERATION,
+    ATOL_MESH_K,
+    RTOL_ITERATION,
+    RTOL_LINEAR_SOLVE,
+    RTOL_ROUND_OFF,
+)
 
 #: Without sources the harmonic-mean scheme is exact; only floating-point rounding remains.
 ATOL_ROUNDING_K = 1e-10
@@ -82,7 +88,7 @@ def test_maximum_temperature_symmetric_generation():
     sol = solve_conduction(_uniform(length, n), np.full(n, k), fixed_temperature(ts),
                            fixed_temperature(ts), source=q_gen * length / n)
     t_max = ts + q_gen * (length / 2) ** 2 / (2 * k)
-    assert sol.temperature.max() == pytest.approx(t_max, abs=0.01)
+    assert sol.temperature.max() == pytest.approx(t_max, abs=ATOL_MESH_K)
 
 
 def test_adiabatic_face_with_convection():

@@ -40,3 +40,47 @@ RTOL_SHEET = 1e-9
 ATOL_TABLE_M2K_W = 0.005
 #: A hand calculation carried to four or five significant figures. [-]
 RTOL_HAND = 1e-4
+#: Half the last digit of a value printed to two decimals, in the value's own unit (0.34
+#: W h/(m3 K), Rsi 0.13 m2 K/W...).
+ATOL_PRINTED_2DP = 0.005
+#: Half the last digit of a value printed to one decimal (a radiative coefficient 5.7
+#: W/(m2 K)).
+ATOL_PRINTED_1DP = 0.05
+#: Half a unit of the third decimal of a printed value (tanh(2.65) = 0.99 in the textbook).
+ATOL_PRINTED_3DP = 5e-4
+#: Linear interpolation in a table against the formula it tabulates: one table step of
+#: EN ISO 6946 Table 8 changes R by about 0.01 m2 K/W. [m2 K/W]
+ATOL_TABLE_INTERPOLATION = 0.01
+#: An approximation against the exact form it approximates (a corrected length, a small-void
+#: limit, a hand value to four figures): 0.1 %. 0.1 % of a 10 W fin is 0.01 W.
+RTOL_APPROXIMATION = 1e-3
+#: Second-order finite volumes at a few hundred cells against the closed form: the error goes
+#: as (dx/L)^2, about 1e-5 at 400 cells, and the coefficient of the tip adds a little. [-]
+RTOL_MESH = 2e-4
+#: A temperature on a few hundred cells against the exact profile (a node half a cell from
+#: the point compared). [K]
+ATOL_MESH_K = 2e-3
+#: The order a mesh study observes against the scheme's formal order (second order: error
+#: ratios of 4 within 5 %). [-]
+RTOL_ORDER = 0.05
+#: scipy.integrate.solve_bvp (tolerance 1e-8, a few hundred nodes) against the slender-fin
+#: closed form. 2e-5 of a 10 W fin is 0.2 mW; temperatures to 0.1 mK. [-], [K]
+RTOL_BVP = 2e-5
+ATOL_BVP_K = 1e-4
+#: Richardson extrapolation from three meshes against the exact value: the extrapolated value
+#: removes the leading error, what is left is of higher order. [-]
+RTOL_EXTRAPOLATED = 1e-6
+#: The same on a linear problem, where the scheme's error is purely second order. [-]
+RTOL_EXTRAPOLATED_LINEAR = 1e-8
+#: The same with finer meshes. [-]
+RTOL_EXTRAPOLATED_FINE = 1e-7
+#: The extrapolated tip temperature against the boundary-value solution. [K]
+ATOL_EXTRAPOLATED_K = 1e-5
+#: A limit approached to within 1e-7 of its variable (a basement depth of 0.1 um against the
+#: slab, a fin of 10 um against efficiency 1). [-]
+RTOL_LIMIT = 1e-5
+ATOL_LIMIT = 1e-6
+#: Special functions (scipy's Bessel functions) in two algebraically equal forms. [-]
+RTOL_SPECIAL_FUNCTIONS = 1e-11
+#: Absolute round-off of a linear solve on temperatures of tens of degrees. [K]
+ATOL_LINEAR_SOLVE = 1e-10

@@ -29,11 +29,25 @@ import heatledger.fins as fins
 from heatledger.errors import HeatLedgerError, HeatLedgerWarning
 from heatledger.fins import AnnularFin, FinArray, PowerLawCoefficient, StraightFin, solve_fin_fv
 from tests.tolerances import (
+    ATOL_BVP_K,
+    ATOL_EXTRAPOLATED_K,
+    ATOL_LIMIT,
+    ATOL_LINEAR_SOLVE,
+    ATOL_MESH_K,
+    ATOL_PRINTED_3DP,
     ATOL_ROUND_OFF,
+    RTOL_APPROXIMATION,
+    RTOL_BVP,
+    RTOL_EXTRAPOLATED,
+    RTOL_EXTRAPOLATED_FINE,
+    RTOL_EXTRAPOLATED_LINEAR,
     RTOL_ITERATION,
     RTOL_LAST_BITS,
     RTOL_LINEAR_SOLVE,
+    RTOL_MESH,
+    RTOL_ORDER,
     RTOL_ROUND_OFF,
+    RTOL_SPECIAL_FUNCTIONS,
     RTOL_ULP,
 )
 
@@ -110,7 +124,7 @@ def test_uniform_fin_matches_table_3_4(name, make):
     assert fin.m == pytest.approx(m_ref, rel=rtol_closed)
     assert fin.heat_rate(T_B, T_INF) == pytest.approx(q_ref, rel=rtol_closed)
     np.testing.assert_allclose(prof.temperature - T_INF, theta_ref, rtol=rtol_closed,
-                               atol=1e-10)
+                               atol=ATOL_LINEAR_SOLVE)
     res = fin.evaluate(T_B, T_INF)
     assert res.tip_temperature == pytest.approx(T_INF + theta_ref[-1], rel=rtol_closed)
     assert res.fin_resistance == pytest.approx(THETA_B / q_ref, rel=rtol_closed)
@@ -140,7 +154,8 @@ def test_prescribed_tip_side_loss_balance():
     dtheta_l = np.gradient(theta, x)[-1]  # one-sided, refined: O(dx) error only
     side = q - (-k_ac * dtheta_l)
     res = fin.evaluate(T_B, T_INF)
-    assert res.efficiency * fin.h * fin.fin_area * THETA_B == pytest.approx(side, rel=1e-3)
+    assert res.efficiency * fin.h * fin.fin_area * THETA_B == pytest.approx(side,
+                                                                            rel=RTOL_APPROXIMATION)
     with pytest.raises(HeatLedgerError, match="depends on the base and ambient"):
         _ = fin.efficiency
 
@@ -161,7 +176,7 @@ def test_incropera_example_3_9_infinite_pins():
 def test_infinite_fin_limit_of_tanh():
     # source: Incropera & DeWitt 6th ed., section 3.6.2: tanh(2.65) = 0.99, the infinite fin is
     # within 1 % of the adiabatic tip for mL >= 2.65 (checked here by math.tanh)
-    assert math.tanh(2.65) == pytest.approx(0.99, abs=5e-4)
+    assert math.tanh(2.65) == pytest.approx(0.99, abs=ATOL_PRINTED_3DP)
     short = pin(tip="infinite", length=0.01)
     assert short.m * 0.01 < 2.65
     assert any("overstates" in w for w in short.warnings)
@@ -183,7 +198,8 @@ def test_corrected_length(make):
     assert fin.fin_area == pytest.approx(fin.perimeter * l_c, rel=RTOL_ULP)
     exact = make(tip="convective")
     # the approximation is close for h t / k << 0.0625 (here ~2e-4): within 0.1 %
-    assert fin.heat_rate(T_B, T_INF) == pytest.approx(exact.heat_rate(T_B, T_INF), rel=1e-3)
+    assert fin.heat_rate(T_B, T_INF) == pytest.approx(exact.heat_rate(T_B, T_INF),
+                                                      rel=RTOL_APPROXIMATION)
 
 
 # ----------------------------------------------------------------------------- Table 3.5
@@ -299,10 +315,10 @@ def test_profiled_fins_against_solve_bvp(shape, profile):
     slender_area = 2 * w * big_l if shape == "plate" else (
         math.pi * base / 2 * big_l if profile == "triangular" else math.pi * base * big_l / 3)
     q_slender = fin.efficiency * h * slender_area * THETA_B
-    assert q_bvp == pytest.approx(q_slender, rel=1e-5)
+    assert q_bvp == pytest.approx(q_slender, rel=RTOL_BVP)
     xs = np.linspace(0, 0.8, 9)  # away from the singular tip
     np.testing.assert_allclose(fin.temperatures(T_B, T_INF, points=51).temperature[:41:5],
-                               T_INF + THETA_B * sol.sol(xs)[0], atol=1e-4)
+                               T_INF + THETA_B * sol.sol(xs)[0], atol=ATOL_BVP_K)
 
 
 @pytest.mark.parametrize("tip,corrected", [("adiabatic", False), ("convective", False),
@@ -350,7 +366,7 @@ def test_annular_efficiency_against_ht(r1, ratio, h):
     t, k = 0.0008, 160.0
     fin = AnnularFin(r1, ratio * r1, t, k, h)
     ref = ht.fin_efficiency_Kern_Kraus(2 * r1, 2 * ratio * r1, t, k, h)
-    assert fin.efficiency == pytest.approx(ref, rel=1e-11)
+    assert fin.efficiency == pytest.approx(ref, rel=RTOL_SPECIAL_FUNCTIONS)
 
 
 def test_annular_textbook_formula_and_corrected_radius():
@@ -377,7 +393,7 @@ def test_annular_tends_to_straight_fin_for_large_radius():
     big_l, t, k, h = 0.02, 0.001, 200.0, 50.0
     m = math.sqrt(2 * h / (k * t))
     fin = AnnularFin(100.0, 100.0 + big_l, t, k, h)
-    assert fin.efficiency == pytest.approx(math.tanh(m * big_l) / (m * big_l), rel=2e-4)
+    assert fin.efficiency == pytest.approx(math.tanh(m * big_l) / (m * big_l), rel=RTOL_MESH)
 
 
 def test_annular_large_argument_no_overflow():
@@ -397,7 +413,7 @@ def test_annular_large_argument_no_overflow():
 def test_efficiency_limits():
     # limit mL -> 0: eta -> 1; limit mL -> infinity: eta -> 1/(mL) (tanh -> 1)
     short = plate(tip="adiabatic", length=1e-5)
-    assert short.efficiency == pytest.approx(1.0, abs=1e-6)
+    assert short.efficiency == pytest.approx(1.0, abs=ATOL_LIMIT)
     long = plate(tip="adiabatic", length=5.0)
     ml = long.m * long.length
     assert ml > 30
@@ -405,9 +421,10 @@ def test_efficiency_limits():
     assert pin(tip="infinite", length=2.0).efficiency == pytest.approx(
         1.0 / (pin().m * 2.0), rel=RTOL_ROUND_OFF)
     for prof in ("triangular", "parabolic"):
-        assert plate(profile=prof, length=1e-5).efficiency == pytest.approx(1.0, abs=1e-6)
-        assert pin(profile=prof, length=1e-5).efficiency == pytest.approx(1.0, abs=1e-6)
-    assert AnnularFin(0.01, 0.01 + 1e-6, 0.001, 200, 40).efficiency == pytest.approx(1, abs=1e-6)
+        assert plate(profile=prof, length=1e-5).efficiency == pytest.approx(1.0, abs=ATOL_LIMIT)
+        assert pin(profile=prof, length=1e-5).efficiency == pytest.approx(1.0, abs=ATOL_LIMIT)
+    assert AnnularFin(0.01, 0.01 + 1e-6, 0.001, 200, 40).efficiency == pytest.approx(1,
+                                                                                     abs=ATOL_LIMIT)
 
 
 def test_effectiveness_below_one_warns_only_when_asked():
@@ -465,9 +482,9 @@ def test_fv_second_order_convergence(make):
     fin = make()
     err = _fv_errors(fin, [10, 20, 40, 80])
     ratios_q = err[:-1, 0] / err[1:, 0]
-    np.testing.assert_allclose(ratios_q, 4.0, rtol=0.05)
+    np.testing.assert_allclose(ratios_q, 4.0, rtol=RTOL_ORDER)
     if fin.tip not in ("temperature",):  # a prescribed tip temperature has no error
-        np.testing.assert_allclose(err[:-1, 1] / err[1:, 1], 4.0, rtol=0.05)
+        np.testing.assert_allclose(err[:-1, 1] / err[1:, 1], 4.0, rtol=RTOL_ORDER)
 
 
 @pytest.mark.parametrize("name,make", CASES, ids=[c[0] for c in CASES])
@@ -478,7 +495,7 @@ def test_fv_matches_closed_form(name, make):
     assert fv.heat_rate == pytest.approx(q, rel=rtol_fv_fine)
     assert abs(fv.energy_residual) < 1e-10
     # Richardson extrapolation of the second-order scheme is much closer than either mesh
-    assert fv.mesh_estimate.extrapolated == pytest.approx(q, rel=1e-8)
+    assert fv.mesh_estimate.extrapolated == pytest.approx(q, rel=RTOL_EXTRAPOLATED_LINEAR)
     # the bound is the Richardson error with the observed order times the safety factor
     # 1.25 (Roache 1998, section 5.9): at least the true error, and not much more
     true_error = abs(fv.heat_rate - q)
@@ -488,7 +505,7 @@ def test_fv_matches_closed_form(name, make):
     assert prof.fv is fv or prof.fv.heat_rate == pytest.approx(fv.heat_rate, rel=RTOL_LAST_BITS)
     closed = fin.temperatures(T_B, T_INF, points=5)
     assert np.interp(closed.x, prof.x, prof.temperature) == pytest.approx(closed.temperature,
-                                                                           abs=2e-3)
+                                                                           abs=ATOL_MESH_K)
 
 
 @pytest.mark.parametrize("profile", ["triangular", "parabolic"])
@@ -513,7 +530,7 @@ def test_fv_slender_profile_matches_closed_form(profile):
     fv = solve_fin_fv(big_l, k, h, area=lambda x: w * t * (1 - x / big_l) ** power,
                       perimeter=2 * w, temp_base=T_B, temp_fluid=T_INF, nodes=1600)
     q_slender = fin.efficiency * h * 2 * w * big_l * THETA_B
-    assert fv.mesh_estimate.extrapolated == pytest.approx(q_slender, rel=2e-5)
+    assert fv.mesh_estimate.extrapolated == pytest.approx(q_slender, rel=RTOL_BVP)
 
 
 def _nonlinear_bvp(k, a_c, p, law, eps, t_sur, big_l, tip_area):
@@ -548,8 +565,8 @@ def test_fv_power_law_h_and_radiation_against_solve_bvp(linearisation):
                       temp_fluid=T_INF, nodes=400, tip="convective", emissivity=0.85,
                       temp_surroundings=10.0, linearisation=linearisation, tolerance=1e-10)
     q_bvp, tip_bvp = _nonlinear_bvp(k, a_c, p, law, 0.85, 10.0, big_l, a_c)
-    assert fv.mesh_estimate.extrapolated == pytest.approx(q_bvp, rel=1e-6)
-    assert fv.mesh_estimate_tip.extrapolated == pytest.approx(tip_bvp, abs=1e-5)
+    assert fv.mesh_estimate.extrapolated == pytest.approx(q_bvp, rel=RTOL_EXTRAPOLATED)
+    assert fv.mesh_estimate_tip.extrapolated == pytest.approx(tip_bvp, abs=ATOL_EXTRAPOLATED_K)
     # energy balance with the non-linear laws at the final temperatures
     assert abs(fv.energy_residual) < 1e-9
     assert fv.converged_change < 1e-10 and fv.iterations > 1
@@ -873,7 +890,7 @@ def test_fv_h_varying_along_the_fin_against_solve_bvp():
     sol = _bvp(fun, lambda ya, yb: np.array([ya[0] - 1.0, yb[1]]), xi,
                np.vstack([np.ones_like(xi), np.zeros_like(xi)]))
     q_bvp = -k * a_c * THETA_B * sol.sol(0.0)[1] / big_l
-    assert fv.mesh_estimate.extrapolated == pytest.approx(q_bvp, rel=1e-7)
+    assert fv.mesh_estimate.extrapolated == pytest.approx(q_bvp, rel=RTOL_EXTRAPOLATED_FINE)
     assert fv.heat_rate == pytest.approx(q_bvp, rel=rtol_fv_fine)
     assert fv.iterations == 2  # a callable may depend on T: one check solve confirms no change
 
@@ -894,7 +911,7 @@ def test_infinite_tip_efficiency_never_exceeds_one(length_over_m):
     assert 0.0 < fin.efficiency <= 1.0
     fv = fin.finite_volume(T_B, T_INF, nodes=400)
     assert fv.efficiency <= 1.0
-    assert fv.efficiency == pytest.approx(exact, rel=1e-4)  # second order at 400 cells
+    assert fv.efficiency == pytest.approx(exact, rel=RTOL_MESH)  # second order at 400 cells
     # the heat the fin sheds, continuation included, is still M theta_b (case D)
     assert fin.heat_rate(T_B, T_INF) == pytest.approx(fin.conductance * THETA_B, rel=RTOL_LAST_BITS)
 

@@ -20,7 +20,13 @@ from heatledger.project import project_from_dict
 from heatledger.sheet import audit
 from heatledger.sheet.plan import split_ref
 from heatledger.sheet.render_openpyxl import write_workbook
-from tests.tolerances import ATOL_ITERATION, RTOL_ITERATION, RTOL_ROUND_OFF, RTOL_SHEET
+from tests.tolerances import (
+    ATOL_ITERATION,
+    ATOL_LINEAR_SOLVE,
+    RTOL_ITERATION,
+    RTOL_ROUND_OFF,
+    RTOL_SHEET,
+)
 
 #: Functions both Excel (2007 file format, no _xlfn. prefix) and LibreOffice Calc know.
 #: from memory: Excel's and LibreOffice's function lists; the _xlfn. functions (LET, LAMBDA,
@@ -169,7 +175,7 @@ def test_one_layer_slab_against_hand_calculation(variety, tmp_path, recalc):
     x_m = np.array([ws[f"E{r}"].value for r in range(n0, n1 + 1)]) / 1000.0
     exact = 21.0 - q * 0.17 - q * x_m / 1.6
     nodal = np.array([ws[f"M{r}"].value for r in range(n0, n1 + 1)])
-    np.testing.assert_allclose(nodal, exact, rtol=RTOL_ROUND_OFF, atol=1e-10)
+    np.testing.assert_allclose(nodal, exact, rtol=RTOL_ROUND_OFF, atol=ATOL_LINEAR_SOLVE)
     np.testing.assert_allclose(x_m, (np.arange(5) + 0.5) * 0.04, rtol=RTOL_ROUND_OFF)
 
 
