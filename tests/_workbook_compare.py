@@ -15,13 +15,10 @@ from pathlib import Path
 import openpyxl
 from openpyxl.worksheet.formula import ArrayFormula
 
-#: Relative tolerance on a numeric cell. Last-bit differences between numpy/scipy builds are
-#: about 1e-16 relative and accumulate to 1e-13 at most through the engine's iterations;
-#: the sheets report at most 6 significant figures (1e-6) and check formulas against the
-#: engine to 1e-9. 1e-10 lies between the two, so noise passes and any real change fails.
-RTOL_NUMBERS = 1e-10
-#: Absolute floor for numbers that should be zero (a residual of 1e-17 against 3e-17). [-]
-ATOL_NUMBERS = 1e-12
+from tests.tolerances import ATOL_WORKBOOK, RTOL_WORKBOOK
+
+RTOL_NUMBERS = RTOL_WORKBOOK  # tests/tolerances.py
+ATOL_NUMBERS = ATOL_WORKBOOK  # tests/tolerances.py
 
 
 def _load(source):

@@ -5,7 +5,12 @@ import pytest
 
 from heatledger import HeatLedgerError, air_layer_resistance, ventilation_class
 from tests._tables import read_table
-from tests.tolerances import ATOL_TABLE_INTERPOLATION, ATOL_TABLE_M2K_W, RTOL_APPROXIMATION
+from tests.tolerances import (
+    ATOL_TABLE_INTERPOLATION,
+    ATOL_TABLE_M2K_W,
+    RTOL_APPROXIMATION,
+    RTOL_ULP,
+)
 
 # source: EN ISO 6946:2017, Table 8, emissivities 0.9, mean temperature 10 degC
 # [source: iso6946-airlayers, Table 8] (tests/data; from memory, reproduced by the Annex D
@@ -28,9 +33,7 @@ def test_scalar_matches_array():
     assert air_layer_resistance(0.025, "down") == air_layer_resistance([0.025], "down")[0]
 
 
-#: The scalar path uses math where the array path uses numpy; the same operations in the same
-#: order, so the two agree to the last bit or within a few ulp (numpy's vectorised power).
-RTOL_SCALAR_VS_ARRAY = 1e-15
+RTOL_SCALAR_VS_ARRAY = RTOL_ULP  # tests/tolerances.py
 
 
 @pytest.mark.parametrize("heat_flow", ["up", "horizontal", "down"])

@@ -7,9 +7,9 @@ import pytest
 import scipy.constants as codata
 
 from heatledger import _constants as c
+from tests.tolerances import RTOL_CONSTANTS
 
-#: The defining constants are exact, so the derived values agree to rounding. [-]
-RTOL_ROUNDING = 4 * 2.0**-52
+RTOL_ROUNDING = RTOL_CONSTANTS  # tests/tolerances.py
 
 
 @pytest.mark.parametrize(("ours", "reference"), [

@@ -16,16 +16,15 @@ from heatledger.fv1d import (
 )
 from tests.tolerances import (
     ATOL_ITERATION,
+    ATOL_LINEAR_SOLVE,
     ATOL_MESH_K,
     RTOL_ITERATION,
     RTOL_LINEAR_SOLVE,
     RTOL_ROUND_OFF,
 )
 
-#: Without sources the harmonic-mean scheme is exact; only floating-point rounding remains.
-ATOL_ROUNDING_K = 1e-10
-#: Energy balance must close to this relative residual (issue 2).
-ENERGY_RTOL = 1e-9
+ATOL_ROUNDING_K = ATOL_LINEAR_SOLVE  # tests/tolerances.py
+ENERGY_RTOL = RTOL_ITERATION  # tests/tolerances.py
 
 
 def _uniform(length, n):

@@ -27,14 +27,14 @@ from heatledger.fv1d import (
 )
 from tests.tolerances import (
     ATOL_ROUND_OFF,
+    RTOL_EXACT_SCHEME,
     RTOL_EXTRAPOLATED,
     RTOL_LINEAR_SOLVE,
     RTOL_ROUND_OFF,
     RTOL_ULP,
 )
 
-#: The scheme is exact for these cases: agreement to rounding (many cells, 1e-12 relative).
-RTOL_EXACT = 1e-11
+RTOL_EXACT = RTOL_EXACT_SCHEME  # tests/tolerances.py
 RSI, RSE = 0.10, 0.04  # source: EN ISO 6946:2017, Table 7 (heat flow up)
 
 

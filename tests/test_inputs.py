@@ -20,12 +20,13 @@ from heatledger.cli import main, project_results
 from heatledger.constructions import AirLayer, BridgedLayer, Construction, Layer
 from heatledger.demo import demo_project
 from heatledger.materials import default_library
+from tests.tolerances import RTOL_ITERATION
 
 # source: definition of the Celsius scale, 0 K = -273.15 degC
 ABSOLUTE_ZERO_C = -273.15
 # Relative agreement of the finite-volume heat flux with the exact series sum: the audit
 # sheets check formula against engine to 1e-9 relative, so the solve must be at least as good.
-RTOL_SOLVE = 1e-9
+RTOL_SOLVE = RTOL_ITERATION  # tests/tolerances.py
 
 
 def wall(**layer) -> dict:

@@ -21,10 +21,9 @@ from heatledger.windows import (
     window,
     window_with_shutter_u,
 )
-from tests.tolerances import RTOL_ROUND_OFF
+from tests.tolerances import ATOL_ROUND_OFF, RTOL_ROUND_OFF
 
-#: Floating-point agreement between two evaluations of the same equation. [W/(m2 K)]
-atol_same_equation = 1e-12
+atol_same_equation = ATOL_ROUND_OFF  # tests/tolerances.py
 
 
 def iso10077_window_u(parts_g, parts_f, edges_g, parts_p=(), edges_p=()):

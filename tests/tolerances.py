@@ -84,3 +84,23 @@ ATOL_LIMIT = 1e-6
 RTOL_SPECIAL_FUNCTIONS = 1e-11
 #: Absolute round-off of a linear solve on temperatures of tens of degrees. [K]
 ATOL_LINEAR_SOLVE = 1e-10
+#: A scheme exact for the case (no source, or a uniform source in equal cells) against the
+#: closed form at the nodes: only the linear solve's round-off. [-]
+RTOL_EXACT_SCHEME = 1e-11
+#: A closed form against the same equation re-typed in the test (another arrangement of the
+#: same operations and special functions). [-]
+RTOL_RETYPED = 1e-10
+#: scipy.integrate.solve_bvp with tol=1e-9 on a fine mesh against the closed form (agreement to
+#: about 1e-7 observed); its temperatures to 10 uK. [-], [K]
+RTOL_BVP_FINE = 1e-6
+ATOL_BVP_FINE_K = 1e-5
+#: Finite volumes at 400 cells: second-order error (dx m)^2/12, about 1e-5 for mL ~ 0.6. [-]
+RTOL_FV_FINE = 2e-5
+#: A required thickness found by Brent's method (stops within 1e-9 m of the root), in mm. [mm]
+ATOL_THICKNESS_MM = 1e-5
+#: A committed workbook against a fresh generation: numbers to 1e-10 relative (the last bits
+#: of another BLAS kernel or summation order), with a 1e-12 floor for round-off-sized values.
+RTOL_WORKBOOK = 1e-10
+ATOL_WORKBOOK = 1e-12
+#: A constant computed from the SI defining constants against CODATA: four ulp. [-]
+RTOL_CONSTANTS = 4 * 2.0**-52

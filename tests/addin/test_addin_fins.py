@@ -24,7 +24,7 @@ from tests.addin._addin_helpers import call_with_drawn, check_bad_optional_named
 from tests.tolerances import ATOL_ROUND_OFF, RTOL_ITERATION, RTOL_ROUND_OFF
 
 FINS = sorted(n for n, s in REGISTRY.items() if s.family == "fins")
-rtol_closed = 1e-12  # the same closed form evaluated in another arrangement
+rtol_closed = RTOL_ROUND_OFF  # tests/tolerances.py
 DEADLINE_MS = 1000  # every bad input answers within a second (the add-in's rule)
 
 # Invented aluminium plate fin, per metre of base: L 50 mm, t 2 mm, k 200, h 25, 80/20 degC.

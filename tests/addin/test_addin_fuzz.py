@@ -30,7 +30,13 @@ from heatledger_xl.ranges import LIBRARY
 from heatledger_xl.registry import REGISTRY
 from tests.addin._addin_helpers import call_with_drawn
 from tests.addin._addin_helpers import check_result as check_answer
-from tests.tolerances import ATOL_ROUND_OFF, RTOL_ITERATION
+from tests.tolerances import (
+    ATOL_ITERATION,
+    ATOL_ROUND_OFF,
+    ATOL_THICKNESS_MM,
+    RTOL_ITERATION,
+    RTOL_ROUND_OFF,
+)
 
 DEADLINE_MS = 1000  # the add-in's issue: every bad input answers within a second
 # The construction family; other families (fins) carry their own no-raise tests.
@@ -211,9 +217,9 @@ def test_the_error_texts_are_not_taken_for_spreadsheet_errors_or_formulas():
 # Realistic tables drawn twice over: as the cells a consultant types and as the engine's own
 # layer objects built directly from the same numbers. The function must answer with a number
 # (never an error text) equal to the engine's result: the inputs reach the engine intact.
-RTOL_SAME = 1e-12  # the same engine arithmetic; only the order of a few sums may differ
-ATOL_FV_K = 1e-9  # the same finite-volume solve on the same mesh; round-off only
-ATOL_D_MM = 1e-5  # required thickness: Brent's method stops within 1e-9 m of the root
+RTOL_SAME = RTOL_ROUND_OFF  # tests/tolerances.py
+ATOL_FV_K = ATOL_ITERATION  # tests/tolerances.py
+ATOL_D_MM = ATOL_THICKNESS_MM  # tests/tolerances.py
 
 
 @st.composite

@@ -20,12 +20,11 @@ from heatledger_xl import udfs
 from heatledger_xl.cells import ERROR_VALUES
 from heatledger_xl.registry import MAX_DESCRIPTION, PREFIX, REGISTRY
 from tests.addin._addin_helpers import call_with_drawn, check_bad_optional_named, check_result
-from tests.tolerances import ATOL_PRINTED_2DP
+from tests.tolerances import ATOL_PRINTED_2DP, RTOL_ROUND_OFF
 
 OURS = sorted(n for n, s in REGISTRY.items() if s.family == "heat loss")
 DEADLINE_MS = 1000  # the add-in's rule: every bad input answers within a second
-#: Same equation evaluated in another order in floating point. [-]
-rtol_same = 1e-12
+rtol_same = RTOL_ROUND_OFF  # tests/tolerances.py
 
 
 def test_heat_loss_functions_are_registered_and_exported():

@@ -39,7 +39,7 @@ LAMBDA_MW_035 = 0.035  # declared class "035" of the product family, W/(m K)
 # source: EN ISO 6946:2017, Table 8, 25 mm unventilated, horizontal heat flow: 0.18 m2 K/W
 # [from memory]; the Annex D formula gives 0.183.
 R_AIR_25_H = 0.18
-rtol_R = 1e-12  # same arithmetic in another order
+rtol_R = RTOL_ROUND_OFF  # tests/tolerances.py
 
 
 def hand_resistance_wall(r_air: float) -> float:

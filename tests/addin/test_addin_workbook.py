@@ -22,10 +22,11 @@ from openpyxl.worksheet.formula import ArrayFormula
 from heatledger_xl import udfs, workbook
 from heatledger_xl.registry import REGISTRY
 from tests._workbook_compare import differences
+from tests.tolerances import RTOL_ULP
 
 COMMITTED = Path(__file__).resolve().parents[2] / "workbooks" / workbook.FILE_NAME
 CALL = re.compile(r"^=(HL_[A-Z_]+)\((.*)\)$")
-rtol_written = 1e-15  # the file stores numbers to 16 significant digits
+rtol_written = RTOL_ULP  # tests/tolerances.py
 
 
 def load():

@@ -24,7 +24,7 @@ import pytest
 
 from heatledger.constructions import AirLayer, Construction, Layer
 from heatledger.materials import default_library
-from tests.tolerances import ATOL_ROUND_OFF
+from tests.tolerances import ATOL_ROUND_OFF, RTOL_ROUND_OFF
 
 PACKAGES = ("xlwings", "heatledger_xl")
 WALL = [["material", "thickness [mm]", "conductivity [W/(m K)]"],
@@ -33,7 +33,7 @@ WALL = [["material", "thickness [mm]", "conductivity [W/(m K)]"],
         ["block", 150, 1.35],
         ["air", 25, None],
         ["brick", 102, 0.77]]  # invented demo wall
-rtol_engine = 1e-12  # the same engine numbers, only converted through xlwings
+rtol_engine = RTOL_ROUND_OFF  # tests/tolerances.py
 
 
 def _ours(name: str) -> bool:

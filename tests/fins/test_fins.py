@@ -29,6 +29,7 @@ import heatledger.fins as fins
 from heatledger.errors import HeatLedgerError, HeatLedgerWarning
 from heatledger.fins import AnnularFin, FinArray, PowerLawCoefficient, StraightFin, solve_fin_fv
 from tests.tolerances import (
+    ATOL_BVP_FINE_K,
     ATOL_BVP_K,
     ATOL_EXTRAPOLATED_K,
     ATOL_LIMIT,
@@ -38,24 +39,27 @@ from tests.tolerances import (
     ATOL_ROUND_OFF,
     RTOL_APPROXIMATION,
     RTOL_BVP,
+    RTOL_BVP_FINE,
     RTOL_EXTRAPOLATED,
     RTOL_EXTRAPOLATED_FINE,
     RTOL_EXTRAPOLATED_LINEAR,
+    RTOL_FV_FINE,
     RTOL_ITERATION,
     RTOL_LAST_BITS,
     RTOL_LINEAR_SOLVE,
     RTOL_MESH,
     RTOL_ORDER,
+    RTOL_RETYPED,
     RTOL_ROUND_OFF,
     RTOL_SPECIAL_FUNCTIONS,
     RTOL_ULP,
 )
 
 # ----------------------------------------------------------------------------- tolerances
-rtol_closed = 1e-10  # closed form vs the same equation re-typed: round-off only
-rtol_bvp = 1e-6  # solve_bvp run with tol=1e-9 on a fine mesh; agreement to ~1e-7 observed
-atol_bvp_K = 1e-5  # temperatures from solve_bvp, same reason
-rtol_fv_fine = 2e-5  # FV at 400 cells: second-order error (dx m)^2/12 ~ 1e-5 for mL ~ 0.6
+rtol_closed = RTOL_RETYPED  # tests/tolerances.py
+rtol_bvp = RTOL_BVP_FINE  # tests/tolerances.py
+atol_bvp_K = ATOL_BVP_FINE_K  # tests/tolerances.py
+rtol_fv_fine = RTOL_FV_FINE  # tests/tolerances.py
 
 T_B, T_INF = 80.0, 20.0  # invented scenario: a drive heat sink at 80 degC in 20 degC air
 THETA_B = T_B - T_INF

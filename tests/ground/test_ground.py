@@ -18,10 +18,9 @@ from heatledger.ground import (
     slab_on_ground,
     suspended_floor,
 )
-from tests.tolerances import RTOL_LIMIT, RTOL_ROUND_OFF
+from tests.tolerances import ATOL_ROUND_OFF, RTOL_LIMIT, RTOL_ROUND_OFF
 
-#: Agreement between the module and the same equation written out in the test. [W/(m2 K)]
-atol_same_equation = 1e-12
+atol_same_equation = ATOL_ROUND_OFF  # tests/tolerances.py
 #: The check values [source: iso13370-slab] are printed to three decimals. [W/(m2 K)]
 atol_printed_3dp = 0.0005
 

@@ -36,8 +36,7 @@ from heatledger.heatloss import (
 from heatledger.windows import declared_window, window
 from tests.tolerances import ATOL_ITERATION, ATOL_ROUND_OFF, RTOL_ITERATION, RTOL_ROUND_OFF
 
-#: Same equation evaluated twice in floating point. [W/K or W]
-atol_same_equation = 1e-9
+atol_same_equation = ATOL_ITERATION  # tests/tolerances.py
 
 T_REF_K = AIR_REFERENCE_TEMPERATURE + 273.15
 

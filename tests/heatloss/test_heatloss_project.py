@@ -20,8 +20,9 @@ from heatledger.errors import ProjectError
 from heatledger.project import project_from_dict, tomllib
 from heatledger.sheet import template as tpl
 from heatledger.sheet.render_openpyxl import write_workbook
+from tests.tolerances import RTOL_ROUND_OFF
 
-rtol_same = 1e-12  # the same equations in another order
+rtol_same = RTOL_ROUND_OFF  # tests/tolerances.py
 
 
 def small_data() -> dict:
