@@ -18,6 +18,7 @@ from heatledger.ground import (
     slab_on_ground,
     suspended_floor,
 )
+from tests._tables import read_table
 from tests.tolerances import ATOL_ROUND_OFF, RTOL_LIMIT, RTOL_ROUND_OFF
 
 atol_same_equation = ATOL_ROUND_OFF  # tests/tolerances.py
@@ -119,16 +120,13 @@ def test_arrays_with_both_regimes():
 
 
 def test_soil_conductivity_defaults():
-    # source: EN ISO 13370:2017 Table 7 [source: iso13370-slab, Table 7]: clay/silt 1.5,
-    # sand/gravel 2.0, homogeneous rock 3.5 W/(m K)
-    assert ground_conductivity("clay") == 1.5
-    assert ground_conductivity("Silt") == 1.5
-    assert ground_conductivity("sand") == 2.0
-    assert ground_conductivity("gravel") == 2.0
-    assert ground_conductivity("rock") == 3.5
-    # from memory: Table 7 rho c 3.0e6 (category 1), 2.0e6 (categories 2, 3) J/(m3 K)
-    assert ground_heat_capacity("clay") == 3.0e6
-    assert ground_heat_capacity("rock") == 2.0e6
+    # source: EN ISO 13370:2017 Table 7 [source: iso13370-slab, Table 7] (tests/data): clay
+    # and silt 1.5, sand and gravel 2.0, homogeneous rock 3.5 W/(m K); heat capacities from
+    # memory
+    for row in read_table("iso13370_2017_table7_ground_properties"):
+        assert ground_conductivity(row["soil"]) == float(row["conductivity_w_mk"])
+        assert ground_conductivity(row["soil"].title()) == float(row["conductivity_w_mk"])
+        assert ground_heat_capacity(row["soil"]) == float(row["heat_capacity_j_m3k"])
     with pytest.raises(HeatLedgerError, match='"clay", "silt", "sand", "gravel" or "rock"'):
         ground_conductivity("peat")
 
