@@ -52,8 +52,8 @@ DESIGN_TABLE = Table(
 MATERIAL_TABLE = Table(
     key="materials", title="a material of the project (adds to or overrides the library)",
     sheet="Materials",
-    note="Your own materials or overrides of the library (declared values of the products "
-         "used). Library names are on the Lists sheet.",
+    note="Your own materials (declared values of the products used) or overrides of the "
+         "library; the library's names are on the Lists sheet.",
     columns=(
         Column("name", "Material name", "", "text", "name the layers use", required=True),
         Column("conductivity", "λ", "W/(m K)", "number", "design thermal conductivity",
@@ -71,8 +71,8 @@ MATERIAL_TABLE = Table(
 CONSTRUCTION_TABLE = Table(
     key="constructions", title="a wall, roof or floor build-up", sheet="Constructions",
     extra=("layers", "corrections"),
-    note="One row per wall, roof or floor. Heat flow: up (roofs), horizontal (walls), down "
-         "(floors).",
+    note="One row per wall, roof or floor, with its heat-flow direction (up for roofs, "
+         "horizontal for walls, down for floors), area and target U where you have one.",
     columns=(
         Column("name", "Construction name", "", "text", "name, unique in the project",
                required=True),
@@ -104,8 +104,10 @@ CONSTRUCTION_TABLE = Table(
 LAYER_TABLE = Table(
     key="constructions.layers", title="a layer, inside to outside", sheet="Layers",
     variant_key="kind",
-    note="One row per layer, inside to outside, grouped by construction. Thickness in mm. "
-         "Kind: material, declared, air or bridged.",
+    note="One row per layer, inside to outside, each naming its construction. Thickness in "
+         "mm. Kind material needs a material or λ; declared a resistance; air a "
+         "ventilation class (and the vent area when slightly ventilated); bridged a "
+         "material, a bridging material or λ and the bridging fraction.",
     columns=(
         Column("construction", "Construction name", "", "text",
                "the construction the layer belongs to", place="sheet"),
@@ -147,8 +149,9 @@ _G, _F, _I = ("air_gaps",), ("fasteners",), ("inverted_roof",)
 CORRECTION_TABLE = Table(
     key="constructions.corrections", title="a correction to U (EN ISO 6946 Annex F)",
     sheet="Corrections", variant_key="kind",
-    note="Optional corrections to U (ISO 6946 Annex F): air_gaps, fasteners, inverted_roof. "
-         "Name the layer as on the Layers sheet.",
+    note="Optional corrections to U (EN ISO 6946 Annex F): air_gaps (level), fasteners (λ "
+         "or material, section, count), inverted_roof (p, f, x). Name the layer as on the "
+         "Layers sheet.",
     columns=(
         Column("construction", "Construction name", "", "text",
                "the construction corrected", place="sheet"),

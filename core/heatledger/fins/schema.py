@@ -25,9 +25,9 @@ _TIPS = tuple(dict.fromkeys(STRAIGHT_TIPS + ANNULAR_TIPS))
 FIN_TABLE = Table(
     key="fins", title="one fin, or one fin type of a finned surface", sheet="Fins",
     variant_key="kind",
-    note="Optional: one row per fin or finned surface. Lengths in mm. Straight fins: length "
-         "with thickness (plate) or diameter (pin); annular fins: tube and fin diameters and "
-         "thickness. Array and FV columns are optional.",
+    note="Optional: one row per fin or finned surface. Lengths in mm. Straight fins: "
+         "length with thickness (plate) or diameter (pin); annular fins: tube and fin "
+         "diameters and thickness. The array and FV columns are optional.",
     columns=(
         Column("name", "Fin name", "", "text", "name of the fin, unique in the project",
                required=True),

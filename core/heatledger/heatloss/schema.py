@@ -43,8 +43,8 @@ def _boundary_columns(what: str) -> tuple:
 BUILDING_TABLE = Table(
     key="building", many=False, title="building-wide data: degree-days and ground",
     sheet="Building",
-    note="Optional, one row: degree-days with their base temperature, and the ground data "
-         "(θ_m,e, groundwater, soil) of ground elements.",
+    note="Optional, one row, for the heat loss: the degree-days with their base "
+         "temperature, and the ground data (θ_m,e, groundwater, soil) of ground elements.",
     columns=(
         Column("name", "Building name", "", "text", "building name"),
         Column("degree_days", "Degree-days DD", "K day", "number",
@@ -69,8 +69,9 @@ BUILDING_TABLE = Table(
 
 ROOM_TABLE = Table(
     key="rooms", title="a heated room", sheet="Rooms", extra=("elements", "thermal_bridges"),
-    note="One row per heated room; θ_int blank = the design inside temperature. Ventilation "
-         "basis air_change (1/h) or flow (m3/h).",
+    note="One row per heated room with its volume and ventilation; a blank θ_int takes the "
+         "design inside temperature from the Project sheet. Ventilation basis air_change "
+         "(1/h) or flow (m3/h).",
     columns=(
         Column("name", "Room name", "", "text", "room name, unique in the building",
                required=True),
@@ -107,9 +108,10 @@ ROOM_TABLE = Table(
 ELEMENT_TABLE = Table(
     key="rooms.elements", title="a wall, window, roof or floor of a room", sheet="Elements",
     variant_key="method",
-    note="One row per element, naming its room. Method: construction, declared, window, "
-         "slab_on_ground, suspended_floor, heated_basement. Boundary: outside, ground, "
-         "unheated, room, adjacent.",
+    note="One row per wall, window, roof or floor, naming its room. The method says how "
+         "its U is found (construction, declared, window, slab_on_ground, suspended_floor, "
+         "heated_basement) and the boundary what lies beyond it (outside, ground, "
+         "unheated, room, adjacent); fill in the columns that method and boundary name.",
     columns=(
         Column("room_name", "Room", "", "text", "the room the element belongs to",
                place="sheet"),
@@ -216,7 +218,8 @@ ELEMENT_TABLE = Table(
 BRIDGE_TABLE = Table(
     key="rooms.thermal_bridges", title="a linear or point thermal bridge of a room",
     sheet="Bridges",
-    note="Thermal bridges: ψ and length (linear) or χ and count (point), naming the room.",
+    note="Thermal bridges of a room: ψ and length (linear) or χ and count (point), naming "
+         "the room.",
     columns=(
         Column("room_name", "Room", "", "text", "the room the bridge belongs to",
                place="sheet"),

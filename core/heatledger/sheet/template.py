@@ -254,30 +254,13 @@ def _instructions(plan: WorkbookPlan, with_examples: bool) -> None:
                         print_setup=_print("Instructions"))
     b = sh.block("text")
     b.put("B1", "heatledger project template", style="hl title")
-    lines = [
-        "1. Project: fill in the project information and the design temperatures (column C).",
-        "2. Materials: add your own materials (declared values of the products used); the "
-        "generic library is listed on the Lists sheet.",
-        "3. Constructions: one row per wall, roof or floor, with its heat-flow direction, area "
-        "and target U where you have one.",
-        "4. Layers: one row per layer, inside to outside, each naming its construction. "
-        "Thickness in mm. Kind 'material' needs a material or λ; 'declared' a resistance; "
-        "'air' a ventilation class (and vent area when slightly ventilated); 'bridged' a "
-        "material, a bridging material or λ and the bridging fraction.",
-        "5. Corrections (optional): air_gaps (level), fasteners (λ or material, section, "
-        "count), inverted_roof (p, f, x).",
-        "6. Building (optional, for the heat loss): one row with the degree-days and their "
-        "base temperature, and the ground data of ground floors.",
-        "7. Rooms: one row per heated room with its volume and ventilation; a blank θ_int "
-        "takes the design inside temperature from the Project sheet.",
-        "8. Elements: one row per wall, window, roof or floor, naming its room. The method "
-        "says how its U is found (construction, declared, window, slab_on_ground, "
-        "suspended_floor, heated_basement) and the boundary what lies beyond it (outside, "
-        "ground, unheated, room, adjacent); fill in the columns that method and boundary name.",
-        "9. Bridges: thermal bridges of a room, ψ and length (linear) or χ and count (point).",
-        "10. Fins (optional): one row per fin or finned surface; lengths in mm.",
-        "11. Run: heatledger audit this-file.xlsx -o audit.xlsx, open audit.xlsx, let the "
-        "spreadsheet program recalculate, and check that the cover says ALL CHECKS OK.",
+    lines = ["1. Project: fill in the project information and the design temperatures "
+             "(column C)."]
+    lines += [f"{i}. {table.sheet}: {table.note[0].lower()}{table.note[1:]}"
+              for i, table in enumerate(TABLES, 2)]
+    lines += [
+        f"{len(TABLES) + 2}. Run: heatledger audit this-file.xlsx -o audit.xlsx, open audit.xlsx, "
+        "let the spreadsheet program recalculate, and check that the cover says ALL CHECKS OK.",
         "Sand cells are inputs. Blank rows are skipped; sheets you do not need stay empty. Do "
         "not rename the sheets or move the header rows: the reader checks them and names "
         "every problem by sheet and cell.",
