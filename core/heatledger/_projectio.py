@@ -7,10 +7,9 @@ instead of raising, so a project reports all its problems at once.
 
 from __future__ import annotations
 
-import math
-
-from ._validate import ABSOLUTE_ZERO, LIMITS, limit_rule, show
+from ._validate import ABSOLUTE_ZERO, show
 from .errors import HeatLedgerError
+from .schema import Column, value_problem
 
 __all__ = ["number", "text", "table", "table_list", "unknown", "required_number", "error_text",
            "ABSOLUTE_ZERO"]
@@ -52,35 +51,17 @@ def number(row, key, where, problems, *, default=None, required=False, positive=
     float or None
         The value as a float, ``default`` when missing, None when it has a problem.
     """
-    value = row.get(key) if isinstance(row, dict) else None
-    path = f"{where}.{key}" if where else key
-    if value is None or value == "":
-        if required:
-            problems.append((path, "is required"))
-        return default
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        kind = " (text)" if isinstance(value, str) else ""
-        problems.append((path, f"must be a number; got {show(value)}{kind}"))
-        return None
-    value = float(value)
-    if not math.isfinite(value):
-        problems.append((path, f"must be a finite number; got {show(value)}"))
-        return None
-    if positive and value <= 0.0:
-        problems.append((path, f"must be greater than zero; got {value:g}"))
-        return None
-    if non_negative and value < 0.0:
-        problems.append((path, f"must not be negative; got {value:g}"))
-        return None
     if above_absolute_zero:
         limit = "temperature"
-    if limit is not None:
-        rule = limit_rule(limit, value, scale=scale, unit=unit)
-        if rule is not None:
-            problems.append((path, f"must be {rule}; got {value:g} "
-                             f"{unit or LIMITS[limit].unit}"))
-            return None
-    return value
+    col = Column(key, key, unit or "", "number", "", required=required, limit=limit,
+                 scale=scale, sign="positive" if positive else
+                 "non_negative" if non_negative else "")
+    value = row.get(key) if isinstance(row, dict) else None
+    problem = value_problem(col, value)
+    if problem is not None:
+        problems.append((f"{where}.{key}" if where else key, problem))
+        return None
+    return default if value is None or value == "" else float(value)
 
 
 def text(row, key, where, problems, *, default=""):
