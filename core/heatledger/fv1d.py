@@ -17,7 +17,8 @@ to the surroundings. The discrete equations are
 
 with boundary conductances ``G_b`` and sources ``b`` set by the boundary conditions (fixed
 temperature, surface resistance to an ambient, or fixed heat flux). The system is tridiagonal
-and is solved in O(N) by LAPACK's tridiagonal solver (``?gtsv``); no dense matrix is formed.
+symmetric and positive definite, and is solved in O(N) by LAPACK's ``?pttrf``/``?pttrs`` (one
+factorisation, reused for refinement); no dense matrix is formed.
 
 References
 ----------

@@ -22,7 +22,8 @@ METHODS = (
     "U-value reported to two significant figures: EN ISO 6946:2017, clause 8",
     "Temperatures: steady-state resistance ladder, and 1-D cell-centred finite volumes "
     "(S. V. Patankar, Numerical Heat Transfer and Fluid Flow, 1980, ch. 4): Thomas algorithm "
-    "in the sheet, LAPACK gtsv in the engine; mesh check by Richardson extrapolation",
+    "in the sheet, LAPACK pttrf/pttrs in the engine; mesh estimate from three meshes with "
+    "the observed order (Roache 1998), or exact where the scheme is proven exact for the case",
 )
 
 

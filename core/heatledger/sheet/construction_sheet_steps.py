@@ -265,7 +265,7 @@ def _nodal_heading(st) -> None:
     w.put(2, "Cell-centred finite volumes; face conductance G = 1/(w_i/(2k_i) + w_(i+1)/(2k_("
              "i+1))); a_P T_i = a_W T_(i−1) + a_E T_(i+1) + b. Solved here by the Thomas "
              "algorithm (P_i = a_E/(a_P − a_W P_(i−1)), Q_i = (b + a_W Q_(i−1))/(a_P − a_W "
-             "P_(i−1)), T_i = P_i T_(i+1) + Q_i); by the engine with LAPACK gtsv.",
+             "P_(i−1)), T_i = P_i T_(i+1) + Q_i); by the engine with LAPACK pttrf/pttrs.",
           role="note")
     w.row += 1
     n = fv.temperature.size

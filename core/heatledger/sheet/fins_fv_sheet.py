@@ -51,7 +51,7 @@ def _fvs_setup(state) -> None:
     w.put(2, "a_P T_i = a_W T_(i−1) + a_E T_(i+1) + b with the loss to the fluid as the "
              "source S = S_c + S_p T; G = 1/(dx/(2λA_i) + dx/(2λA_(i+1))). Solved here by the "
              "Thomas algorithm (P_i = a_E/(a_P − a_W P_(i−1)), Q_i = (b + a_W Q_(i−1))/(a_P − "
-             "a_W P_(i−1)), T_i = P_i T_(i+1) + Q_i); by the engine with LAPACK gtsv.",
+             "a_W P_(i−1)), T_i = P_i T_(i+1) + Q_i); by the engine with LAPACK pttrf/pttrs.",
           role="note")
     w.row += 1
     cells = w.value_row("number of cells N [-]", value=float(n), fmt="0")
