@@ -167,7 +167,7 @@ ENGINE = [(n, o) for n, o in ALL if _engine_function(n, o)]
 @pytest.mark.parametrize(("name", "obj"), ENGINE, ids=[c[0] for c in ENGINE])
 def test_every_public_engine_function_names_its_source(name, obj):
     doc = obj.__doc__ or ""
-    assert "References\n" in inspect.cleandoc(doc) or "[source:" in doc, (
+    assert "References\n" in inspect.cleandoc(doc) or "[" + "source:" in doc, (
         f"{name}: no References section and no [source: ...] pointer")
 
 

@@ -1,7 +1,8 @@
 """Layers of a construction: homogeneous, air and bridged layers (EN ISO 6946:2017, 6.7,
 6.9).
 
-Sources: [source: iso6946-layers, 6.7, 6.7.2]; [source: iso6946-airlayers, 6.9].
+Sources: [source: iso6946-layers, 6.7, 6.7.2]; [source: iso6946-airlayers, 6.9.2];
+[source: iso6946-ventilated, 6.9.3, 6.9.4].
 """
 
 from __future__ import annotations
