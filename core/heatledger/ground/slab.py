@@ -211,6 +211,7 @@ def slab_on_ground(
     ----------
     EN ISO 13370:2017, clause 8.2 and Annex B [M: recalled; worked values 0.762 and 0.222
     W/(m2 K) reproduced].
+    [source: iso13370-slab, 8.2]; edge insulation [source: iso13370-edge, Annex B].
 
     Examples
     --------

@@ -71,6 +71,10 @@ class Room:
         stated; needed when a boundary is given by temperature or is the ground. [degC]
     constructions : mapping, optional
         Constructions by name, for elements whose ``u`` is a name. [-]
+
+    References
+    ----------
+    [source: en12831-1, clause 6]; annual energy [source: degree-days].
     """
 
     name: str
@@ -354,6 +358,10 @@ class Building:
     temp_outside : float, optional
         Design external temperature at which the coefficients are stated; rooms that state
         their own must agree with it. [degC]
+
+    References
+    ----------
+    [source: en12831-1, clause 6]; annual energy [source: degree-days].
     """
 
     name: str
