@@ -88,6 +88,7 @@ def air_layer_resistance(
     ----------
     EN ISO 6946:2017, Annex D, eqs (D.1)-(D.5) and Table 8 (recalled; Table 8 is reproduced
     within 0.005 m2 K/W, see the tests).
+    [source: iso6946-airlayers, Annex D, Table 8].
 
     Examples
     --------
@@ -132,6 +133,7 @@ def air_layer_convective_coefficient(thickness, heat_flow: str):
     ----------
     EN ISO 6946:2017, Annex D, eqs (D.2)-(D.4) for a temperature difference <= 5 K
     (recalled).
+    [source: iso6946-airlayers, Annex D].
     """
     heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
     d = _thickness_array(thickness)
@@ -165,6 +167,7 @@ def ventilation_class(vent_area_mm2: float) -> str:
     References
     ----------
     EN ISO 6946:2017, 6.9.2-6.9.4 (thresholds confirmed in a secondary source).
+    [source: iso6946-ventilated, opening-area classes].
 
     Examples
     --------

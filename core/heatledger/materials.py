@@ -96,6 +96,10 @@ class MaterialLibrary:
     ----------
     materials : iterable of Material
         Initial rows; a repeated name is rejected. [-]
+
+    References
+    ----------
+    [source: iso10456, Table 3]; each row of the library names its own source.
     """
 
     def __init__(self, materials: Iterable[Material] = ()) -> None:

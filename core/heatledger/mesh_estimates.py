@@ -49,6 +49,10 @@ class MeshEstimate:
         The evidence, in words: ``"observed order from three meshes"``, ``"exact for this
         case: ..."`` with the reason, ``"converged: ..."`` where the meshes agree to the
         solver's precision, or why a conservative bound was taken.
+
+    References
+    ----------
+    [source: roache-1998].
     """
 
     quantity: str

@@ -12,7 +12,9 @@ import io
 from dataclasses import dataclass
 from functools import cache
 from importlib import resources
+from types import MappingProxyType
 
+from ._validate import choices_text, quote
 from .errors import HeatLedgerError
 
 __all__ = ["Source", "source", "all_sources", "CONFIDENCES"]
@@ -49,22 +51,30 @@ class Source:
     note: str = ""
 
 
-@cache
-def all_sources() -> dict:
-    """Every source of the table, by key.
+def all_sources():
+    """Every source of the table, by key, in the order of the table.
+
+    The table is read on the first call (``import heatledger`` does not read it).
 
     Returns
     -------
-    dict
-        Key -> :class:`Source`. [-]
+    Mapping
+        Key -> :class:`Source`, read-only. [-]
 
-    References
-    ----------
-    [source: bipm-si] and the other rows of ``data/sources.csv``.
+    Examples
+    --------
+    >>> all_sources()["iso6946-surfaces"].edition
+    '2017'
     """
+    return _table()
+
+
+@cache
+def _table():
     text = resources.files("heatledger").joinpath("data/sources.csv").read_text("utf-8")
     body = "".join(line for line in text.splitlines(True) if not line.startswith("#"))
-    return {row["key"]: Source(**row) for row in csv.DictReader(io.StringIO(body))}
+    rows = {row["key"]: Source(**row) for row in csv.DictReader(io.StringIO(body))}
+    return MappingProxyType(rows)
 
 
 def source(key: str) -> Source:
@@ -78,9 +88,16 @@ def source(key: str) -> Source:
     Returns
     -------
     Source
+        Its citation, edition, clauses, confidence and note. [-]
+
+    Raises
+    ------
+    HeatLedgerError
+        When no row of the sources table has that key; the message lists the keys.
     """
     try:
         return all_sources()[key]
     except KeyError:
-        raise HeatLedgerError(f"no source is called {key!r}; the sources are "
-                              f"{', '.join(sorted(all_sources()))}") from None
+        raise HeatLedgerError(
+            f"no source is called {quote(key)} in the sources table (data/sources.csv); "
+            f"use one of {choices_text(sorted(all_sources()))}") from None

@@ -66,6 +66,7 @@ def surface_resistance(side: str, heat_flow: str) -> float:
     References
     ----------
     EN ISO 6946:2017, 6.8, Table 7.
+    [source: iso6946-surfaces, 6.8, Table 7].
 
     Examples
     --------
@@ -116,6 +117,7 @@ def surface_resistance_calc(
     ----------
     EN ISO 6946:2017, Annex C, eqs (C.1)-(C.4) (recalled; the Table 7 values are reproduced,
     see the tests).
+    [source: iso6946-surfaces, Annex C].
 
     Examples
     --------
@@ -151,6 +153,7 @@ def radiative_coefficient_black_body(temp_mean: float) -> float:
     References
     ----------
     EN ISO 6946:2017, Annex C, eq. (C.3).
+    [source: iso6946-surfaces, Annex C].
 
     Examples
     --------

@@ -195,6 +195,7 @@ def window(
     References
     ----------
     EN ISO 10077-1:2017, clause 6, whole-window equation with opaque panels [M: recalled].
+    [source: iso10077-1, clause 6].
 
     Examples
     --------
@@ -330,6 +331,7 @@ def declared_window(u_value, *, source: str, area=None) -> DeclaredWindow:
     References
     ----------
     EN ISO 10077-1:2017, scope (declared values of products may replace the calculation) [M].
+    [source: iso10077-1, scope].
     """
     u = _validate.positive("u_value", u_value, "W/(m2 K)")
     if not isinstance(source, str) or not source.strip():
@@ -372,6 +374,7 @@ def window_with_shutter_u(window_u_value, shutter_resistance):
     References
     ----------
     EN ISO 10077-1:2017, clause 6, window with closed shutter [M: recalled].
+    [source: iso10077-1, clause 6].
     """
     uw = _non_negative_array("window_u_value", window_u_value, "W/(m2 K)")
     if np.any(uw <= 0.0):
@@ -431,6 +434,7 @@ def psi_glazing_table(path=None) -> tuple[PsiGlazingRow, ...]:
     References
     ----------
     EN ISO 10077-1:2006 Tables E.1 and E.2; EN ISO 10077-1:2017 Annex G [M: recalled].
+    [source: iso10077-1, Annex G].
     """
     if path is None:
         text = resources.files("heatledger").joinpath("data", _PSI_TABLE_FILE).read_text(
@@ -502,6 +506,7 @@ def psi_glazing_default(frame: str, glazing: str, *, spacer: str = "conventional
     References
     ----------
     EN ISO 10077-1:2006 Tables E.1 and E.2; EN ISO 10077-1:2017 Annex G [M: recalled].
+    [source: iso10077-1, Annex G].
 
     Examples
     --------
@@ -575,6 +580,7 @@ def perimeter_lower_bound(area, shape: str = "rectilinear"):
     ----------
     G. Polya, *Mathematics and Plausible Reasoning*, vol. 1, ch. VIII (isoperimetric
     problem), Princeton 1954.
+    [source: polya-1954, ch. VIII].
     """
     shape = _validate.choice("shape", shape, PERIMETER_SHAPES)
     return _out(_perimeter_bound(_non_negative_array("area", area, "m2"), shape))

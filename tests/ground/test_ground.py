@@ -141,7 +141,7 @@ def test_default_conductivity_is_category_2():
 
 
 def iso13370_psi_edge(orientation, d, dt, r_n, d_n, lam):
-    """from memory: EN ISO 13370 Annex B [source: iso13370-slab]: R' = Rn - dn/lam, d' = R' lam,
+    """from memory: EN ISO 13370 Annex B [source: iso13370-edge]: R' = Rn - dn/lam, d' = R' lam,
     horizontal psi = -(lam/pi)[ln(D/dt + 1) - ln(D/(dt + d') + 1)], vertical with 2D."""
     dprime = (r_n - d_n / lam) * lam
     x = d if orientation == "horizontal" else 2 * d

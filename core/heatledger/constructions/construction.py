@@ -88,6 +88,11 @@ class Construction:
     Temperatures through the layers exclude the corrections (they represent local 3-D
     effects).
 
+    References
+    ----------
+    [source: iso6946-layers, 6.7]; [source: iso6946-surfaces, 6.8];
+    [source: iso6946-corrections, Annex F]; temperatures [source: patankar-1980, ch. 4].
+
     Examples
     --------
     >>> wall = Construction([Layer(0.1, 1.0), Layer(0.1, 0.04)])

@@ -34,6 +34,10 @@ class AirGapCorrection:
     Notes
     -----
     ``Delta U_g = Delta U'' (R_1 / R_T,h)^2`` (F.2, recalled).
+
+    References
+    ----------
+    [source: iso6946-corrections, F.2].
     """
 
     layer: int
@@ -59,6 +63,7 @@ class AirGapCorrection:
 
     @property
     def label(self) -> str:
+        """The correction as the sheets and reports name it. [-]"""
         return f"air gaps, level {self.level} (ISO 6946 F.2)"
 
 
@@ -90,6 +95,10 @@ class FastenerCorrection:
     2017: ``Delta U_f = alpha lambda_f A_f n_f / d_0 (R_1/R_T,h)^2`` with alpha = 0.8 (fully
     penetrating) or ``0.8 d_1/d_0`` (recessed). 2007: ``Delta U_f = alpha lambda_f n_f A_f
     (R_1/R_T,h)^2``. No correction when ``lambda_f < 1`` W/(m K). (Recalled.)
+
+    References
+    ----------
+    [source: iso6946-corrections, F.3].
     """
 
     layer: int
@@ -134,6 +143,7 @@ class FastenerCorrection:
 
     @property
     def label(self) -> str:
+        """The correction as the sheets and reports name it. [-]"""
         return f"mechanical fasteners (ISO 6946 F.3, {self.edition} form)"
 
 
@@ -155,6 +165,10 @@ class InvertedRoofCorrection:
     Notes
     -----
     ``Delta U_r = p f x (R_1/R_T)^2`` (EN ISO 6946:2017 F.4, recalled; x = 0.04 recalled).
+
+    References
+    ----------
+    [source: iso6946-corrections, F.4].
     """
 
     layer: int
@@ -181,4 +195,5 @@ class InvertedRoofCorrection:
 
     @property
     def label(self) -> str:
+        """The correction as the sheets and reports name it. [-]"""
         return "inverted roof, rain water (ISO 6946 F.4)"

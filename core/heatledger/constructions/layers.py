@@ -1,7 +1,8 @@
 """Layers of a construction: homogeneous, air and bridged layers (EN ISO 6946:2017, 6.7,
 6.9).
 
-Sources: [source: iso6946-layers, 6.7, 6.7.2]; [source: iso6946-airlayers, 6.9].
+Sources: [source: iso6946-layers, 6.7, 6.7.2]; [source: iso6946-airlayers, 6.9.2];
+[source: iso6946-ventilated, 6.9.3, 6.9.4].
 """
 
 from __future__ import annotations
@@ -79,6 +80,10 @@ class Layer:
     Notes
     -----
     ``R = d / lambda`` (EN ISO 6946:2017, 6.7.1, eq. (4), recalled numbering).
+
+    References
+    ----------
+    [source: iso6946-layers, 6.7 (R = d/lambda)].
     """
 
     __slots__ = ("thickness", "conductivity", "declared_resistance", "name", "material",
@@ -159,6 +164,10 @@ class AirLayer:
     ``R_T = (1500 - Av)/1000 R_T,u + (Av - 500)/1000 R_T,v``. Well ventilated: the air layer
     and all layers outside it are disregarded and the external surface resistance becomes
     that of still air (the Rsi of the same heat-flow direction).
+
+    References
+    ----------
+    [source: iso6946-airlayers, 6.9.2]; [source: iso6946-ventilated, 6.9.3, 6.9.4].
     """
 
     kind = "air"
@@ -243,6 +252,10 @@ class BridgedLayer:
     ``1/R_j = sum_q f_q / R_qj`` for this layer (EN ISO 6946:2017, 6.7.2). Where several
     layers are bridged, sections are all combinations of their parts with the product of
     the fractions (layouts assumed independent, such as crossed battens).
+
+    References
+    ----------
+    [source: iso6946-layers, 6.7.2 (upper and lower limits)].
     """
 
     kind = "bridged"

@@ -181,6 +181,10 @@ class ConstructionTemperatures:
         of the estimate (0 where the scheme is exact). [K]
     estimator : callable
         Computes the mesh estimate on first access (internal). [-]
+
+    References
+    ----------
+    [source: patankar-1980, ch. 4]; mesh estimate [source: roache-1998].
     """
 
     x: np.ndarray

@@ -71,6 +71,7 @@ class AnnularFin(FinBase):
     F. P. Incropera, D. P. DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., Wiley
     2007, section 3.6.3 and Table 3.5 (annular fin; equation numbers recalled).
     D. Q. Kern, *Process Heat Transfer*, McGraw-Hill 1950, eq. 16.58.
+    [source: incropera-6, 3.6.3, Table 3.5]; [source: kern-1950, eq. 16.58].
 
     Examples
     --------

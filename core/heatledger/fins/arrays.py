@@ -56,6 +56,7 @@ class FinArray:
     ----------
     Incropera & DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., section 3.6.5,
     eqs. 3.102-3.108 (numbers recalled).
+    [source: incropera-6, 3.6.5].
     """
 
     fin: object

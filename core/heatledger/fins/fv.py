@@ -172,6 +172,7 @@ def solve_fin_fv(
     S. V. Patankar, *Numerical Heat Transfer and Fluid Flow*, Hemisphere 1980, ch. 4 and 7.
     Incropera & DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., eq. 3.61 (general
     fin equation, number recalled).
+    [source: patankar-1980, ch. 4, 7.2]; [source: incropera-6, 3.6].
     """
     length = v.positive("length", length, "m")
     k = v.positive("conductivity", conductivity, "W/(m K)")

@@ -105,6 +105,7 @@ class StraightFin(FinBase):
     F. P. Incropera, D. P. DeWitt, *Fundamentals of Heat and Mass Transfer*, 6th ed., Wiley
     2007: section 3.6, Table 3.4 (eqs. 3.70-3.81: distributions and heat rates, numbers
     recalled), eqs. 3.86-3.91 (efficiency, corrected length, recalled), Table 3.5.
+    [source: incropera-6, 3.6, Tables 3.4 and 3.5].
 
     Examples
     --------

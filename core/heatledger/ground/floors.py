@@ -158,6 +158,7 @@ def suspended_floor(
     References
     ----------
     EN ISO 13370:2017, clause 8.3 [M: recalled].
+    [source: iso13370-floors, 8.3].
     """
     outline = _validate.choice("exposed_outline", exposed_outline, EXPOSED_OUTLINES)
     a, p = _scalar_area_perimeter(area, exposed_perimeter, outline, "suspended_floor")
@@ -329,6 +330,7 @@ def heated_basement(
     References
     ----------
     EN ISO 13370:2017, clause 8.4 [M: recalled].
+    [source: iso13370-floors, 8.4].
     """
     outline = _validate.choice("exposed_outline", exposed_outline, EXPOSED_OUTLINES)
     a, p = _scalar_area_perimeter(area, exposed_perimeter, outline, "heated_basement")

@@ -5,7 +5,7 @@ References
 EN ISO 13370:2017, clause 8.2 and Annex B [M: recalled; worked values
 0.762 and 0.222 W/(m2 K) reproduced].
 
-Sources: [source: iso13370-slab, 8.2, Annex B, Table 7].
+Sources: [source: iso13370-slab, 8.2, Table 7]; [source: iso13370-edge, Annex B].
 """
 
 from __future__ import annotations
@@ -211,6 +211,7 @@ def slab_on_ground(
     ----------
     EN ISO 13370:2017, clause 8.2 and Annex B [M: recalled; worked values 0.762 and 0.222
     W/(m2 K) reproduced].
+    [source: iso13370-slab, 8.2]; edge insulation [source: iso13370-edge, Annex B].
 
     Examples
     --------

@@ -80,6 +80,7 @@ def ground_conductivity(soil: str) -> float:
     References
     ----------
     EN ISO 13370:2017, Table 7 [C].
+    [source: iso13370-slab, Table 7].
 
     Examples
     --------
@@ -115,6 +116,7 @@ def ground_heat_capacity(soil: str) -> float:
     References
     ----------
     EN ISO 13370:2017, Table 7 [M: recalled].
+    [source: iso13370-slab, Table 7].
     """
     key = _validate.choice("soil", soil, tuple(SOIL_TYPES))
     return SOIL_TYPES[key][2]

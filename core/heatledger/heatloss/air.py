@@ -77,6 +77,7 @@ def ventilation_heat_loss_coefficient(
     References
     ----------
     EN 12831-1:2017, clause 6 (ventilation heat-loss coefficient) [M].
+    [source: en12831-1, clause 6].
 
     Examples
     --------

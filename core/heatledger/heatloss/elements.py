@@ -35,7 +35,12 @@ ELEMENT_KINDS = ("wall", "roof", "ceiling", "floor", "window", "door", "other")
 
 @dataclass(frozen=True)
 class Outside:
-    """The element faces the external air (factor 1)."""
+    """The element faces the external air (factor 1).
+
+    References
+    ----------
+    [source: en12831-1, clause 6 (transmission to the external air)].
+    """
 
     def describe(self) -> str:
         """Text for the breakdown. [-]"""
@@ -55,6 +60,10 @@ class Ground:
     groundwater_factor : float, optional
         ``G_w``: 1.00 when the water table is more than 1 m below the floor, 1.15 when it is
         1 m or less [M]. [-]
+
+    References
+    ----------
+    [source: en12831-1, clause 6 (ground factors f_g1, f_g2, G_w)]; [source: iso13370-slab, 8.2].
     """
 
     annual_mean_external_temperature: float
@@ -76,6 +85,10 @@ class Unheated:
         Temperature of the unheated space ``theta_u``. [degC]
     adjustment_factor : float, optional
         Temperature adjustment factor ``b_u`` (0..1) when the temperature is not known. [-]
+
+    References
+    ----------
+    [source: en12831-1, clause 6 (temperature adjustment factor of an unheated space)].
     """
 
     temperature: float | None = None
@@ -100,6 +113,10 @@ class AdjacentRoom:
     temperature : float, optional
         Temperature of a neighbouring space not modelled (another dwelling, another
         building). [degC]
+
+    References
+    ----------
+    [source: en12831-1, clause 6 (adjustment factor to a neighbouring heated space)].
     """
 
     room: str | None = None

@@ -236,6 +236,10 @@ class GroundFloorU:
         The inputs of the calculation by short name (``w`` [m], ``rf``, ``rw``, ``rg``
         [m2 K/W], ``h`` [m], ``uw`` [W/(m2 K)], ``eps`` [m2/m], ``v`` [m/s], ``rsiw``
         [m2 K/W]) for the calculation sheet. [-]
+
+    References
+    ----------
+    [source: iso13370-slab, 8.2]; [source: iso13370-floors, 8.3, 8.4].
     """
 
     result: object

@@ -3,11 +3,7 @@
 Caution: the design heat load supports, and does not replace, plant sizing by a competent
 person under the local building regulations and codes.
 
-References
-----------
-EN 12831-1:2017, clause 6 [M: recalled].
-
-Sources: [source: en12831-1, clause 6]; annual energy [source: degree-days].
+Sources (recalled, [M]): [source: en12831-1, clause 6]; annual energy [source: degree-days].
 """
 
 from __future__ import annotations
@@ -71,6 +67,10 @@ class Room:
         stated; needed when a boundary is given by temperature or is the ground. [degC]
     constructions : mapping, optional
         Constructions by name, for elements whose ``u`` is a name. [-]
+
+    References
+    ----------
+    [source: en12831-1, clause 6]; annual energy [source: degree-days].
     """
 
     name: str
@@ -166,9 +166,8 @@ class Room:
         Raises
         ------
         HeatLedgerError
-            If ``theta_e`` is not below the internal temperature, or an element faces a room
-            by name (only a :class:`Building` can resolve it), or a construction name is
-            unknown.
+            If ``theta_e`` is not below the internal temperature, an element faces a room by
+            name (only a :class:`Building` can resolve it) or a construction name is unknown.
 
         Notes
         -----
@@ -352,8 +351,11 @@ class Building:
         Constructions by name for elements whose ``u`` is a name (looked up after the room's
         own mapping; a name in both must be the same object). [-]
     temp_outside : float, optional
-        Design external temperature at which the coefficients are stated; rooms that state
-        their own must agree with it. [degC]
+        Design external temperature of the coefficients; a room's own must agree. [degC]
+
+    References
+    ----------
+    [source: en12831-1, clause 6]; annual energy [source: degree-days].
     """
 
     name: str
@@ -425,8 +427,7 @@ class Building:
         Raises
         ------
         HeatLedgerError
-            As :meth:`Room.heat_load`, and for an element naming a room not in the
-            building.
+            As :meth:`Room.heat_load`, and for an element naming a room not in the building.
 
         Notes
         -----
