@@ -84,6 +84,16 @@ _EXPORTS = {
         "Material",
         "MaterialLibrary",
     ),
+    "moisture": (
+        "CondensationResult",
+        "dew_point",
+        "interstitial_condensation",
+        "MonthlyClimate",
+        "saturation_pressure",
+        "surface_check",
+        "surface_factor_required",
+        "SurfaceCheck",
+    ),
     "project": (
         "load_project",
         "Project",

@@ -166,6 +166,30 @@ class Construction:
         """Treatment of a ventilated air layer, or None."""
         return self._ventilation
 
+    def surface_factor(self, resistance_inside=0.25) -> float:
+        """Temperature factor at the inside surface of the plane construction,
+        ``f_Rsi = (R_T - R_si) / R_T`` with ``R_T = R_si + sum R_j + R_se`` taken with this
+        ``R_si`` (not ``1 - U R_si`` with the U-value's own Rsi).
+
+        Parameters
+        ----------
+        resistance_inside : float
+            Inside surface resistance of the check; EN ISO 13788 takes 0.25 for opaque
+            elements (0.13 for glazing and frames). [m2 K/W]
+
+        Returns
+        -------
+        float
+            f_Rsi. [-]
+
+        References
+        ----------
+        [source: iso13788-surface, 5.2 (f_Rsi, R_si = 0.25)]; R_T [source: iso6946-layers, 6.7].
+        """
+        r_si = _surface_resistance("resistance_inside", resistance_inside)
+        r_t = self._r_total - self.rsi + r_si
+        return (r_t - r_si) / r_t
+
     def ladder_temperatures(self, inside: float, outside: float) -> np.ndarray:
         """Temperatures at the inside surface, every counted layer interface and the outside
         surface from the resistance ladder, ``theta_k = theta_i - q (Rsi + sum R_j<k)``.

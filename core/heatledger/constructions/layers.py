@@ -50,6 +50,33 @@ def _thickness(label: str, thickness) -> float:
                   "thickness")
 
 
+def _vapour(label: str, thickness: float, mu, sd, material=None) -> tuple:
+    """``(mu, sd)`` of a layer: a stated mu [-] or sd [m] (not both), else the material's mu;
+    ``sd = mu d``; ``(None, None)`` when nothing is known. ``inf`` marks a vapour-tight
+    layer. [source: iso13788-glaser, 6.2 (s_d = mu d)]."""
+    if mu is not None and sd is not None:
+        raise HeatLedgerError(f"{label}: give either vapour_resistance_factor or sd, not both")
+    if sd is not None:
+        sd = _positive_or_tight(f"{label} sd", sd, "m")
+        return sd / thickness, sd
+    if mu is None and material is not None:
+        mu = material.vapour_resistance_factor
+    if mu is None:
+        return None, None
+    mu = _positive_or_tight(f"{label} vapour_resistance_factor", mu, "-")
+    return mu, mu * thickness
+
+
+def _positive_or_tight(name: str, value, unit: str) -> float:
+    """A positive number or ``inf`` (vapour-tight)."""
+    try:
+        if float(value) == math.inf:
+            return math.inf
+    except (TypeError, ValueError):
+        pass
+    return positive(name, value, unit)
+
+
 def _conductivity(name: str, conductivity) -> float:
     """A conductivity [W/(m K)]: greater than zero and within the physical limits."""
     return within(name, positive(name, conductivity, "W/(m K)"), "conductivity")
@@ -69,7 +96,13 @@ class Layer:
     name : str
         Label for tables and messages. [-]
     material : Material or str, optional
-        A material (or its name in the generic library) giving the conductivity. [-]
+        A material (or its name in the generic library) giving the conductivity and the
+        vapour resistance factor. [-]
+    vapour_resistance_factor : float, optional
+        Water-vapour resistance factor mu (``inf`` = vapour-tight); default the material's.
+        [-]
+    sd : float, optional
+        Declared equivalent air-layer thickness (membranes, foils) instead of mu. [m]
 
     Raises
     ------
@@ -79,18 +112,20 @@ class Layer:
 
     Notes
     -----
-    ``R = d / lambda`` (EN ISO 6946:2017, 6.7.1, eq. (4), recalled numbering).
+    ``R = d / lambda`` (EN ISO 6946:2017, 6.7.1, eq. (4), recalled numbering);
+    ``s_d = mu d`` (EN ISO 13788, 6.2). ``sd`` is None when no vapour value is known; a
+    moisture check then names the layer.
 
     References
     ----------
-    [source: iso6946-layers, 6.7 (R = d/lambda)].
+    [source: iso6946-layers, 6.7 (R = d/lambda)]; [source: iso13788-glaser, 6.2 (s_d)].
     """
 
     __slots__ = ("thickness", "conductivity", "declared_resistance", "name", "material",
-                 "resistance_value", "kind")
+                 "resistance_value", "kind", "vapour_resistance_factor", "sd")
 
     def __init__(self, thickness, conductivity=None, *, resistance=None, name: str = "",
-                 material=None) -> None:
+                 material=None, vapour_resistance_factor=None, sd=None) -> None:
         label = f"layer {quote(name)}" if name else "layer"
         self.thickness = _thickness(label, thickness)
         if isinstance(material, str):
@@ -121,19 +156,25 @@ class Layer:
                 f"{label} resistance thickness/conductivity",
                 self.thickness / self.conductivity, "layer_resistance")
             self.kind = "material"
+        self.vapour_resistance_factor, self.sd = _vapour(
+            label, self.thickness, vapour_resistance_factor, sd, material)
 
     def with_thickness(self, thickness) -> Layer:
-        """The same layer with another thickness (a declared resistance scales with it).
+        """The same layer with another thickness (a declared resistance scales with it, the
+        vapour resistance factor stays).
 
         Parameters
         ----------
         thickness : float
             The new thickness. [m]
         """
+        mu = self.vapour_resistance_factor
         if self.declared_resistance is not None:
             r = self.declared_resistance * float(thickness) / self.thickness
-            return Layer(thickness, resistance=r, name=self.name, material=self.material)
-        return Layer(thickness, self.conductivity, name=self.name, material=self.material)
+            return Layer(thickness, resistance=r, name=self.name, material=self.material,
+                         vapour_resistance_factor=mu)
+        return Layer(thickness, self.conductivity, name=self.name, material=self.material,
+                     vapour_resistance_factor=mu)
 
     def __repr__(self) -> str:
         return (f"Layer({self.thickness!r}, {self.conductivity!r}, "
@@ -157,6 +198,8 @@ class AirLayer:
         metre (horizontal layers); required for ``"slightly"``. [mm2 per m or m2]
     name : str
         Label. [-]
+    sd : float, optional
+        Equivalent air-layer thickness; default the thickness (mu = 1, still air). [m]
 
     Notes
     -----
@@ -172,12 +215,15 @@ class AirLayer:
 
     kind = "air"
 
-    __slots__ = ("thickness", "ventilation", "emissivity_1", "emissivity_2", "vent_area", "name")
+    __slots__ = ("thickness", "ventilation", "emissivity_1", "emissivity_2", "vent_area", "name",
+                 "vapour_resistance_factor", "sd")
 
     def __init__(self, thickness, *, ventilation: str = "unventilated", emissivity_1=0.9,
-                 emissivity_2=0.9, vent_area=None, name: str = "") -> None:
+                 emissivity_2=0.9, vent_area=None, name: str = "", sd=None) -> None:
         label = f"air layer {quote(name)}" if name else "air layer"
         self.thickness = positive(f"{label} thickness", thickness, "m")
+        self.vapour_resistance_factor, self.sd = _vapour(
+            label, self.thickness, 1.0 if sd is None else None, sd)
         if self.thickness > MAX_AIR_LAYER_THICKNESS + 1e-12:
             raise HeatLedgerError(
                 f"{label} is {self.thickness * 1000.0:g} mm thick; the ISO 6946 Annex D "
@@ -229,7 +275,9 @@ class AirLayer:
             The new thickness. [m]
         """
         return AirLayer(thickness, ventilation=self.ventilation, emissivity_1=self.emissivity_1,
-                        emissivity_2=self.emissivity_2, vent_area=self.vent_area, name=self.name)
+                        emissivity_2=self.emissivity_2, vent_area=self.vent_area, name=self.name,
+                        sd=None if self.vapour_resistance_factor == 1.0 else
+                        self.vapour_resistance_factor * float(thickness))
 
 
 class BridgedLayer:
@@ -245,6 +293,10 @@ class BridgedLayer:
         must sum to 1. [-]
     name : str
         Label. [-]
+    vapour_resistance_factor : float, optional
+        Water-vapour resistance factor mu of the layer as a whole. [-]
+    sd : float, optional
+        Equivalent air-layer thickness of the layer instead of mu. [m]
 
     Notes
     -----
@@ -260,11 +312,14 @@ class BridgedLayer:
 
     kind = "bridged"
 
-    __slots__ = ("thickness", "parts", "name")
+    __slots__ = ("thickness", "parts", "name", "vapour_resistance_factor", "sd")
 
-    def __init__(self, thickness, parts, *, name: str = "") -> None:
+    def __init__(self, thickness, parts, *, name: str = "", vapour_resistance_factor=None,
+                 sd=None) -> None:
         label = f"bridged layer {quote(name)}" if name else "bridged layer"
         self.thickness = _thickness(label, thickness)
+        self.vapour_resistance_factor, self.sd = _vapour(label, self.thickness,
+                                                         vapour_resistance_factor, sd)
         self.name = str(name) or "bridged layer"
         cleaned = []
         try:
@@ -309,4 +364,5 @@ class BridgedLayer:
         thickness : float
             The new thickness. [m]
         """
-        return BridgedLayer(thickness, self.parts, name=self.name)
+        return BridgedLayer(thickness, self.parts, name=self.name,
+                            vapour_resistance_factor=self.vapour_resistance_factor)

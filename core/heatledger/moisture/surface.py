@@ -1,0 +1,159 @@
+"""Surface humidity: the temperature factor a construction must reach to avoid mould growth
+(or surface condensation) month by month, EN ISO 13788 clause 5.
+
+    p_sat,min = p_i / phi_si,cr          (phi_si,cr = 0.8 for mould, 1.0 for condensation)
+    theta_si,min = dew point of p_sat,min
+    f_Rsi,min = (theta_si,min - theta_e) / (theta_i - theta_e)
+
+The critical month is the month with the largest f_Rsi,min; the construction passes in a
+month when its f_Rsi (inside surface resistance 0.25 m2 K/W) exceeds f_Rsi,min.
+
+Sources: [source: iso13788-surface, clause 5]; [source: iso13788-saturation, Annex E].
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .._validate import finite
+from ..errors import HeatLedgerError
+from .psychrometrics import MONTH_NAMES, dew_point
+
+__all__ = ["surface_factor_required", "surface_check", "SurfaceCheck",
+           "CRITICAL_RH_MOULD", "CRITICAL_RH_CONDENSATION", "RESISTANCE_INSIDE_CHECK"]
+
+#: Critical surface relative humidity for mould growth, and for surface condensation. [-]
+CRITICAL_RH_MOULD = 0.8
+CRITICAL_RH_CONDENSATION = 1.0
+#: Inside surface resistance of the surface check for opaque elements. [m2 K/W]
+RESISTANCE_INSIDE_CHECK = 0.25
+
+
+def _critical_rh(value) -> float:
+    v = finite("critical_rh", value)
+    if 1.0 < v <= 100.0:
+        raise HeatLedgerError(f"critical_rh = {v:g} looks like a percentage: give it as a "
+                              f"fraction ({v / 100.0:g})")
+    if not 0.0 < v <= 1.0:
+        raise HeatLedgerError(f"critical_rh = {v:g}: the critical surface relative humidity "
+                              "must be above 0 and at most 1 (0.8 mould, 1.0 condensation)")
+    return v
+
+
+def surface_factor_required(climate, *, critical_rh=CRITICAL_RH_MOULD) -> np.ndarray:
+    """The minimum temperature factor ``f_Rsi,min`` of each month.
+
+    Parameters
+    ----------
+    climate : MonthlyClimate
+        Twelve monthly means, January first. [-]
+    critical_rh : float
+        Critical relative humidity at the surface: 0.8 (mould) or 1.0 (condensation). [-]
+
+    Returns
+    -------
+    ndarray (12,)
+        f_Rsi,min [-]; NaN in a month whose outside is not colder than the inside (the
+        check does not apply).
+
+    References
+    ----------
+    [source: iso13788-surface, 5.2 and 5.3 (f_Rsi,min, critical month)].
+    """
+    phi = _critical_rh(critical_rh)
+    t_min = dew_point(climate.vapour_pressure_inside / phi)
+    diff = climate.temp_inside - climate.temp_outside
+    with np.errstate(divide="ignore", invalid="ignore"):
+        f = (t_min - climate.temp_outside) / diff
+    return np.where(diff > 0.0, f, np.nan)
+
+
+@dataclass(frozen=True, eq=False)
+class SurfaceCheck:
+    """The surface check of one construction (or junction) in one climate.
+
+    Attributes
+    ----------
+    required : ndarray (12,)
+        f_Rsi,min per month (NaN where the check does not apply). [-]
+    surface_factor : float
+        f_Rsi of the construction. [-]
+    critical_month : int or None
+        Month of the largest f_Rsi,min (0 = January). [-]
+    passes : ndarray (12,) of bool
+        f_Rsi > f_Rsi,min (True where the check does not apply). [-]
+    temp_surface_min, temp_surface : ndarray (12,)
+        Lowest acceptable inside surface temperature and the construction's. [degC]
+    critical_rh, resistance_inside : float
+        Settings of the check. [-], [m2 K/W]
+    """
+
+    required: np.ndarray
+    surface_factor: float
+    critical_month: int | None
+    passes: np.ndarray
+    temp_surface_min: np.ndarray
+    temp_surface: np.ndarray
+    critical_rh: float
+    resistance_inside: float
+
+    @property
+    def ok(self) -> bool:
+        """True when every month passes. [-]"""
+        return bool(np.all(self.passes))
+
+    @property
+    def verdict(self) -> str:
+        """One line for reports. [-]"""
+        what = "mould" if self.critical_rh < 1.0 else "surface condensation"
+        if self.critical_month is None:
+            return "the outside is never colder than the inside: no surface check applies"
+        f_max = self.required[self.critical_month]
+        word = "passes" if self.ok else "FAILS"
+        return (f"{what} check {word}: f_Rsi {self.surface_factor:.3f} against f_Rsi,min "
+                f"{f_max:.3f} in {MONTH_NAMES[self.critical_month]} (critical month)")
+
+
+def surface_check(construction, climate, *, critical_rh=CRITICAL_RH_MOULD,
+                  resistance_inside=RESISTANCE_INSIDE_CHECK, surface_factor=None):
+    """Month-by-month surface check of a construction (or of a junction's f_Rsi).
+
+    Parameters
+    ----------
+    construction : heatledger.Construction or None
+        The plane construction; its ``surface_factor(resistance_inside)`` is used unless
+        ``surface_factor`` is given. [-]
+    climate : MonthlyClimate
+        Twelve monthly means, January first. [-]
+    critical_rh : float
+        0.8 (mould) or 1.0 (surface condensation). [-]
+    resistance_inside : float
+        Inside surface resistance of the check. [m2 K/W]
+    surface_factor : float, optional
+        f_Rsi of a junction (from a 2-D calculation) instead of the construction's. [-]
+
+    Returns
+    -------
+    SurfaceCheck
+
+    References
+    ----------
+    [source: iso13788-surface, 5.2 and 5.3].
+    """
+    required = surface_factor_required(climate, critical_rh=critical_rh)
+    if surface_factor is None:
+        f = construction.surface_factor(resistance_inside)
+    else:
+        f = finite("surface_factor", surface_factor)
+    valid = ~np.isnan(required)
+    critical = int(np.nanargmax(required)) if valid.any() else None
+    t_i, t_e = climate.temp_inside, climate.temp_outside
+    with np.errstate(invalid="ignore"):
+        passes = np.where(valid, f > required, True)
+    return SurfaceCheck(
+        required=required, surface_factor=float(f), critical_month=critical,
+        passes=passes, temp_surface_min=t_e + required * (t_i - t_e),
+        temp_surface=t_e + f * (t_i - t_e), critical_rh=_critical_rh(critical_rh),
+        resistance_inside=float(resistance_inside))
