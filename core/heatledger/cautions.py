@@ -33,11 +33,20 @@ CAUTIONS: dict[str, str] = {
         "and emitters under the local code by a competent person: check design temperatures, "
         "air flows, adjustment factors and allowances against the rules that apply."
     ),
+    "moisture": (
+        "Moisture results (EN ISO 13788) are a steady monthly diffusion check: they ignore air "
+        "leakage, rain, built-in and rising moisture, moisture storage and workmanship, which "
+        "often matter more. A pass is not proof that a construction is free of moisture "
+        "damage, nor a failure proof that it will be damaged; follow the local codes, "
+        "product guidance and licensed practice, and use a transient hygrothermal assessment "
+        "(EN 15026) where the risk warrants it."
+    ),
 }
 
 #: Topics shown only where they apply (named explicitly), not in the default list:
-#: ``hot_surfaces`` when a project has fins, ``plant_sizing`` when it has rooms.
-ON_REQUEST = ("hot_surfaces", "plant_sizing")
+#: ``hot_surfaces`` when a project has fins, ``plant_sizing`` when it has rooms,
+#: ``moisture`` when it has moisture checks.
+ON_REQUEST = ("hot_surfaces", "plant_sizing", "moisture")
 
 
 def caution_lines(*topics: str) -> list[str]:

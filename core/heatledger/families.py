@@ -161,6 +161,9 @@ FAMILIES = (
     Family("heatloss", "Heat loss of rooms and buildings (EN 12831-1, EN ISO 13370)",
            ("rooms", "building"), "building", None, "building", ("plant_sizing",),
            _hooks("heatloss", "blocks_heatloss", "template_rooms", "udfs_heatloss")),
+    Family("moisture", "Surface humidity and interstitial condensation (EN ISO 13788)",
+           ("climates", "moisture"), "moisture", [], "moisture", ("moisture",),
+           _hooks("moisture", "blocks_moisture", "template_moisture", "udfs_moisture")),
 )
 
 

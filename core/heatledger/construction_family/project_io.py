@@ -233,6 +233,7 @@ def _layer(row, where, library, problems):
                          f"Annex D method covers air layers up to "
                          f"{MAX_AIR_LAYER_THICKNESS * 1000.0:g} mm: treat a larger space as an "
                          "unheated space or a room"))
+    vapour = _vapour(row, where, problems)
     if len(problems) > start:
         return None
     d = d_mm / 1000.0
@@ -241,13 +242,15 @@ def _layer(row, where, library, problems):
                                              problems)
         if lam is None:
             return None
-        return Layer(d, lam, name=name or (mat.name if mat else ""), material=mat)
+        return Layer(d, lam, name=name or (mat.name if mat else ""), material=mat, **vapour)
     if kind == "declared":
         r = number(row, "resistance", where, problems, positive=True, required=True,
                    limit="layer_resistance")
-        return None if r is None else Layer(d, resistance=r, name=name)
+        return None if r is None else Layer(d, resistance=r, name=name, **vapour)
     if kind == "air":
-        return _air_layer(row, d, name, where, problems)
+        mu = vapour.get("vapour_resistance_factor")
+        return _air_layer(row, d, name, where, problems,
+                          vapour.get("sd", None if mu is None else mu * d))
     mat, lam = _material_or_conductivity(row, "material", "conductivity", where, library,
                                          problems)
     bmat, blam = _material_or_conductivity(row, "bridging_material", "bridging_conductivity",
@@ -260,10 +263,24 @@ def _layer(row, where, library, problems):
                          f"the area taken by studs, joists or battens); got {frac:g}"))
         return None
     label = name or f"{mat.name if mat else lam} bridged by {bmat.name if bmat else blam}"
-    return BridgedLayer(d, [(lam, 1.0 - frac), (blam, frac)], name=label)
+    if not vapour and mat is not None and mat.vapour_resistance_factor is not None:
+        vapour = {"vapour_resistance_factor": mat.vapour_resistance_factor}
+    return BridgedLayer(d, [(lam, 1.0 - frac), (blam, frac)], name=label, **vapour)
 
 
-def _air_layer(row, d, name, where, problems):
+def _vapour(row, where, problems) -> dict:
+    """The layer's stated vapour value (mu or sd, not both) as keyword arguments."""
+    mu = number(row, "vapour_resistance_factor", where, problems, positive=True)
+    sd = number(row, "sd", where, problems, positive=True)
+    if mu is not None and sd is not None:
+        problems.append((f"{where}.sd", "give either vapour_resistance_factor or sd, not "
+                         "both"))
+        return {}
+    return ({"vapour_resistance_factor": mu} if mu is not None else {}) | (
+        {"sd": sd} if sd is not None else {})
+
+
+def _air_layer(row, d, name, where, problems, sd=None):
     start = len(problems)
     eps = [number(row, key, where, problems, default=0.9) for key in ("emissivity_1",
                                                                        "emissivity_2")]
@@ -279,7 +296,7 @@ def _air_layer(row, d, name, where, problems):
     if len(problems) > start:
         return None
     return AirLayer(d, ventilation=ventilation, emissivity_1=eps[0], emissivity_2=eps[1],
-                    vent_area=vent, name=name)
+                    vent_area=vent, name=name, sd=sd)
 
 
 def _correction(row, where, layers_in, library, problems):

@@ -142,6 +142,12 @@ LAYER_TABLE = Table(
                limit="conductivity", sign="positive", variants=_BR),
         Column("bridging_fraction", "Bridging fraction", "-", "number",
                "fraction of the area taken by the bridging", variants=_BR),
+        Column("vapour_resistance_factor", "μ (moisture)", "-", "number",
+               "water-vapour resistance factor for the moisture check; blank = the "
+               "material's (air layers 1)", sign="positive"),
+        Column("sd", "s_d (moisture)", "m", "number",
+               "declared equivalent air-layer thickness (membranes, foils) instead of μ",
+               sign="positive"),
     ),
 )
 

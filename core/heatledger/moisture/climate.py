@@ -105,12 +105,23 @@ class MonthlyClimate:
 
     Parameters
     ----------
-    temp_outside, rh_outside : sequence of 12 float
-        Outside air temperature [degC] and relative humidity as a fraction 0..1 [-].
-    temp_inside, rh_inside : sequence of 12 float, or one float for every month
-        Inside air temperature [degC] and relative humidity [-].
+    temp_outside : sequence of 12 float
+        Outside air temperature, January first. [degC]
+    rh_outside : sequence of 12 float
+        Outside relative humidity as a fraction 0..1. [-]
+    temp_inside : sequence of 12 float, or one float for every month
+        Inside air temperature. [degC]
+    rh_inside : sequence of 12 float, or one float for every month
+        Inside relative humidity as a fraction 0..1. [-]
     name : str
         Label. [-]
+    humidity_class : int, optional
+        The internal humidity class the inside humidity came from (set by
+        :meth:`from_humidity_class`). [-]
+    vapour_pressure_excess : ndarray, optional
+        The class's vapour-pressure excess ``Delta p`` per month, before the 1.10 margin. [Pa]
+    warnings : tuple of str
+        What was adjusted (an inside humidity capped at saturation). [-]
 
     Raises
     ------
@@ -155,8 +166,10 @@ class MonthlyClimate:
 
         Parameters
         ----------
-        temp_outside, rh_outside : sequence of 12 float
-            Outside air temperature [degC] and relative humidity [-].
+        temp_outside : sequence of 12 float
+            Outside air temperature, January first. [degC]
+        rh_outside : sequence of 12 float
+            Outside relative humidity as a fraction 0..1. [-]
         humidity_class : int
             Internal humidity class 1 (storage) to 5 (special buildings). [-]
         temp_inside : float or sequence of 12 float

@@ -89,6 +89,10 @@ class CondensationResult:
     mass_balance : float
         ``sum(condensation_rate)`` minus the water left at the end of the cycle. [kg/m2]
     warnings : tuple of str
+
+    References
+    ----------
+    [source: iso13788-glaser, 6.4 and 6.5 (monthly amounts, report)].
     """
 
     start_month: int | None

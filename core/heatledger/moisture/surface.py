@@ -88,6 +88,10 @@ class SurfaceCheck:
         Lowest acceptable inside surface temperature and the construction's. [degC]
     critical_rh, resistance_inside : float
         Settings of the check. [-], [m2 K/W]
+
+    References
+    ----------
+    [source: iso13788-surface, 5.2 and 5.3].
     """
 
     required: np.ndarray
