@@ -91,6 +91,7 @@ _EXPORTS = {
         "MonthlyClimate",
         "saturation_pressure",
         "surface_check",
+        "surface_factor_min",
         "surface_factor_required",
         "SurfaceCheck",
     ),

@@ -213,9 +213,12 @@ def interstitial_condensation(construction, climate) -> CondensationResult:
     p_sat = saturation_pressure(temps)
     p_in, p_out = climate.vapour_pressure_inside, climate.vapour_pressure_outside
     n_if = len(names) - 1
-    dry = [_contacts(s_pos, p_sat[m], p_in[m], p_out[m], ()) for m in range(12)]
+    # plain lists: the month loop reads them element by element
+    s_list, sat_list = s_pos.tolist(), p_sat.tolist()
+    p_in, p_out = p_in.tolist(), p_out.tolist()
+    dry = [_contacts(s_list, sat_list[m], p_in[m], p_out[m], ()) for m in range(12)]
     start = _start_month([bool(c) for c in dry])
-    run = _Run(s_pos, p_sat, p_in, p_out, n_if)
+    run = _Run(s_list, sat_list, p_in, p_out, n_if)
     if start is not None:
         for k in range(12):
             run.month((start + k) % 12)
@@ -255,13 +258,13 @@ class _Run:
         line = _line(self.s, self.p_in[m], self.p_out[m],
                      {v: self.p_sat[m][v] for v in vertices})
         seconds = month_seconds(m)
+        values = line.tolist()
         for v in vertices:
-            g = _plane_flux(self.s, line, v, vertices)
+            g = _plane_flux(self.s, values, v, vertices)
             i = v - 1
-            change = max(g * seconds, -self.held[i])
-            self.held[i] += change
-            if self.held[i] <= DRY:
-                self.held[i] = 0.0
+            before = float(self.held[i])
+            change = max(g * seconds, -before)
+            self.held[i] = 0.0 if before + change <= DRY else before + change
             self.rate[m, i] = change
         self.acc[m] = self.held
         self.line[m] = line
@@ -321,21 +324,17 @@ def _end_fluxes(s, line) -> np.ndarray:
 
 def _inside_warnings(run, temps, s_pos, names) -> list:
     """Months and layers where the line rises above saturation between interfaces."""
-    out = []
     frac = np.linspace(0.0, 1.0, _INSIDE_SAMPLES)[1:-1]
-    for j, name in enumerate(names):
-        worst, month = 0.0, None
-        for m in range(12):
-            t = temps[m, j] + frac * (temps[m, j + 1] - temps[m, j])
-            p = run.line[m, j] + frac * (run.line[m, j + 1] - run.line[m, j])
-            excess = float(np.max(p - saturation_pressure(t)))
-            if excess > worst + 1e-9:
-                worst, month = excess, m
-        if month is not None:
-            out.append(f"layer {j + 1} {quote(name)}: in {MONTH_NAMES[month]} the vapour-"
-                       f"pressure line rises up to {worst:.3g} Pa above saturation inside the "
-                       "layer, so water may condense within it; split the layer into thinner "
-                       "layers to locate the plane (EN ISO 13788, 6)")
+    t = temps[:, :-1, None] + frac * (temps[:, 1:, None] - temps[:, :-1, None])
+    p = run.line[:, :-1, None] + frac * (run.line[:, 1:, None] - run.line[:, :-1, None])
+    excess = (p - saturation_pressure(t)).max(axis=2)  # (month, layer)
+    out = []
+    for j in np.flatnonzero(excess.max(axis=0) > 1e-9):
+        month = int(np.argmax(excess[:, j]))
+        out.append(f"layer {j + 1} {quote(names[j])}: in {MONTH_NAMES[month]} the vapour-"
+                   f"pressure line rises up to {excess[month, j]:.3g} Pa above saturation "
+                   "inside the layer, so water may condense within it; split the layer into "
+                   "thinner layers to locate the plane (EN ISO 13788, 6)")
     return out
 
 

@@ -19,9 +19,9 @@ import numpy as np
 
 from .._validate import finite
 from ..errors import HeatLedgerError
-from .psychrometrics import MONTH_NAMES, dew_point
+from .psychrometrics import MONTH_NAMES, dew_point, vapour_pressure
 
-__all__ = ["surface_factor_required", "surface_check", "SurfaceCheck",
+__all__ = ["surface_factor_required", "surface_factor_min", "surface_check", "SurfaceCheck",
            "CRITICAL_RH_MOULD", "CRITICAL_RH_CONDENSATION", "RESISTANCE_INSIDE_CHECK"]
 
 #: Critical surface relative humidity for mould growth, and for surface condensation. [-]
@@ -62,12 +62,43 @@ def surface_factor_required(climate, *, critical_rh=CRITICAL_RH_MOULD) -> np.nda
     ----------
     [source: iso13788-surface, 5.2 and 5.3 (f_Rsi,min, critical month)].
     """
+    return surface_factor_min(climate.temp_outside, climate.temp_inside, climate.rh_inside,
+                              critical_rh=critical_rh)
+
+
+def surface_factor_min(temp_outside, temp_inside, rh_inside, *,
+                       critical_rh=CRITICAL_RH_MOULD):
+    """``f_Rsi,min = (theta_si,min - theta_e)/(theta_i - theta_e)`` with ``theta_si,min`` the
+    dew point of ``phi_i p_sat(theta_i) / phi_si,cr``, for one month or arrays of months.
+
+    Parameters
+    ----------
+    temp_outside : float or array_like
+        Monthly mean outside temperature. [degC]
+    temp_inside : float or array_like
+        Inside temperature. [degC]
+    rh_inside : float or array_like
+        Inside relative humidity as a fraction 0..1. [-]
+    critical_rh : float
+        0.8 (mould) or 1.0 (surface condensation). [-]
+
+    Returns
+    -------
+    float or ndarray
+        f_Rsi,min [-]; NaN where the outside is not colder than the inside.
+
+    References
+    ----------
+    [source: iso13788-surface, 5.2]; [source: iso13788-saturation, Annex E].
+    """
     phi = _critical_rh(critical_rh)
-    t_min = dew_point(climate.vapour_pressure_inside / phi)
-    diff = climate.temp_inside - climate.temp_outside
+    t_e = np.asarray(temp_outside, dtype=float)
+    t_i = np.asarray(temp_inside, dtype=float)
+    t_min = dew_point(vapour_pressure(t_i, rh_inside) / phi)
+    diff = t_i - t_e
     with np.errstate(divide="ignore", invalid="ignore"):
-        f = (t_min - climate.temp_outside) / diff
-    return np.where(diff > 0.0, f, np.nan)
+        f = np.where(diff > 0.0, (t_min - t_e) / diff, np.nan)
+    return float(f) if f.ndim == 0 else f
 
 
 @dataclass(frozen=True, eq=False)

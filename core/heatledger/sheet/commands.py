@@ -132,6 +132,8 @@ def _write(project, out: Path, *, force: bool, quiet: bool) -> int:
         parts.append(_count(n_rooms, "room"))
     if project.fins:
         parts.append(_count(len(project.fins), "fin entry", "fin entries"))
+    if project.moisture:
+        parts.append(_count(len(project.moisture), "moisture check"))
     print(f"heatledger: audit of {', '.join(parts)} written to {path}; "
           "open it in a spreadsheet program and check that the cover says ALL CHECKS OK")
     return 0

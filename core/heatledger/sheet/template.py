@@ -188,7 +188,7 @@ def _table_sheet(plan: WorkbookPlan, table, table_rows: list, lists: dict) -> No
     last = HEADER_ROW + n_rows
     for j, col in enumerate(_sheet_columns(table), 1):
         sh.validations += _drop_down(col, f"{col_letter(j)}{HEADER_ROW + 1}:"
-                                          f"{col_letter(j)}{last}", lists)
+                                          f"{col_letter(j)}{last}", lists, name)
 
 
 def _sheet_columns(table) -> tuple:
@@ -205,8 +205,22 @@ def _cell_value(value, kind: str):
     return value
 
 
-def _drop_down(col, cells: str, lists: dict) -> list:
-    """The data-validation list of a column with choices or naming a material."""
+#: Columns naming a row of another sheet, and that sheet (its first column holds the names).
+_REF_SHEETS = {("Moisture checks", "construction"): "Constructions",
+               ("Moisture checks", "climate"): "Climates",
+               ("Climate months", "climate"): "Climates"}
+
+
+def _drop_down(col, cells: str, lists: dict, sheet: str = "") -> list:
+    """The data-validation list of a column with choices, naming a material or naming a row
+    of another sheet."""
+    target = _REF_SHEETS.get((sheet, col.key))
+    if target is not None:
+        first, last = HEADER_ROW + 1, HEADER_ROW + INPUT_ROWS
+        return [DataValidation(cells, sheet_ref(target, f"$A${first}:$A${last}"),
+                               f"a name from the {target} sheet",
+                               f"not on the {target} sheet: add it there first",
+                               error_style="warning")]
     if col.type == "material":
         column, _head, values = lists["material"]
         return [DataValidation(cells, sheet_ref("Lists", f"{column}2:{column}"

@@ -1,0 +1,78 @@
+"""Climates, Climate months and Moisture checks sheets of the fill-in template.
+
+This module turns the project data's ``[[climates]]`` (with their twelve
+``[[climates.months]]``) and ``[[moisture]]`` into template rows and the rows read back
+into the same project data, noting the cell of every key so that a problem names its sheet
+and cell.
+"""
+
+from __future__ import annotations
+
+from ..moisture.schema import CLIMATE_TABLE, MOISTURE_TABLE, MONTH_TABLE
+from .template_tables import nest_row
+
+__all__ = ["template_rows", "read_rows"]
+
+
+def template_rows(data: dict) -> dict:
+    """Template rows of the Climates, Climate months and Moisture checks sheets.
+
+    Parameters
+    ----------
+    data : dict
+        Project data in the project-file schema. [-]
+
+    Returns
+    -------
+    dict
+        Sheet name -> list of row dictionaries keyed by column key. [-]
+    """
+    climates = [c for c in data.get("climates", []) if isinstance(c, dict)]
+    months = [dict(m, climate=c.get("name", "")) for c in climates
+              for m in c.get("months", []) if isinstance(m, dict)]
+    return {CLIMATE_TABLE.sheet: [{k: v for k, v in c.items() if k != "months"}
+                                  for c in climates],
+            MONTH_TABLE.sheet: months,
+            MOISTURE_TABLE.sheet: [dict(m) for m in data.get("moisture", [])
+                                   if isinstance(m, dict)]}
+
+
+def read_rows(tables: dict, data: dict, problems: list, cells: dict) -> None:
+    """Add ``climates`` and ``moisture`` read from the template's sheets to ``data``.
+
+    Parameters
+    ----------
+    tables : dict
+        Sheet name -> list of (row, where) as read by the template reader. [-]
+    data : dict
+        Project data being assembled. [-]
+    problems : list
+        Problems are appended as (cell, message). [-]
+    cells : dict
+        Key path -> cell, extended for every key read. [-]
+    """
+    climates, by_name = [], {}
+    for i, (row, where) in enumerate(tables.get(CLIMATE_TABLE.sheet, []), 1):
+        key = f"climates[{i}]"
+        climate = nest_row(row, where, key, {}, cells)
+        climate["months"] = []
+        climates.append(climate)
+        by_name.setdefault(str(climate.get("name", "")).strip(), (climate, key))
+    for row, where in tables.get(MONTH_TABLE.sheet, []):
+        row = dict(row)
+        owner = str(row.pop("climate", "") or "").strip()
+        if owner not in by_name:
+            names = ", ".join(repr(c.get("name", "")) for c in climates) or "none"
+            problems.append((where.get("climate", where["_row"]),
+                             f"climate {owner!r} is not on the Climates sheet; choose one of "
+                             f"{names}"))
+            continue
+        climate, key = by_name[owner]
+        lst = climate["months"]
+        lst.append(nest_row(row, where, f"{key}.months[{len(lst) + 1}]", {}, cells))
+    if climates:
+        data["climates"] = climates
+    checks = [nest_row(row, where, f"moisture[{i}]", {}, cells)
+              for i, (row, where) in enumerate(tables.get(MOISTURE_TABLE.sheet, []), 1)]
+    if checks:
+        data["moisture"] = checks
