@@ -21,7 +21,14 @@ _MATRIX_OFFSET = 3
 
 
 def glaser_sections(st) -> None:
-    """Sections 4 to 8 of the sheet: nodes by month, amounts, result, charts."""
+    """Sections 4 to 8 of the sheet: nodes by month, amounts, result, charts.
+
+    Parameters
+    ----------
+    st : types.SimpleNamespace
+        The sheet's shared state (:func:`heatledger.sheet.moisture_sheet.moisture_setup`
+        and the sections before). [-]
+    """
     res = st.res
     st.t_rows = _matrix(st, "Temperature at each node [degC]", st.node_col,
                         lambda m, k: _temperature(st, m, k), res.temperatures, F_T)

@@ -45,20 +45,46 @@ MOISTURE_ROWS = RowLayout(label=2, value=3, engine=4, check=5, note=6, default_f
 
 
 def psat_formula(t: str) -> str:
-    """Saturation pressure of EN ISO 13788 Annex E as a spreadsheet expression of cell ``t``
-    (degC), over water at and above 0 and over ice below. [Pa]"""
+    """Saturation pressure of EN ISO 13788 Annex E as a spreadsheet expression, over water
+    at and above 0 degC and over ice below. [Pa]
+
+    Parameters
+    ----------
+    t : str
+        Cell (or expression) holding the temperature. [degC]
+    """
     return (f"IF({t}>=0,610.5*EXP(17.269*{t}/(237.3+{t})),"
             f"610.5*EXP(21.875*{t}/(265.5+{t})))")
 
 
 def dew_formula(p: str) -> str:
-    """Dew point (the inverse of :func:`psat_formula`) of cell ``p`` [Pa]. [degC]"""
+    """Dew point (the inverse of :func:`psat_formula`) as a spreadsheet expression. [degC]
+
+    Parameters
+    ----------
+    p : str
+        Cell (or expression) holding the vapour pressure. [Pa]
+    """
     x = f"LN({p}/610.5)"
     return f"IF({x}>=0,237.3*{x}/(17.269-{x}),265.5*{x}/(21.875-{x}))"
 
 
 def moisture_setup(plan, sheet_name: str, entry, tolerance: float, project_name: str):
-    """The sheet, its title rows and the tolerance cell; returns the shared state."""
+    """The sheet, its title rows and the tolerance cell; returns the shared state.
+
+    Parameters
+    ----------
+    plan : WorkbookPlan
+        The workbook plan to extend. [-]
+    sheet_name : str
+        Name of the new sheet. [-]
+    entry : heatledger.moisture.project_io.MoistureEntry
+        The check. [-]
+    tolerance : float
+        Relative tolerance of the check cells. [-]
+    project_name : str
+        Project name for the page header. [-]
+    """
     widths = [8, 38] + [13] * 26
     sheet = add_calculation_sheet(plan, sheet_name, widths, f"{project_name} | {entry.name}")
     w = CheckRows(sheet, "$C$8", MOISTURE_ROWS)
@@ -97,7 +123,13 @@ def moisture_setup(plan, sheet_name: str, entry, tolerance: float, project_name:
 
 
 def layer_section(st) -> None:
-    """Layers with R and s_d, and the node positions in R and s_d as rows."""
+    """Layers with R and s_d, and the node positions in R and s_d as rows.
+
+    Parameters
+    ----------
+    st : types.SimpleNamespace
+        The sheet's shared state from :func:`moisture_setup`. [-]
+    """
     w, con, res = st.w, st.entry.construction, st.res
     names, resistances, sds = vapour_columns(con)
     counted = [(row, lay) for row, lay in zip(con.layer_table, con.layers, strict=True)
@@ -178,7 +210,13 @@ def _position_row(st, label, first, col, engine) -> int:
 
 
 def climate_section(st) -> None:
-    """The twelve months: temperatures, humidities and vapour pressures."""
+    """The twelve months: temperatures, humidities and vapour pressures.
+
+    Parameters
+    ----------
+    st : types.SimpleNamespace
+        The sheet's shared state from :func:`moisture_setup`. [-]
+    """
     w, clim = st.w, st.entry.climate
     cls = clim.humidity_class
     w.start("climate", "Climate, monthly means" + (
@@ -220,7 +258,13 @@ def climate_section(st) -> None:
 
 
 def surface_section(st) -> None:
-    """f_Rsi of the construction and f_Rsi,min of each month, pass or fail."""
+    """f_Rsi of the construction and f_Rsi,min of each month, pass or fail.
+
+    Parameters
+    ----------
+    st : types.SimpleNamespace
+        The sheet's shared state from :func:`moisture_setup`. [-]
+    """
     w, s = st.w, st.surf
     what = "mould growth" if s.critical_rh < 1.0 else "surface condensation"
     w.start("surface", f"Surface humidity: {what} (EN ISO 13788, 5)")
