@@ -21,8 +21,6 @@ and workmanship are outside it; defer to local codes and licensed practice.
 
 from __future__ import annotations
 
-import math
-
 from heatledger.constructions import AirLayer, BridgedLayer, Layer
 from heatledger.errors import HeatLedgerError
 from heatledger.moisture import (
@@ -33,10 +31,11 @@ from heatledger.moisture import (
     saturation_pressure,
     surface_factor_min,
 )
+from heatledger.moisture.surface import MIN_TEMPERATURE_DIFFERENCE
 
 from .cache import MISSING, BoundedCache
 from .cells import flag, is_blank, number, row_is_blank
-from .ranges import build_construction, layer_rows
+from .ranges import build_construction
 from .registry import udf
 from .udfs import _construction, _inputs, _with_header
 
@@ -97,9 +96,10 @@ def HL_FRSI_MIN(temp_outside, temp_inside, rh_inside, critical_rh=None):
     condensation (1.0) (EN ISO 13788, 5.2). [-]"""
     t_e = number("temp_outside", temp_outside, **_TEMP)
     t_i = number("temp_inside", temp_inside, **_TEMP)
-    if t_i <= t_e:
-        raise HeatLedgerError("temp_inside must be above temp_outside: f_Rsi,min applies "
-                              "only to months when the outside is colder")
+    if t_i - t_e < MIN_TEMPERATURE_DIFFERENCE:
+        raise HeatLedgerError(f"temp_inside must be at least {MIN_TEMPERATURE_DIFFERENCE:g} K "
+                              "above temp_outside: f_Rsi,min applies only to months when the "
+                              "outside is colder")
     rh = _fraction("rh_inside", rh_inside)
     crit = number("critical_rh", critical_rh, 0.8, low=0.0, high=100.0, unit="")
     return surface_factor_min(t_e, t_i, rh, critical_rh=crit)
@@ -198,7 +198,3 @@ def _with_vapour(con, rows):
                                 material=lay.material, vapour_resistance_factor=mu, sd=sd))
     return type(con)(layers, con.heat_flow, rsi=con.rsi,
                      rse=con.rse if con.rse_given else None, name=con.name)
-
-
-def _finite(value: float) -> bool:
-    return math.isfinite(value)

@@ -295,6 +295,13 @@ LIMITS = {
         "from memory; " + _CP),
     "count_per_m2": Limit(
         None, 1e4, "1/m2", high_why="one fastener per square centimetre; " + _CP),
+    "vapour_resistance_factor": Limit(
+        0.1, 1e7, "-", low_why="still air has 1 and no porous material resists vapour much "
+        "less; " + _CP, high_why="metal foils and glass are vapour-tight: give inf; " + _CP),
+    "sd": Limit(
+        1e-6, 1e6, "m", low_why="a micrometre of still air; " + _CP,
+        high_why="far beyond the 1500 m commonly taken as vapour-tight (give inf for a "
+        "vapour-tight layer); " + _CP),
 }
 
 #: Most finite-volume cells per layer the engine accepts. [-]

@@ -48,7 +48,7 @@ def test_frsi_min_by_hand():
     assert udfs.HL_FRSI_MIN(-2.0, 20.0, 0.5) == pytest.approx((t + 2.0) / 22.0,
                                                               rel=RTOL_ROUND_OFF)
     assert udfs.HL_FRSI_MIN(-2.0, 20.0, 50).startswith("HL_FRSI_MIN: rh_inside = 50 looks")
-    assert "temp_inside must be above" in udfs.HL_FRSI_MIN(22.0, 20.0, 0.5)
+    assert "at least 1 K above temp_outside" in udfs.HL_FRSI_MIN(22.0, 20.0, 0.5)
 
 
 def test_condensation_spill_equals_the_engine():

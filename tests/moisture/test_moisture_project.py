@@ -12,8 +12,8 @@ from heatledger import MonthlyClimate, interstitial_condensation, surface_check
 from heatledger.demo import demo_project
 from heatledger.errors import ProjectError
 from heatledger.project import project_from_dict
-from heatledger.sheet.template import project_from_template, template_plan
 from heatledger.sheet.render_openpyxl import write_workbook
+from heatledger.sheet.template import project_from_template, template_plan
 from tests.tolerances import RTOL_ROUND_OFF
 
 

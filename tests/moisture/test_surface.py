@@ -82,5 +82,5 @@ def test_bad_critical_rh():
     clim = MonthlyClimate(TE, RHE, 20.0, 0.5)
     with pytest.raises(HeatLedgerError, match="looks like a percentage"):
         surface_factor_required(clim, critical_rh=80)
-    with pytest.raises(HeatLedgerError, match="above 0 and at most 1"):
+    with pytest.raises(HeatLedgerError, match="must be from 0.5 to 1"):
         surface_factor_required(clim, critical_rh=0.0)

@@ -270,8 +270,9 @@ def _layer(row, where, library, problems):
 
 def _vapour(row, where, problems) -> dict:
     """The layer's stated vapour value (mu or sd, not both) as keyword arguments."""
-    mu = number(row, "vapour_resistance_factor", where, problems, positive=True)
-    sd = number(row, "sd", where, problems, positive=True)
+    mu = number(row, "vapour_resistance_factor", where, problems, positive=True,
+                limit="vapour_resistance_factor")
+    sd = number(row, "sd", where, problems, positive=True, limit="sd")
     if mu is not None and sd is not None:
         problems.append((f"{where}.sd", "give either vapour_resistance_factor or sd, not "
                          "both"))

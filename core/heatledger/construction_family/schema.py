@@ -62,7 +62,8 @@ MATERIAL_TABLE = Table(
         Column("specific_heat", "c", "J/(kg K)", "number", "specific heat capacity",
                sign="positive"),
         Column("vapour_resistance_factor", "μ", "-", "number",
-               "water-vapour resistance factor", sign="positive"),
+               "water-vapour resistance factor", sign="positive",
+               limit="vapour_resistance_factor"),
         Column("source", "Source of the values", "", "text",
                "where the values come from (product declaration, standard table)"),
     ),
@@ -144,10 +145,10 @@ LAYER_TABLE = Table(
                "fraction of the area taken by the bridging", variants=_BR),
         Column("vapour_resistance_factor", "μ (moisture)", "-", "number",
                "water-vapour resistance factor for the moisture check; blank = the "
-               "material's (air layers 1)", sign="positive"),
+               "material's (air layers 1)", sign="positive", limit="vapour_resistance_factor"),
         Column("sd", "s_d (moisture)", "m", "number",
                "declared equivalent air-layer thickness (membranes, foils) instead of μ",
-               sign="positive"),
+               sign="positive", limit="sd"),
     ),
 )
 

@@ -57,24 +57,27 @@ def _vapour(label: str, thickness: float, mu, sd, material=None) -> tuple:
     if mu is not None and sd is not None:
         raise HeatLedgerError(f"{label}: give either vapour_resistance_factor or sd, not both")
     if sd is not None:
-        sd = _positive_or_tight(f"{label} sd", sd, "m")
+        sd = _positive_or_tight(f"{label} sd", sd, "sd")
         return sd / thickness, sd
     if mu is None and material is not None:
         mu = material.vapour_resistance_factor
     if mu is None:
         return None, None
-    mu = _positive_or_tight(f"{label} vapour_resistance_factor", mu, "-")
-    return mu, mu * thickness
+    mu = _positive_or_tight(f"{label} vapour_resistance_factor", mu,
+                            "vapour_resistance_factor")
+    if math.isinf(mu):
+        return mu, math.inf
+    return mu, within(f"{label} s_d = mu d", mu * thickness, "sd")
 
 
-def _positive_or_tight(name: str, value, unit: str) -> float:
-    """A positive number or ``inf`` (vapour-tight)."""
+def _positive_or_tight(name: str, value, kind: str) -> float:
+    """A positive number within :data:`LIMITS` ``[kind]``, or ``inf`` (vapour-tight)."""
     try:
         if float(value) == math.inf:
             return math.inf
     except (TypeError, ValueError):
         pass
-    return positive(name, value, unit)
+    return within(name, positive(name, value), kind)
 
 
 def _conductivity(name: str, conductivity) -> float:

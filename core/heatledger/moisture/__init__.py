@@ -35,5 +35,5 @@ __all__ = ["MonthlyClimate", "HUMIDITY_CLASSES", "HUMIDITY_CLASS_USES", "HUMIDIT
            "vapour_density_excess", "interstitial_condensation", "CondensationResult",
            "VAPOUR_TIGHT_SD", "saturation_pressure", "dew_point", "vapour_pressure",
            "MONTH_NAMES", "VAPOUR_PERMEABILITY_AIR", "WATER_VAPOUR_GAS_CONSTANT",
-           "surface_factor_required", "surface_factor_min", "surface_check", "SurfaceCheck", "CRITICAL_RH_MOULD",
-           "CRITICAL_RH_CONDENSATION", "RESISTANCE_INSIDE_CHECK"]
+           "surface_factor_required", "surface_factor_min", "surface_check", "SurfaceCheck",
+           "CRITICAL_RH_MOULD", "CRITICAL_RH_CONDENSATION", "RESISTANCE_INSIDE_CHECK"]

@@ -29,6 +29,13 @@ CRITICAL_RH_MOULD = 0.8
 CRITICAL_RH_CONDENSATION = 1.0
 #: Inside surface resistance of the surface check for opaque elements. [m2 K/W]
 RESISTANCE_INSIDE_CHECK = 0.25
+#: Smallest inside-outside temperature difference for which f_Rsi,min is given: below it
+#: the factor is ill-conditioned (it divides by the difference) and the month is not a
+#: heating month; common practice, no published source. [K]
+MIN_TEMPERATURE_DIFFERENCE = 1.0
+#: Lowest critical surface relative humidity accepted (the standard uses 0.8 and 1.0;
+#: common practice, no published source). [-]
+MIN_CRITICAL_RH = 0.5
 
 
 def _critical_rh(value) -> float:
@@ -36,9 +43,10 @@ def _critical_rh(value) -> float:
     if 1.0 < v <= 100.0:
         raise HeatLedgerError(f"critical_rh = {v:g} looks like a percentage: give it as a "
                               f"fraction ({v / 100.0:g})")
-    if not 0.0 < v <= 1.0:
+    if not MIN_CRITICAL_RH <= v <= 1.0:
         raise HeatLedgerError(f"critical_rh = {v:g}: the critical surface relative humidity "
-                              "must be above 0 and at most 1 (0.8 mould, 1.0 condensation)")
+                              f"must be from {MIN_CRITICAL_RH:g} to 1 (0.8 mould, 1.0 "
+                              "condensation)")
     return v
 
 
@@ -55,8 +63,8 @@ def surface_factor_required(climate, *, critical_rh=CRITICAL_RH_MOULD) -> np.nda
     Returns
     -------
     ndarray (12,)
-        f_Rsi,min [-]; NaN in a month whose outside is not colder than the inside (the
-        check does not apply).
+        f_Rsi,min [-]; NaN in a month whose outside is not at least 1 K colder than the
+        inside (the check does not apply).
 
     References
     ----------
@@ -85,7 +93,9 @@ def surface_factor_min(temp_outside, temp_inside, rh_inside, *,
     Returns
     -------
     float or ndarray
-        f_Rsi,min [-]; NaN where the outside is not colder than the inside.
+        f_Rsi,min [-]; NaN where the outside is not at least
+        :data:`MIN_TEMPERATURE_DIFFERENCE` colder than the inside (the check does not
+        apply).
 
     References
     ----------
@@ -96,8 +106,8 @@ def surface_factor_min(temp_outside, temp_inside, rh_inside, *,
     t_i = np.asarray(temp_inside, dtype=float)
     t_min = dew_point(vapour_pressure(t_i, rh_inside) / phi)
     diff = t_i - t_e
-    with np.errstate(divide="ignore", invalid="ignore"):
-        f = np.where(diff > 0.0, (t_min - t_e) / diff, np.nan)
+    applies = diff >= MIN_TEMPERATURE_DIFFERENCE
+    f = np.where(applies, (t_min - t_e) / np.where(applies, diff, 1.0), np.nan)
     return float(f) if f.ndim == 0 else f
 
 

@@ -28,6 +28,7 @@ from ..moisture.psychrometrics import (
     VAPOUR_PERMEABILITY_AIR,
     WATER_VAPOUR_GAS_CONSTANT,
 )
+from ..moisture.surface import MIN_TEMPERATURE_DIFFERENCE
 from .blocks_construction import add_calculation_sheet, put_warning
 from .plan import col_letter
 from .rows import CheckRows, RowLayout
@@ -138,7 +139,7 @@ def layer_section(st) -> None:
     w.headers(["No.", "Layer", "d [m]", "R [m2 K/W]", "μ [-]", "s_d = μ d [m]",
                "Engine s_d [m]", "Check", "Note"])
     layer_rows = []
-    for i, ((row, lay), r_used, sd) in enumerate(zip(counted, resistances, sds,
+    for i, ((_row, lay), r_used, sd) in enumerate(zip(counted, resistances, sds,
                                                       strict=True)):
         w.put(1, i + 1)
         w.put(2, lay.name, style="hl text")
@@ -286,7 +287,8 @@ def surface_section(st) -> None:
         w.put(2, formula=f"=J{c}", fmt=F_PA)
         w.put(3, formula=f"=B{r}/{phi}", fmt=F_PA)
         w.put(4, formula=f"={dew_formula(f'C{r}')}", fmt=F_T)
-        w.put(5, formula=f'=IF(E{c}>C{c},(D{r}-C{c})/(E{c}-C{c}),"n/a")', fmt=F_F)
+        w.put(5, formula=f'=IF(E{c}-C{c}>={MIN_TEMPERATURE_DIFFERENCE:g},(D{r}-C{c})/'
+                         f'(E{c}-C{c}),"n/a")', fmt=F_F)
         req = s.required[m]
         if math.isnan(req):
             w.check(7, f"E{r}", w.put(6, "n/a", role="engine"), exact=True)
