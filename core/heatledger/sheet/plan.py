@@ -77,6 +77,7 @@ __all__ = [
     "Block",
     "ChartSeries",
     "Chart",
+    "Picture",
     "PrintSetup",
     "DataValidation",
     "Sheet",
@@ -261,6 +262,29 @@ class Chart:
 
 
 @dataclass(frozen=True)
+class Picture:
+    """A picture (PNG) placed on a sheet, such as a temperature field.
+
+    Attributes
+    ----------
+    png : bytes
+        The image. [-]
+    anchor : str
+        Top-left cell. [-]
+    width_cm, height_cm : float
+        Size on the page. [cm]
+    title : str
+        What it shows (alternative text). [-]
+    """
+
+    png: bytes
+    anchor: str
+    width_cm: float
+    height_cm: float
+    title: str = ""
+
+
+@dataclass(frozen=True)
 class PrintSetup:
     """Page setup of a sheet.
 
@@ -334,6 +358,7 @@ class Sheet:
     freeze : str or None
         Top-left cell of the scrolling area (``"A5"`` freezes rows 1-4).
     charts : list of Chart
+    pictures : list of Picture
     print_setup : PrintSetup
     validations : list of DataValidation
     tab_color : str or None
@@ -349,6 +374,7 @@ class Sheet:
     column_widths: dict[str, float] = field(default_factory=dict)
     freeze: str | None = None
     charts: list[Chart] = field(default_factory=list)
+    pictures: list[Picture] = field(default_factory=list)
     print_setup: PrintSetup = field(default_factory=PrintSetup)
     validations: list[DataValidation] = field(default_factory=list)
     tab_color: str | None = None

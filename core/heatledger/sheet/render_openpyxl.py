@@ -124,10 +124,22 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
             rule.add(dv.cells)
         for chart in sheet.charts:
             ws.add_chart(charts.get(chart), chart.anchor)
+        for pic in sheet.pictures:
+            ws.add_image(_image(pic), pic.anchor)
         _print_setup(ws, sheet.print_setup)
     for name, target in plan.defined_names.items():
         wb.defined_names[name] = DefinedName(name, attr_text=target)
     return wb
+
+
+def _image(pic):
+    """An openpyxl image of a plan's picture, sized on the page (96 pixels per inch)."""
+    from openpyxl.drawing.image import Image  # needs Pillow, as the pictures' maker does
+
+    img = Image(io.BytesIO(pic.png))
+    img.width = round(pic.width_cm / 2.54 * 96)
+    img.height = round(pic.height_cm / 2.54 * 96)
+    return img
 
 
 def workbook_bytes(plan: WorkbookPlan) -> bytes:
