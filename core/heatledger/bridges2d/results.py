@@ -13,7 +13,7 @@ from functools import cached_property
 
 import numpy as np
 
-from .._validate import choice, choices_text, non_negative, quote
+from .._validate import choice, choices_text, non_negative, quote, show
 from ..errors import HeatLedgerError
 from ..mesh_estimates import MeshEstimate, three_mesh_estimate
 from .fields import FaceTemperatures
@@ -213,7 +213,7 @@ class Section2DResult:
                 u, length = item
             except (TypeError, ValueError):
                 raise HeatLedgerError(f"flanking[{j}] must be a pair (U-value, length); got "
-                                      f"{item}") from None
+                                      f"{show(item)}") from None
             pairs.append((non_negative(f"flanking[{j}] U-value", u, "W/(m2 K)"),
                           non_negative(f"flanking[{j}] length", length, "m")))
         l2d = self.coupling_coefficient(ins, out)
