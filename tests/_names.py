@@ -14,6 +14,7 @@ from collections import defaultdict
 ENGINE_MODULES = ("heatledger.constructions", "heatledger.surfaces", "heatledger.airlayers",
                   "heatledger.materials", "heatledger.fv1d", "heatledger.windows",
                   "heatledger.ground", "heatledger.heatloss", "heatledger.fins",
+                  "heatledger.bridges2d",
                   "heatledger.errors")
 #: Words that are not quantities (self, names, switches of the code).
 NOT_QUANTITIES = {"self", "cls", "args", "kwargs"}

@@ -112,3 +112,16 @@ RTOL_SATURATION_CORRELATIONS = {(-10.0, 60.0): 0.003, (-20.0, -10.0): 0.006}
 #: Values the standard prints to 0.1 Pa (its Annex E check values, recalled): half the last
 #: digit. [Pa]
 ATOL_PRINTED_PA = 0.05
+#: EN ISO 10211:2017 Annex A, the validation of a 2-D method: temperatures within 0.1 K of the
+#: reference values and the heat flow within 0.1 W/m (the standard's own criteria, recalled).
+ATOL_ISO10211_K = 0.1
+ATOL_ISO10211_W_M = 0.1
+#: A Fourier series summed to N and to 2N terms: the terms beyond N are below 1e-12 K at the
+#: points compared (they decay as exp(-(2n+1) pi/8) at the point nearest the hot edge). [K]
+ATOL_SERIES_K = 1e-12
+#: A 2-D layered wall against 1/(Rsi + sum d/lambda + Rse): the scheme is exact for a field
+#: linear in each layer, what is left is the sparse solve's round-off. [-]
+RTOL_2D_EXACT = 1e-11
+#: The observed order of a second-order scheme on a smooth 2-D case, three grids: within 0.2
+#: of 2 (the next error terms still show at a few thousand cells). [-]
+ATOL_ORDER_2D = 0.2

@@ -19,6 +19,14 @@ _EXPORTS = {
         "air_layer_resistance",
         "ventilation_class",
     ),
+    "bridges2d": (
+        "PsiResult",
+        "Region",
+        "Section2D",
+        "Section2DResult",
+        "Surface",
+        "SurfaceMinimum",
+    ),
     "constructions": (
         "AirGapCorrection",
         "AirLayer",
