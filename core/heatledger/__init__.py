@@ -20,12 +20,18 @@ _EXPORTS = {
         "ventilation_class",
     ),
     "bridges2d": (
+        "external_corner",
+        "general_junction",
+        "Junction",
+        "JunctionResult",
         "PsiResult",
         "Region",
         "Section2D",
         "Section2DResult",
         "Surface",
+        "stud_wall",
         "SurfaceMinimum",
+        "wall_floor",
     ),
     "constructions": (
         "AirGapCorrection",

@@ -9,6 +9,9 @@ Public names
 ------------
 Region, Surface, Section2D
     The geometry, the boundary conditions and the section (``Section2D.solve``).
+external_corner, wall_floor, stud_wall, general_junction, Junction, JunctionResult
+    Junctions built from constructions (or drawn) with their flanking elements: psi,
+    f_Rsi at R_si = 0.25 and the lowest inside surface temperature.
 Section2DResult, PsiResult, SurfaceMinimum
     Heat flows per surface, energy balance, temperatures anywhere in the body, the thermal
     coupling coefficient L_2D, the linear thermal transmittance psi with its dimension system,
@@ -23,11 +26,27 @@ Annex A]; discretisation [source: patankar-1980, ch. 4].
 """
 
 from .geometry import Region, Surface
+from .junctions import (
+    JUNCTION_KINDS,
+    Junction,
+    JunctionResult,
+    external_corner,
+    general_junction,
+    stud_wall,
+    wall_floor,
+)
 from .mesh import DIRECT_MAX_CELLS, MAX_CELLS_2D
 from .results import DIMENSIONS, PsiResult, Section2DResult, SurfaceMinimum
 from .section import Section2D
 
 __all__ = [
+    "Junction",
+    "JunctionResult",
+    "JUNCTION_KINDS",
+    "external_corner",
+    "wall_floor",
+    "stud_wall",
+    "general_junction",
     "Region",
     "Surface",
     "Section2D",

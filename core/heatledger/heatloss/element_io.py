@@ -427,26 +427,46 @@ def read_bridge(row, where, room_label, room_name, ctx, problems):
     name = name or where
     label = f"{room_label}, thermal bridge {quote(name)}"
     boundary = read_boundary(row, where, label, room_name, ctx, problems)
-    linear = "psi" in row or "length" in row
+    linear = "psi" in row or "length" in row or "junction" in row
     try:
-        return _bridge_object(row, where, label, name, boundary, linear, start, problems)
+        return _bridge_object(row, where, label, name, boundary, linear, start, problems,
+                              ctx.junctions)
     finally:
         label_new(problems, start, label)
 
 
-def _bridge_object(row, where, label, name, boundary, linear, start, problems):
+def _junction(row, where, label, junctions, problems):
+    """The junction a bridge names (its psi is computed), or None."""
+    ref = row.get("junction")
+    if ref is None:
+        return None
+    if "psi" in row:
+        problems.append((f"{where}.junction", f"{label}: give psi or a junction, not both"))
+        return None
+    if not isinstance(ref, str) or ref not in junctions:
+        known = ", ".join(quote(k) for k in junctions) or "none: add a [[junctions]] table"
+        problems.append((f"{where}.junction", f"{label}: no junction is called {quote(ref)}; "
+                         f"the project has {known}"))
+        return None
+    return junctions[ref]
+
+
+def _bridge_object(row, where, label, name, boundary, linear, start, problems, junctions):
     point = "chi" in row or "count" in row
     if linear == point:
         problems.append((where, f"{label}: give psi (W/(m K)) and length (m) for a linear "
                          "bridge, or chi (W/K) and count for point bridges"))
         return None
     if linear:
-        psi = number(row, "psi", where, problems, required=True, limit="psi")
+        junction = _junction(row, where, label, junctions, problems)
+        psi = junction.result.psi.psi if junction is not None else number(
+            row, "psi", where, problems, required="junction" not in row, limit="psi")
         length = number(row, "length", where, problems, positive=True, required=True,
                         limit="length")
         if len(problems) > start:
             return None
-        return LinearBridge(name, psi, length, boundary)
+        return LinearBridge(name, psi, length, boundary,
+                            junction.name if junction is not None else "")
     chi = number(row, "chi", where, problems, required=True, limit="chi")
     count = row.get("count", 1)
     if isinstance(count, bool) or not isinstance(count, int) or count < 1:

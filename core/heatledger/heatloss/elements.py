@@ -184,12 +184,15 @@ class LinearBridge:
         Length of the junction. [m]
     boundary : Outside, Ground, Unheated, AdjacentRoom or "outside", optional
         Boundary whose temperature factor applies. [-]
+    junction : str, optional
+        The project junction whose computed psi this is (empty: psi declared). [-]
     """
 
     name: str
     psi: float
     length: float
     boundary: Any = "outside"
+    junction: str = ""
 
 
 @dataclass(frozen=True)

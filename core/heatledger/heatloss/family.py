@@ -27,8 +27,9 @@ def parse(data, context, problems):
     constructions = {name: None for name in context.broken if name}
     constructions.update({e.name: e.construction
                           for e in context.entries.get("constructions", [])})
+    junctions = {e.name: e for e in context.entries.get("junctions", [])}
     return building_from_dict(data, constructions, context.library, context.temp_inside,
-                              context.temp_outside, problems)
+                              context.temp_outside, problems, junctions)
 
 
 def warnings(building) -> list:

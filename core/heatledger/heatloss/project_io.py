@@ -147,7 +147,8 @@ class BuildingInput:
                                                 degree_day_base=self.degree_day_base)
 
 
-def building_from_dict(data, constructions, library, temp_inside, temp_outside, problems):
+def building_from_dict(data, constructions, library, temp_inside, temp_outside, problems,
+                       junctions=None):
     """Parse ``[building]`` and ``[[rooms]]`` into a :class:`BuildingInput`.
 
     Parameters
@@ -165,6 +166,9 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
         Design external temperature ``theta_e``. [degC]
     problems : list
         Every problem is appended as ``(key path, message)``. [-]
+    junctions : dict, optional
+        Junction name -> its psi [W/(m K)] (None: known but broken), for thermal bridges
+        that name a junction. [-]
 
     Returns
     -------
@@ -201,7 +205,8 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
             problems.append((f"rooms[{i}].name", f"room name {quote(name)} is used twice; room "
                              "names must be unique"))
         seen.add(name)
-    ctx = _Context(constructions, settings, set(n for n in names if n), temp_outside)
+    ctx = _Context(constructions, settings, set(n for n in names if n), temp_outside,
+                   dict(junctions or {}))
     rooms = []
     where: dict = {}
     for i, row in enumerate(raw_rooms, 1):
@@ -239,6 +244,7 @@ class _Context:
     settings: dict
     room_names: set
     temp_outside: float | None
+    junctions: dict = field(default_factory=dict)
 
 
 def _building_settings(raw, problems) -> dict:

@@ -287,7 +287,8 @@ class Room:
                               quantity=q, quantity_unit=qu, transmittance=t,
                               transmittance_unit=tu, bridge_allowance=0.0, factor=f,
                               factor_rule=rule, coefficient=q * t * f, internal=internal,
-                              source="given"))
+                              source=(f"psi of junction {_show(br.junction)} (EN ISO 10211)"
+                                      if getattr(br, "junction", "") else "given")))
         vent = self.ventilation_flows()
         lines.append(dict(name="ventilation", category="ventilation", kind="ventilation",
                           boundary="outside air", quantity=vent.effective_flow,

@@ -225,6 +225,8 @@ BRIDGE_TABLE = Table(
                place="sheet"),
         Column("name", "Thermal bridge", "", "text", "name of the junction"),
         Column("psi", "ψ", "W/(m K)", "number", "linear thermal transmittance", limit="psi"),
+        Column("junction", "Junction (instead of ψ)", "", "ref",
+               "a junction of the project whose computed psi is used"),
         Column("length", "Length", "m", "number", "length of the junction", limit="length",
                sign="positive"),
         Column("chi", "χ", "W/K", "number", "point thermal transmittance", limit="chi"),

@@ -28,7 +28,8 @@ def parse(data, context, problems) -> list:
     constructions.update({e.name: e.construction
                           for e in context.entries.get("constructions", [])})
     climates = climates_from_dict(data, problems)
-    return checks_from_dict(data, climates, constructions, problems)
+    junctions = {e.name: e for e in context.entries.get("junctions", [])}
+    return checks_from_dict(data, climates, constructions, problems, junctions)
 
 
 def warnings(entries) -> list:

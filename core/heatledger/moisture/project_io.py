@@ -54,6 +54,9 @@ class MoistureEntry:
     where : str
         Key path (``moisture[1]``).
     notes : str
+    junction : object, optional
+        A junction entry whose f_Rsi the surface check uses (None: the plane
+        construction's). [-]
     """
 
     name: str
@@ -63,12 +66,14 @@ class MoistureEntry:
     resistance_inside: float
     where: str
     notes: str = ""
+    junction: object = None
 
     @cached_property
     def surface(self):
         """The surface humidity check (:class:`~heatledger.moisture.SurfaceCheck`)."""
+        f = None if self.junction is None else self.junction.result.surface_factor
         return surface_check(self.construction, self.climate, critical_rh=self.critical_rh,
-                             resistance_inside=self.resistance_inside)
+                             resistance_inside=self.resistance_inside, surface_factor=f)
 
     @cached_property
     def interstitial(self):
@@ -174,7 +179,7 @@ def _climate(vals, months, where, problems):
         return None
 
 
-def checks_from_dict(data, climates, constructions, problems) -> list:
+def checks_from_dict(data, climates, constructions, problems, junctions=None) -> list:
     """Moisture checks of the project's ``[[moisture]]`` tables.
 
     Parameters
@@ -187,12 +192,15 @@ def checks_from_dict(data, climates, constructions, problems) -> list:
         Construction name -> Construction (None: known but broken). [-]
     problems : list
         Every problem is appended as ``(key path, message)``. [-]
+    junctions : dict, optional
+        Junction name -> junction entry, for checks that name one. [-]
 
     Returns
     -------
     list of MoistureEntry
     """
     out, seen = [], set()
+    junctions = junctions or {}
     for i, row in enumerate(table_list(data, "moisture", problems), 1):
         where = f"moisture[{i}]"
         start = len(problems)
@@ -200,6 +208,7 @@ def checks_from_dict(data, climates, constructions, problems) -> list:
         v = {c.key: read_value(c, row, where, problems) for c in MOISTURE_TABLE.columns}
         con = _named(v["construction"], constructions, "construction", where, problems)
         clim = _named(v["climate"], climates, "climate", where, problems)
+        junction = _named(v["junction"], junctions, "junction", where, problems)
         if v["critical_rh"] is not None:
             try:
                 _critical_rh(v["critical_rh"])
@@ -216,7 +225,7 @@ def checks_from_dict(data, climates, constructions, problems) -> list:
             continue
         seen.add(v["name"].lower())
         out.append(MoistureEntry(v["name"], con, clim, v["critical_rh"],
-                                 v["resistance_inside"], where, v["notes"] or ""))
+                                 v["resistance_inside"], where, v["notes"] or "", junction))
     return out
 
 

@@ -70,6 +70,9 @@ MOISTURE_TABLE = Table(
                required=True),
         Column("climate", "Climate", "", "ref", "the climate it is checked in",
                required=True),
+        Column("junction", "Junction (surface check)", "", "ref",
+               "a junction whose f_Rsi the surface check uses instead of the plane "
+               "construction's (Junctions sheet)"),
         Column("critical_rh", "Critical φ_si", "-", "number",
                "critical surface relative humidity: 0.8 mould, 1.0 surface condensation",
                default=0.8),

@@ -180,6 +180,15 @@ def _room_sheet(plan, sname, room, rres, building, bi, bref, room_sheet, crefs, 
     return _room_totals(st)
 
 
+def _psi_cell(plan, item, linear) -> dict:
+    """The transmittance cell of a bridge: a live reference to the junction sheet's psi
+    when the bridge names a junction, else the declared value as an input."""
+    cells = plan.index.get(("junction", getattr(item, "junction", ""))) if linear else None
+    if cells:
+        return {"formula": f"={cells['psi']}"}
+    return {"value": float(item.psi if linear else item.chi), "role": "input"}
+
+
 def _room_setup(st) -> None:
     """The sheet, its header and its inputs."""
     bref = st.bref
@@ -314,7 +323,7 @@ def _elem_element_table(st) -> None:
             w.put(5, float(item.length) if linear else int(item.count), role="input",
                   fmt="0.00" if linear else "0")
             w.put(6, "m" if linear else "-")
-            w.put(7, float(item.psi if linear else item.chi), role="input", fmt=FMT_U)
+            w.put(7, **_psi_cell(st.plan, item, linear), fmt=FMT_U)
             h_formula = f"=E{r}*G{r}*J{r}"
         _factor_cells(w, r, item.boundary, room_sheet, bref)
         h = w.put(11, formula=h_formula, fmt=FMT_H)

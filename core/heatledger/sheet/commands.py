@@ -132,6 +132,8 @@ def _write(project, out: Path, *, force: bool, quiet: bool) -> int:
         parts.append(_count(n_rooms, "room"))
     if project.fins:
         parts.append(_count(len(project.fins), "fin entry", "fin entries"))
+    if project.junctions:
+        parts.append(_count(len(project.junctions), "junction"))
     if project.moisture:
         parts.append(_count(len(project.moisture), "moisture check"))
     print(f"heatledger: audit of {', '.join(parts)} written to {path}; "

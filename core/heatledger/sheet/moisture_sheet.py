@@ -118,7 +118,7 @@ def moisture_setup(plan, sheet_name: str, entry, tolerance: float, project_name:
     if entry.notes:
         w.put(4, f"Notes: {entry.notes}", role="note", row=5)
     w.row = HEADER_ROWS
-    return SimpleNamespace(w=w, sheet=sheet, sheet_name=sheet_name, entry=entry,
+    return SimpleNamespace(w=w, sheet=sheet, sheet_name=sheet_name, entry=entry, plan=plan,
                            delta0=f"$C${delta0[1:]}", res=entry.interstitial,
                            surf=entry.surface, months={})
 
@@ -273,10 +273,18 @@ def surface_section(st) -> None:
                       value=s.critical_rh, fmt="0.00")
     rsi = w.value_row("R_si of the check [m2 K/W]", value=s.resistance_inside, fmt="0.00",
                       note="0.25 opaque elements, 0.13 glazing and frames")
-    rt = w.value_row("R_T with this R_si = R_T − Rsi + R_si [m2 K/W]",
-                     formula=f"={st.r_total}-{st.rsi}+{rsi}")
-    f = w.value_row("f_Rsi = (R_T − R_si)/R_T [-]", formula=f"=({rt}-{rsi})/{rt}",
-                    engine=s.surface_factor)
+    junction = st.entry.junction
+    cells = st.plan.index.get(("junction", junction.name)) if junction else None
+    if junction is not None:
+        f = w.value_row(f"f_Rsi of junction {junction.name} (2-D, R_si 0.25) [-]",
+                        formula=f"={cells['f_rsi']}" if cells else None,
+                        value=None if cells else s.surface_factor,
+                        engine=s.surface_factor, note="the junction's own sheet")
+    else:
+        rt = w.value_row("R_T with this R_si = R_T − Rsi + R_si [m2 K/W]",
+                         formula=f"={st.r_total}-{st.rsi}+{rsi}")
+        f = w.value_row("f_Rsi = (R_T − R_si)/R_T [-]", formula=f"=({rt}-{rsi})/{rt}",
+                        engine=s.surface_factor)
     w.headers(["Month", "p_i [Pa]", "p_sat,min = p_i/φ [Pa]", "θ_si,min [degC]",
                "f_Rsi,min [-]", "Engine f_Rsi,min", "Check", "f_Rsi [-]", "Result",
                "Engine result", "Check"])

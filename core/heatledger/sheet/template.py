@@ -208,7 +208,13 @@ def _cell_value(value, kind: str):
 #: Columns naming a row of another sheet, and that sheet (its first column holds the names).
 _REF_SHEETS = {("Moisture checks", "construction"): "Constructions",
                ("Moisture checks", "climate"): "Climates",
-               ("Climate months", "climate"): "Climates"}
+               ("Climate months", "climate"): "Climates",
+               ("Junctions", "construction"): "Constructions",
+               ("Junctions", "floor"): "Constructions",
+               ("Junction flanks", "construction"): "Constructions",
+               ("Junction regions", "junction"): "Junctions",
+               ("Junction surfaces", "junction"): "Junctions",
+               ("Junction flanks", "junction"): "Junctions"}
 
 
 def _drop_down(col, cells: str, lists: dict, sheet: str = "") -> list:

@@ -1,0 +1,75 @@
+"""Junctions, Junction regions, Junction surfaces and Junction flanks sheets of the fill-in
+template: the project data's ``[[junctions]]`` (with their drawn regions, surfaces and
+flanking elements) as template rows, and the rows read back into the same project data,
+noting the cell of every key so that a problem names its sheet and cell.
+"""
+
+from __future__ import annotations
+
+from ..bridges2d.schema import FLANK_TABLE, JUNCTION_TABLE, REGION_TABLE, SURFACE_TABLE
+from .template_tables import nest_row
+
+__all__ = ["template_rows", "read_rows"]
+
+#: Child sheets: (table, key inside a junction).
+_CHILDREN = ((REGION_TABLE, "regions"), (SURFACE_TABLE, "surfaces"), (FLANK_TABLE, "flanking"))
+
+
+def template_rows(data: dict) -> dict:
+    """Template rows of the junction sheets.
+
+    Parameters
+    ----------
+    data : dict
+        Project data in the project-file schema. [-]
+
+    Returns
+    -------
+    dict
+        Sheet name -> list of row dictionaries keyed by column key. [-]
+    """
+    junctions = [j for j in data.get("junctions", []) if isinstance(j, dict)]
+    out = {JUNCTION_TABLE.sheet: [{k: v for k, v in j.items()
+                                   if k not in ("regions", "surfaces", "flanking")}
+                                  for j in junctions]}
+    for table, key in _CHILDREN:
+        out[table.sheet] = [dict(r, junction=j.get("name", "")) for j in junctions
+                            for r in j.get(key, []) if isinstance(r, dict)]
+    return out
+
+
+def read_rows(tables: dict, data: dict, problems: list, cells: dict) -> None:
+    """Add ``junctions`` read from the template's sheets to ``data``.
+
+    Parameters
+    ----------
+    tables : dict
+        Sheet name -> list of (row, where) as read by the template reader. [-]
+    data : dict
+        Project data being assembled. [-]
+    problems : list
+        Problems are appended as (cell, message). [-]
+    cells : dict
+        Key path -> cell, extended for every key read. [-]
+    """
+    junctions, by_name = [], {}
+    for i, (row, where) in enumerate(tables.get(JUNCTION_TABLE.sheet, []), 1):
+        key = f"junctions[{i}]"
+        junction = nest_row(row, where, key, {}, cells)
+        junctions.append(junction)
+        by_name.setdefault(str(junction.get("name", "")).strip(), (junction, key))
+    for table, child in _CHILDREN:
+        for row, where in tables.get(table.sheet, []):
+            row = dict(row)
+            owner = str(row.pop("junction", "") or "").strip()
+            if owner not in by_name:
+                names = ", ".join(repr(j.get("name", "")) for j in junctions) or "none"
+                problems.append((where.get("junction", where["_row"]),
+                                 f"junction {owner!r} is not on the Junctions sheet; choose "
+                                 f"one of {names}"))
+                continue
+            junction, key = by_name[owner]
+            lst = junction.setdefault(child, [])
+            lst.append(nest_row(row, where, f"{key}.{child}[{len(lst) + 1}]", {}, cells))
+    if junctions:
+        data["junctions"] = junctions
