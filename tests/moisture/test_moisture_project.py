@@ -29,7 +29,7 @@ def _problems(raw) -> str:
 
 def test_demo_checks_equal_the_front_door():
     project = demo_project()
-    assert len(project.moisture) == 2
+    assert len(project.moisture) == 3
     raw = project.raw["climates"][0]
     te = [m["temp_outside"] for m in raw["months"]]
     rhe = [m["rh_outside"] for m in raw["months"]]
@@ -39,8 +39,12 @@ def test_demo_checks_equal_the_front_door():
         np.testing.assert_allclose(entry.interstitial.accumulation, direct.accumulation,
                                    rtol=RTOL_ROUND_OFF, atol=0.0)
         assert entry.interstitial.planes == direct.planes
-        s = surface_check(entry.construction, clim)
+        if entry.junction is None:
+            s = surface_check(entry.construction, clim)
+        else:  # the junction's own f_Rsi from its 2-D solve
+            s = surface_check(None, clim, surface_factor=entry.junction.result.surface_factor)
         assert entry.surface.surface_factor == pytest.approx(s.surface_factor)
+        assert list(entry.surface.passes) == list(s.passes)
 
 
 def test_bad_climate_inputs_are_named():

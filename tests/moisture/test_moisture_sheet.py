@@ -17,7 +17,7 @@ def test_demo_moisture_sheets_recalculate_ok(tmp_path, recalc):
     project = demo_project()
     plan = audit.audit_plan(project)
     names = [s.name for s in plan.sheets if s.name.startswith("Moist ")]
-    assert len(names) == len(project.moisture) == 2
+    assert len(names) == len(project.moisture) == 3
     wb = openpyxl.load_workbook(recalc(write_workbook(plan, tmp_path / "a.xlsx")),
                                 data_only=True)
     for name in names + ["Moisture"]:

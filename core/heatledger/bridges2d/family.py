@@ -58,17 +58,17 @@ def results(project) -> dict:
     out = []
     for e in project.junctions:
         r = e.result
-        est = r.flow.mesh_estimate
+        est = r.flow_solve.mesh_estimate
         out.append({
             "name": e.name, "kind": e.junction.kind, "description": e.junction.description,
-            "psi": r.psi.psi, "coupling_coefficient": r.psi.coupling_coefficient,
+            "psi": r.psi_result.psi, "coupling_coefficient": r.psi_result.coupling_coefficient,
             "flanking": [{"name": n, "u_value": u, "length": length}
                          for n, u, length in e.junction.flanking],
-            "dimensions": r.psi.dimensions, "surface_factor": r.surface_factor,
+            "dimensions": r.psi_result.dimensions, "surface_factor": r.surface_factor,
             "lowest_temperature": r.lowest.temperature,
             "lowest_at": [r.lowest.x, r.lowest.y], "lowest_surface": r.lowest.surface,
-            "energy_balance": r.flow.energy_balance, "cells": r.flow.cells,
-            "solver": r.flow.solver, "mesh_estimate": est.error_estimate,
+            "energy_balance": r.flow_solve.energy_balance, "cells": r.flow_solve.cells,
+            "solver": r.flow_solve.solver, "mesh_estimate": est.error_estimate,
             "mesh_basis": est.basis})
     return {"junctions": out}
 

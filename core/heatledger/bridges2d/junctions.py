@@ -96,6 +96,12 @@ class Junction:
         Inside and outside surface names. [-]
     description : str
         What was built, in words. [-]
+    warnings : tuple of str
+        What looks doubtful about the input. [-]
+
+    References
+    ----------
+    [source: iso10211-method, 5.2, 10.3 and 11].
     """
 
     kind: str
@@ -156,12 +162,13 @@ class JunctionResult:
     Attributes
     ----------
     junction : Junction
-    flow, temperature : Section2DResult
+        What was solved. [-]
+    flow_solve, temperature_solve : Section2DResult
         The solves with design R_si and with R_si = 0.25. [-]
-    psi : PsiResult
-        psi, L_2D and the flanking sum. [W/(m K)]
+    psi_result : PsiResult
+        psi, L_2D and the flanking sum. [-]
     lowest : SurfaceMinimum
-        The lowest inside surface temperature (R_si 0.25) and where it is. [degC], [m]
+        The lowest inside surface temperature (R_si 0.25) and where it is. [-]
     surface_factor : float
         f_Rsi at R_si 0.25. [-]
 
@@ -171,9 +178,9 @@ class JunctionResult:
     """
 
     junction: Junction
-    flow: object
-    temperature: object
-    psi: object
+    flow_solve: object
+    temperature_solve: object
+    psi_result: object
     lowest: object
     surface_factor: float
 

@@ -437,18 +437,24 @@ def read_bridge(row, where, room_label, room_name, ctx, problems):
 
 def _junction(row, where, label, junctions, problems):
     """The junction a bridge names (its psi is computed), or None."""
-    ref = row.get("junction")
+    if row.get("junction") is None:
+        return None
+    ref = read_value(BRIDGE_TABLE.column("junction"), row, where, problems)
     if ref is None:
         return None
     if "psi" in row:
         problems.append((f"{where}.junction", f"{label}: give psi or a junction, not both"))
         return None
-    if not isinstance(ref, str) or ref not in junctions:
+    if ref not in junctions:
         known = ", ".join(quote(k) for k in junctions) or "none: add a [[junctions]] table"
         problems.append((f"{where}.junction", f"{label}: no junction is called {quote(ref)}; "
                          f"the project has {known}"))
         return None
-    return junctions[ref]
+    return _BROKEN if junctions[ref] is None else junctions[ref]
+
+
+#: A junction that is known but has a problem of its own.
+_BROKEN = object()
 
 
 def _bridge_object(row, where, label, name, boundary, linear, start, problems, junctions):
@@ -459,7 +465,9 @@ def _bridge_object(row, where, label, name, boundary, linear, start, problems, j
         return None
     if linear:
         junction = _junction(row, where, label, junctions, problems)
-        psi = junction.result.psi.psi if junction is not None else number(
+        if junction is _BROKEN:  # its own problem is reported where it is defined
+            return None
+        psi = junction.result.psi_result.psi if junction is not None else number(
             row, "psi", where, problems, required="junction" not in row, limit="psi")
         length = number(row, "length", where, problems, positive=True, required=True,
                         limit="length")

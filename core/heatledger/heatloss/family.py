@@ -27,7 +27,9 @@ def parse(data, context, problems):
     constructions = {name: None for name in context.broken if name}
     constructions.update({e.name: e.construction
                           for e in context.entries.get("constructions", [])})
-    junctions = {e.name: e for e in context.entries.get("junctions", [])}
+    junctions = {row.get("name"): None for row in data.get("junctions", []) or []
+                 if isinstance(row, dict) and isinstance(row.get("name"), str)}
+    junctions.update({e.name: e for e in context.entries.get("junctions", [])})
     return building_from_dict(data, constructions, context.library, context.temp_inside,
                               context.temp_outside, problems, junctions)
 

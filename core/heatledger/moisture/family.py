@@ -28,7 +28,9 @@ def parse(data, context, problems) -> list:
     constructions.update({e.name: e.construction
                           for e in context.entries.get("constructions", [])})
     climates = climates_from_dict(data, problems)
-    junctions = {e.name: e for e in context.entries.get("junctions", [])}
+    junctions = {row.get("name"): None for row in data.get("junctions", []) or []
+                 if isinstance(row, dict) and isinstance(row.get("name"), str)}
+    junctions.update({e.name: e for e in context.entries.get("junctions", [])})
     return checks_from_dict(data, climates, constructions, problems, junctions)
 
 

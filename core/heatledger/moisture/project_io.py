@@ -221,7 +221,8 @@ def checks_from_dict(data, climates, constructions, problems, junctions=None) ->
                 problems.append((f"{where}.construction", error_text(exc)))
         if v["name"] and v["name"].lower() in seen:
             problems.append((f"{where}.name", f"check name {show(v['name'])} is used twice"))
-        if len(problems) > start or con is None or clim is None:
+        if len(problems) > start or con is None or clim is None or (
+                v["junction"] is not None and junction is None):
             continue
         seen.add(v["name"].lower())
         out.append(MoistureEntry(v["name"], con, clim, v["critical_rh"],

@@ -156,8 +156,8 @@ def _surfaces(st) -> None:
         w.put(10, float(s.resistance), role="input", fmt="0.00")
         w.put(11, RESISTANCE_INSIDE_FRSI if side == "inside" else float(s.resistance),
               role="input", fmt="0.00")
-        w.put(12, res.flow.heat_flows[s.name], role="engine", fmt="0.00000")
-        w.put(13, res.temperature.heat_flows[s.name], role="engine", fmt="0.00000")
+        w.put(12, res.flow_solve.heat_flows[s.name], role="engine", fmt="0.00000")
+        w.put(13, res.temperature_solve.heat_flows[s.name], role="engine", fmt="0.00000")
         st.flow_rows[s.name] = w.row
         if side == "inside":
             st.inside_rows.append(w.row)
@@ -167,7 +167,7 @@ def _surfaces(st) -> None:
 
 def _solver(st) -> None:
     w, res = st.w, st.res
-    flow = res.flow
+    flow = res.flow_solve
     w.start("solver", "Solver and grid")
     w.stated("largest cell edge asked [mm]", st.entry.max_cell * 1000.0, "0.00")
     w.stated("cells with material (unknowns)", float(flow.cells), "#,##0")
@@ -180,7 +180,7 @@ def _solver(st) -> None:
                 formula=f"=SUM(L{a}:L{b})", engine=flow.energy_balance, fmt="0.0E+00",
                 note="zero when the solve conserves energy (rounding only)")
     w.value_row("energy balance of the surface-temperature solve [W/m]",
-                formula=f"=SUM(M{a}:M{b})", engine=res.temperature.energy_balance,
+                formula=f"=SUM(M{a}:M{b})", engine=res.temperature_solve.energy_balance,
                 fmt="0.0E+00")
     est = flow.mesh_estimate
     w.stated("mesh estimate of the inside heat flow [W/m]", est.error_estimate, "0.0E+00",
@@ -193,7 +193,7 @@ def _results(st) -> None:
     inside = "+".join(f"L{r}" for r in st.inside_rows)
     st.l2d = w.value_row("L_2D = Φ_inside / (θ_i − θ_e) [W/(m K)]",
                          formula=f"=({inside})/({st.t_in}-{st.t_out})",
-                         engine=res.psi.coupling_coefficient, fmt="0.00000")
+                         engine=res.psi_result.coupling_coefficient, fmt="0.00000")
     w.headers(["", "Flanking element", "U [W/(m2 K)]", "l [m]", "U l [W/(m K)]"])
     first = w.row
     for name, u, length in j.flanking:
@@ -204,9 +204,9 @@ def _results(st) -> None:
         w.row += 1
     last = w.row - 1
     total = w.value_row("Σ U_j l_j [W/(m K)]", formula=f"=SUM(E{first}:E{last})",
-                        engine=res.psi.flanking_total, fmt="0.00000")
-    st.psi = w.value_row(f"ψ = L_2D − Σ U_j l_j [W/(m K)], {res.psi.dimensions} dimensions",
-                         formula=f"={st.l2d}-{total}", engine=res.psi.psi, fmt="0.00000",
+                        engine=res.psi_result.flanking_total, fmt="0.00000")
+    st.psi = w.value_row(f"ψ = L_2D − Σ U_j l_j [W/(m K)], {res.psi_result.dimensions} dimensions",
+                         formula=f"={st.l2d}-{total}", engine=res.psi_result.psi, fmt="0.00000",
                          note="lengths in the dimension system stated; psi depends on it")
     low = res.lowest
     t = w.value_row(f"lowest inside surface temperature at R_si {RESISTANCE_INSIDE_FRSI:g} "
@@ -222,7 +222,7 @@ def _results(st) -> None:
 
 def _picture(st) -> None:
     res, j = st.res, st.entry.junction
-    png = temperature_picture(res.temperature, title=f"{st.entry.name}: temperature at "
+    png = temperature_picture(res.temperature_solve, title=f"{st.entry.name}: temperature at "
                               f"R_si {RESISTANCE_INSIDE_FRSI:g}", inside=j.inside,
                               lowest=res.lowest)
     st.w.row += 1
