@@ -177,8 +177,30 @@ def _cmd_audit(args) -> int:
 def _cmd_calc(args) -> int:
     from .project import load_project
 
-    _emit(project_results(load_project(args.file)), args.json)
+    project = load_project(args.file)
+    _emit(project_results(project), args.json)
+    if args.pictures:
+        _write_pictures(project, args.pictures, args.force)
     return 0
+
+
+def _write_pictures(project, folder: str, force: bool) -> None:
+    """One PNG of the temperature field per junction, written atomically into ``folder``."""
+    import re
+    from pathlib import Path
+
+    from .bridges2d.picture import temperature_picture
+    from .fileio import write_bytes_atomic
+
+    out = Path(folder)
+    out.mkdir(parents=True, exist_ok=True)
+    for entry in project.junctions:
+        r = entry.result
+        png = temperature_picture(r.temperature_solve, title=f"{entry.name}: temperature at "
+                                  "R_si 0.25", inside=entry.junction.inside, lowest=r.lowest)
+        stem = re.sub(r"[^A-Za-z0-9._-]+", "_", entry.name).strip("_") or "junction"
+        path = write_bytes_atomic(out / f"{stem}.png", png, force=force)
+        sys.stderr.write(f"heatledger: temperature field of {entry.name} written to {path}\n")
 
 
 def _cmd_materials(args) -> int:
@@ -253,6 +275,9 @@ def _parser() -> argparse.ArgumentParser:
     c = sub.add_parser("calc", help="results of a TOML project file")
     c.add_argument("file", help="project file (.toml)")
     c.add_argument("--json", action="store_true", help="machine-readable output")
+    c.add_argument("--pictures", metavar="FOLDER",
+                   help="also save each junction's temperature field as a PNG in FOLDER")
+    c.add_argument("--force", action="store_true", help="replace existing pictures")
     c.set_defaults(handler=_cmd_calc)
 
     m = sub.add_parser("materials", help="list the material library")

@@ -190,3 +190,16 @@ def test_junction_sheets_recalculate_ok_and_rooms_refer_to_them(tmp_path, recalc
         assert wb[name]["J6"].value == "ALL CHECKS OK"
         assert wb[name]["J4"].value == wb[name]["J5"].value
     assert math.isfinite(project.junctions[0].result.surface_factor)
+
+
+def test_calc_saves_the_pictures(tmp_path, capsys):
+    from heatledger.cli import main
+    from heatledger.demo import demo_bytes
+
+    project = tmp_path / "demo.toml"
+    project.write_bytes(demo_bytes())
+    assert main(["calc", str(project), "--pictures", str(tmp_path / "pics")]) == 0
+    pngs = sorted((tmp_path / "pics").glob("*.png"))
+    assert len(pngs) == len(demo_project().junctions)
+    assert all(p.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n" for p in pngs)
+    assert "Thermal bridges (2-D" in capsys.readouterr().out
