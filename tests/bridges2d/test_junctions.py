@@ -203,3 +203,25 @@ def test_calc_saves_the_pictures(tmp_path, capsys):
     assert len(pngs) == len(demo_project().junctions)
     assert all(p.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n" for p in pngs)
     assert "Thermal bridges (2-D" in capsys.readouterr().out
+
+
+def test_template_round_trip_of_junctions(tmp_path):
+    from heatledger.sheet.template import project_from_template, template_plan
+
+    raw = copy.deepcopy(demo_project().raw)
+    raw["junctions"].append({
+        "name": "J9 drawn", "kind": "rectangles", "max_cell_mm": 20,
+        "regions": [{"name": "block", "x0_mm": 0, "y0_mm": 0, "x1_mm": 1000, "y1_mm": 200,
+                     "material": "concrete medium density 1800"}],
+        "surfaces": [{"name": "out", "x0_mm": 0, "y0_mm": 0, "x1_mm": 1000, "y1_mm": 0,
+                      "temperature": 0, "resistance": 0.04, "side": "outside"},
+                     {"name": "in", "x0_mm": 0, "y0_mm": 200, "x1_mm": 1000, "y1_mm": 200,
+                      "temperature": 20, "resistance": 0.13, "side": "inside"}],
+        "flanking": [{"name": "wall", "u_value": 2.0, "length": 1.0}]})
+    path = write_workbook(template_plan(raw), tmp_path / "t.xlsx")
+    project = project_from_template(path)
+    direct = project_from_dict(raw, source_bytes=b"x", source_name="p.toml")
+    assert [e.name for e in project.junctions] == [e.name for e in direct.junctions]
+    for a, b in zip(project.junctions, direct.junctions, strict=True):
+        assert a.result.psi_result.psi == pytest.approx(b.result.psi_result.psi,
+                                                        rel=RTOL_ROUND_OFF, abs=1e-12)
