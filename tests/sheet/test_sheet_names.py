@@ -58,7 +58,7 @@ def _hostile_project():
         con["name"] = name
     raw["project"]["name"] = "Job\x07 12\x00 (invented)"
     raw.pop("rooms", None), raw.pop("building", None), raw.pop("fins", None)
-    raw.pop("moisture", None), raw.pop("climates", None)
+    raw.pop("moisture", None), raw.pop("climates", None), raw.pop("junctions", None)
     for room_key in ("elements", "thermal_bridges"):
         raw.pop(room_key, None)
     return project_from_dict(raw, source_bytes=b"hostile", source_name="hostile.toml")

@@ -104,6 +104,9 @@ def surface_factor_min(temp_outside, temp_inside, rh_inside, *,
     phi = _critical_rh(critical_rh)
     t_e = np.asarray(temp_outside, dtype=float)
     t_i = np.asarray(temp_inside, dtype=float)
+    if np.any(np.asarray(rh_inside, dtype=float) <= 0.0):
+        raise HeatLedgerError("rh_inside must be above 0 for the surface check: perfectly dry "
+                              "air has no dew point")
     t_min = dew_point(vapour_pressure(t_i, rh_inside) / phi)
     diff = t_i - t_e
     applies = diff >= MIN_TEMPERATURE_DIFFERENCE
