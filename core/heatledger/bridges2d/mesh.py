@@ -31,14 +31,17 @@ from .geometry import Blocks
 
 __all__ = ["Grid", "DIRECT_MAX_CELLS", "MAX_CELLS_2D", "CG_RTOL"]
 
-#: Most cells solved directly (SuperLU). Above, preconditioned conjugate gradients, which
-#: hold far less memory but take thousands of iterations. Measured on this project's build
-#: machine (24 GiB): 1.5 million cells factorise in about 13 s with 2.3 GB at peak.
-#: common practice, no published source
-DIRECT_MAX_CELLS = 3_000_000
-#: Most cells of one grid: conjugate gradients hold about 200 bytes a cell (matrix, five
-#: vectors, the grid arrays), 12 million cells about 2.5 GB, and need thousands of
-#: iterations of 0.1 s each at that size. common practice, no published source
+#: Most cells solved directly (SuperLU). Measured with EN ISO 10211 case 2 on this
+#: project's 2-core, 24 GiB build machine: 1.5 million cells in 13 s with 2.3 GB at peak,
+#: 3.1 million in 49 s with 4.8 GB, 6.1 million in 124 s with 10.0 GB, 7.9 million in 168 s
+#: with 13.2 GB; the factors grow a little faster than the cells, so 8 million keeps the
+#: peak near 14 GB. common practice, no published source
+DIRECT_MAX_CELLS = 8_000_000
+#: Most cells of one grid. Above DIRECT_MAX_CELLS conjugate gradients hold about 400 bytes
+#: a cell (matrix, assembly arrays, vectors, grid arrays), under 5 GB at 12 million cells,
+#: but need tens of thousands of iterations there (about 4,000 at 380,000 cells on case 2,
+#: growing as the square root of the cells): a solve of an hour or more. common practice, no
+#: published source
 MAX_CELLS_2D = 12_000_000
 #: Relative residual at which conjugate gradients stop; the energy balance of the result
 #: shows what is left (about 1e-11 relative in the tests). [-]
