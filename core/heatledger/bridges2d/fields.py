@@ -15,7 +15,9 @@ and y: ``T = T_P + (x - x_P)/(d_x/2) (T_e - T_P) + (y - y_P)/(d_y/2) (T_n - T_P)
 ``T_e`` the east face for a point east of the centre (the west face otherwise), ``T_n`` the
 same in y. This is exact for a field linear in each cell. A point on a cell edge or corner
 (a material junction, the outline) takes the mean of the values of every cell of material
-that touches it.
+that touches it, weighted by the cells' conductivities: the weighting of the face temperature
+above for cells of equal size, so at a junction of aluminium and insulation the metal, whose
+temperature is nearly uniform, sets the value.
 
 Sources: [source: patankar-1980, ch. 4].
 """

@@ -12,7 +12,7 @@ resistance (0 for a fixed surface temperature); faces on the outline without a s
 adiabatic. The matrix is symmetric positive definite; it is assembled at once from numpy
 arrays (no loop over cells) as a ``scipy.sparse`` CSC matrix, factorised by SuperLU with a
 minimum-degree ordering of ``A + A^T`` up to :data:`DIRECT_MAX_CELLS` cells and solved by
-preconditioned conjugate gradients above.
+conjugate gradients above, preconditioned by the tridiagonal part along the grid rows.
 
 Sources: [source: patankar-1980, ch. 4]; direct solve [source: superlu, 2005]; conjugate
 gradients [source: saad-2003, 6.7, 9.2
@@ -31,18 +31,23 @@ from .geometry import Blocks
 
 __all__ = ["Grid", "DIRECT_MAX_CELLS", "MAX_CELLS_2D", "CG_RTOL"]
 
-#: Most cells solved directly (SuperLU). Above, conjugate gradients with a diagonal
-#: preconditioner. Measured on this project's build machine: 1.5 million cells factorise in
-#: about 13 s with about 2 GB; the fill grows as n log n, so 3 million take about 5 GB.
-#: common practice, no published source
-DIRECT_MAX_CELLS = 3_000_000
-#: Most cells of one grid: conjugate gradients hold about 200 bytes a cell (matrix, five
-#: vectors, the grid arrays), 12 million cells about 2.5 GB, and need thousands of
-#: iterations of 0.1 s each at that size. common practice, no published source
+#: Most cells solved directly (SuperLU). Measured with EN ISO 10211 case 2 on this
+#: project's 2-core, 24 GiB build machine: 1.5 million cells in 13 s with 2.3 GB at peak,
+#: 3.1 million in 49 s with 4.8 GB, 6.1 million in 124 s with 10.0 GB, 7.9 million in 168 s
+#: with 13.2 GB; the factors grow a little faster than the cells, so 8 million keeps the
+#: peak near 14 GB. common practice, no published source
+DIRECT_MAX_CELLS = 8_000_000
+#: Most cells of one grid. Above DIRECT_MAX_CELLS conjugate gradients hold about 400 bytes
+#: a cell (matrix, assembly arrays, vectors, grid arrays), under 5 GB at 12 million cells,
+#: but need tens of thousands of iterations there (about 4,000 at 380,000 cells on case 2,
+#: growing as the square root of the cells): a solve of an hour or more. common practice, no
+#: published source
 MAX_CELLS_2D = 12_000_000
-#: Relative residual at which conjugate gradients stop; the energy balance is then checked
-#: against the project's 1e-9 and refined by further iterations if needed. [-]
+#: Relative residual at which conjugate gradients stop; the energy balance of the result
+#: shows what is left (about 1e-11 relative in the tests). [-]
 CG_RTOL = 1e-12
+#: Most conjugate-gradient iterations before the solve is given up. [-]
+CG_MAX_ITERATIONS = 200_000
 #: Most refinement steps of a direct solve (as in the 1-D engine).
 MAX_REFINEMENTS = 2
 
@@ -206,8 +211,9 @@ def balanced(temp, bnd, amb) -> bool:
 
 def solve_system(matrix, rhs, faces, bnd, amb) -> tuple[np.ndarray, str, int]:
     """Solve the finite-volume system: SuperLU up to :data:`DIRECT_MAX_CELLS` cells, with up
-    to two refinement steps from the flux-form residual; conjugate gradients with a diagonal
-    preconditioner above. Returns ``(temperatures, solver, steps)``. [degC, -, -]
+    to two refinement steps from the flux-form residual; conjugate gradients preconditioned by
+    the tridiagonal part along the grid rows above. Returns ``(temperatures, solver,
+    steps)``. [degC, -, -]
 
     Parameters
     ----------
@@ -229,19 +235,41 @@ def solve_system(matrix, rhs, faces, bnd, amb) -> tuple[np.ndarray, str, int]:
             temp += lu.solve(flux_residual(temp, faces, bnd, amb))
             steps += 1
         return temp, "direct (SuperLU, minimum-degree ordering of A + A^T)", steps
-    diag = matrix.diagonal()
-    precond = linalg.LinearOperator((n, n), matvec=lambda v: v / diag, dtype=float)
+    precond = _row_preconditioner(matrix.diagonal(), faces, linalg)
     counter = {"iterations": 0}
 
     def count(_):
         counter["iterations"] += 1
 
-    temp, info = linalg.cg(matrix, rhs, rtol=CG_RTOL, maxiter=20 * int(math.sqrt(n)) + 1000,
-                           M=precond, callback=count)
+    temp, info = linalg.cg(matrix, rhs, rtol=CG_RTOL, maxiter=CG_MAX_ITERATIONS, M=precond,
+                           callback=count)
     if info != 0:
         raise HeatLedgerError(
-            f"the iterative solver did not converge on {n:,} cells in {counter['iterations']} "
-            "iterations; use a larger max_cell (fewer cells are solved directly, up to "
-            f"{DIRECT_MAX_CELLS:,})")
-    return temp, "iterative (conjugate gradients, diagonal preconditioner)", \
+            f"the iterative solver did not converge on {n:,} cells in {counter['iterations']:,} "
+            f"iterations; use a larger max_cell (up to {DIRECT_MAX_CELLS:,} cells are solved "
+            "directly)")
+    return temp, "iterative (conjugate gradients, line preconditioner along grid rows)", \
         counter["iterations"]
+
+
+def _row_preconditioner(diag, faces, linalg):
+    """Line-Jacobi preconditioner: the matrix with only its couplings along grid rows (x
+    faces), a symmetric positive definite tridiagonal matrix factorised once by LAPACK
+    ``?pttrf`` and applied by ``?pttrs`` (one O(n) sweep per iteration). [-]"""
+    from scipy.linalg import lapack
+
+    first, second, g = faces
+    n = diag.size
+    off = np.zeros(max(n - 1, 0))
+    along = second - first == 1  # neighbours along a row have consecutive numbers
+    off[first[along]] = -g[along]
+    d, e, info = lapack.dpttrf(diag.copy(), off)
+    if info != 0:
+        raise HeatLedgerError(f"the finite-volume system is singular (LAPACK pttrf "
+                              f"info={info})")
+
+    def apply(v):
+        x, _ = lapack.dpttrs(d, e, v)
+        return x
+
+    return linalg.LinearOperator((n, n), matvec=apply, dtype=float)

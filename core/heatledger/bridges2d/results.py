@@ -101,6 +101,28 @@ class Section2DResult:
     solution : dict
         The solve's arrays and record (internal). [-]
 
+    Attributes
+    ----------
+    heat_flows : dict
+        Surface name -> heat flow into the body through it. [W/m]
+    energy_balance : float
+        Sum of the heat flows through all surfaces (0 for an exact balance). [W/m]
+    energy_residual : float
+        ``energy_balance`` over half the sum of the magnitudes of the heat flows (the heat
+        flow through the section); the project asks at most 1e-9. [-]
+    cells : int
+        Cells of material solved. [-]
+    solver : str
+        The linear solver that ran (direct or iterative, with its preconditioner). [-]
+    max_cell : float
+        Largest cell edge asked for. [m]
+    cell_temperatures : ndarray
+        Temperatures at the cell centres, in the order of the grid's ``index``. [degC]
+    grid : Grid
+        The cell grid (edges, conductivities, numbering). [-]
+    settings : dict
+        Cells, grid size, solver, refinement steps or iterations, method. [-]
+
     References
     ----------
     [source: iso10211-method, 10 and 11]; [source: iso10211-validation, Annex A].
@@ -237,8 +259,8 @@ class Section2DResult:
         -----
         Linear from each cell centre to its face middles; face temperatures from the face
         fluxes; on a surface, extrapolated through the boundary face; on an edge or corner
-        shared by several cells, the mean over the cells of material that touch it (see
-        ``heatledger.bridges2d.fields``).
+        shared by several cells, the mean over the cells of material that touch it,
+        weighted by their conductivities (see ``heatledger.bridges2d.fields``).
 
         References
         ----------
