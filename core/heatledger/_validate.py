@@ -444,8 +444,10 @@ def _has_word(names: tuple, words: tuple) -> str | None:
     return None
 
 
+@functools.lru_cache(maxsize=8192)
 def conductivity_class(*names) -> tuple | None:
-    """The material class of a layer from its names, as ``(class, low, high)``, or None.
+    """The material class of a layer from its names, as ``(class, low, high)``, or None
+    (cached: a workbook's tables repeat their layer names).
 
     Parameters
     ----------
