@@ -49,6 +49,7 @@ from .mesh_estimates import (  # noqa: F401
     richardson_estimate,
     three_mesh_estimate,
 )
+from .tridiagonal import solve_tridiagonal  # noqa: E402  (re-exported)
 
 __all__ = [
     "Boundary",
@@ -58,13 +59,15 @@ __all__ = [
     "surface_to_ambient",
     "fixed_flux",
     "solve_conduction",
+    "conduction_mesh",
+    "solve_on_mesh",
+    "ConductionMesh",
     "solve_tridiagonal",
     "richardson_estimate",
     "three_mesh_estimate",
     "exact_estimate",
 ]
 
-_GTSV = lapack.get_lapack_funcs("gtsv", dtype=np.float64)
 _PTTRF = lapack.get_lapack_funcs("pttrf", dtype=np.float64)
 _PTTRS = lapack.get_lapack_funcs("pttrs", dtype=np.float64)
 #: Most refinement steps taken.
@@ -322,6 +325,64 @@ def solve_conduction(
     ----------
     [source: patankar-1980, ch. 4].
     """
+    mesh = conduction_mesh(widths, conductivity, area=area, face_area=face_area)
+    return solve_on_mesh(mesh, left, right, source=source, source_slope=source_slope,
+                         face_source=face_source, refine=refine)
+
+
+@dataclass(frozen=True)
+class ConductionMesh:
+    """The checked geometry of a 1-D finite-volume mesh, ready for solves that differ only
+    in their sources and boundaries (the iterations of a non-linear problem).
+
+    Attributes
+    ----------
+    widths : ndarray
+        Cell widths. [m]
+    half : ndarray
+        Half-cell resistances ``w_i / (2 k_i A_i)``. [K/W]
+    g_int : ndarray
+        Interior face conductances. [W/K]
+    a_p : ndarray
+        Diagonal from the interior faces alone. [W/K]
+    face_areas : tuple of float
+        Areas of the two boundary faces. [m2]
+
+    References
+    ----------
+    [source: patankar-1980, ch. 4].
+    """
+
+    widths: np.ndarray
+    half: np.ndarray
+    g_int: np.ndarray
+    a_p: np.ndarray
+    face_areas: tuple
+
+
+def conduction_mesh(widths, conductivity, *, area=None, face_area=None) -> ConductionMesh:
+    """Check the geometry of a mesh and compute its conductances once (see
+    :func:`solve_conduction` for the arguments).
+
+    Parameters
+    ----------
+    widths : array_like
+        Cell widths. [m]
+    conductivity : array_like
+        Conductivity of each cell. [W/(m K)]
+    area : array_like, optional
+        Conduction area of each cell. [m2]
+    face_area : sequence of two floats, optional
+        Areas of the two boundary faces. [m2]
+
+    Returns
+    -------
+    ConductionMesh
+
+    References
+    ----------
+    [source: patankar-1980, ch. 4 (harmonic-mean face conductance)].
+    """
     w = np.asarray(widths, dtype=float)
     k = np.asarray(conductivity, dtype=float)
     n = w.size
@@ -335,24 +396,58 @@ def solve_conduction(
         # min > 0 rejects zeros, negatives and NaN; a finite sum rejects infinities
         if arr is not None and not (arr.min() > 0.0 and np.isfinite(arr.sum())):
             raise HeatLedgerError(f"every {name} must be finite and greater than zero")
+    areas = _boundary_areas(a, face_area, w)
+    half = w / (2.0 * k) if a is None else w / (2.0 * k * a)  # half-cell resistances [K/W]
+    g_int = np.add(half[:-1], half[1:])
+    np.reciprocal(g_int, out=g_int)  # interior face conductances [W/K]
+    a_p = np.empty(n)
+    a_p[0] = 0.0
+    a_p[1:] = g_int
+    a_p[:-1] += g_int
+    return ConductionMesh(w, half, g_int, a_p, areas)
+
+
+def solve_on_mesh(mesh: ConductionMesh, left: Boundary, right: Boundary, *, source=None,
+                  source_slope=None, face_source=None, refine="auto") -> FVSolution:
+    """Solve on a checked mesh (see :func:`solve_conduction`, which is this after
+    :func:`conduction_mesh`).
+
+    Parameters
+    ----------
+    mesh : ConductionMesh
+        The mesh. [-]
+    left, right : Boundary
+        Boundary conditions. [-]
+    source : array_like, optional
+        Constant part of the cell source. [W]
+    source_slope : array_like, optional
+        Linear part of the cell source, <= 0. [W/K]
+    face_source : dict, optional
+        Interior face index -> heat released there. [W]
+    refine : {"auto", True, False}
+        Iterative refinement with the same factors. [-]
+
+    Returns
+    -------
+    FVSolution
+
+    References
+    ----------
+    [source: patankar-1980, ch. 4]; [source: lapack, ?pttrf and ?pttrs].
+    """
+    w, half, g_int = mesh.widths, mesh.half, mesh.g_int
+    n = w.size
     if left.kind == "flux" and right.kind == "flux":
         raise HeatLedgerError(
             "at least one boundary must fix a temperature (temperature or surface); "
             "two flux boundaries leave the temperature level undefined"
         )
-    area0, area_n = _boundary_areas(a, face_area, w)
-    half = w / (2.0 * k) if a is None else w / (2.0 * k * a)  # half-cell resistances [K/W]
-    g_int = np.add(half[:-1], half[1:])
-    np.reciprocal(g_int, out=g_int)  # interior face conductances [W/K]
-
+    area0, area_n = mesh.face_areas
     b = np.zeros(n) if source is None else np.array(np.broadcast_to(source, (n,)), dtype=float)
     face_q = _face_sources(face_source, half, b)
     # numpy's pairwise sum (no BLAS): this total feeds only the energy-balance residual
     src_const = float(b.sum()) if (source is not None or face_q) else 0.0
-    a_p = np.empty(n)
-    a_p[0] = 0.0
-    a_p[1:] = g_int
-    a_p[:-1] += g_int
+    a_p = mesh.a_p.copy()
     sp = None
     if source_slope is not None:
         sp = np.broadcast_to(np.asarray(source_slope, dtype=float), (n,))
@@ -386,41 +481,6 @@ def solve_conduction(
     return FVSolution(temp, w, half, g_int, a_p, b, q_in, q_out, src, imbalance / scale,
                       {"cells": n, "method": "cell-centred finite volume, harmonic-mean faces",
                        "refinements": refinements}, face_q)
-
-
-def solve_tridiagonal(sub_diagonal, main_diagonal, super_diagonal, rhs) -> np.ndarray:
-    """Solve a tridiagonal system in O(N) with LAPACK ``?gtsv``.
-
-    Parameters
-    ----------
-    sub_diagonal : array_like
-        Sub-diagonal, ``N - 1`` values (row i+1, column i). [-]
-    main_diagonal : array_like
-        Main diagonal, ``N`` values. [-]
-    super_diagonal : array_like
-        Super-diagonal, ``N - 1`` values (row i, column i+1). [-]
-    rhs : array_like
-        Right-hand side, ``N`` values. [-]
-
-    Returns
-    -------
-    ndarray
-        The solution vector.
-
-    Examples
-    --------
-    >>> solve_tridiagonal([-1.0], [2.0, 2.0], [-1.0], [1.0, 1.0])
-    array([1., 1.])
-
-    References
-    ----------
-    [source: lapack, ?gtsv].
-    """
-    d = np.array(main_diagonal, dtype=float)
-    if d.size == 1:
-        return np.asarray(rhs, dtype=float) / d
-    return _gtsv(np.array(sub_diagonal, dtype=float), d, np.array(super_diagonal, dtype=float),
-                 np.array(rhs, dtype=float))
 
 
 def _boundary_areas(a, face_area, w) -> tuple[float, float]:
@@ -496,15 +556,6 @@ def _solve_factored(factors, rhs) -> np.ndarray:
     x, info = _PTTRS(d, e, rhs, overwrite_b=1)
     if info != 0:
         raise HeatLedgerError(f"the finite-volume solve failed (LAPACK pttrs info={info})")
-    return x
-
-
-def _gtsv(dl, d, du, b) -> np.ndarray:
-    """LAPACK ?gtsv on arrays it may overwrite."""
-    _, _, _, x, info = _GTSV(dl, d, du, b, overwrite_dl=1, overwrite_d=1, overwrite_du=1,
-                             overwrite_b=1)
-    if info != 0:
-        raise HeatLedgerError(f"the finite-volume system is singular (LAPACK gtsv info={info})")
     return x
 
 

@@ -25,9 +25,10 @@ from .._constants import ZERO_CELSIUS as zero_Celsius
 from ..errors import HeatLedgerError
 from ..fv1d import (
     REFINE_BELOW,
+    conduction_mesh,
     fixed_flux,
     fixed_temperature,
-    solve_conduction,
+    solve_on_mesh,
     surface_to_ambient,
     three_mesh_estimate,
 )
@@ -428,6 +429,7 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
         # a resistance per unit area of the tip face (face_area below)
         return surface_to_ambient(t_eq, 1.0 / coeff)
 
+    mesh = conduction_mesh(widths, kk, area=a_c, face_area=faces)  # checked once
     if initial is None:
         temp, t_tip = np.full(n, t_b), t_b
     else:  # start from a solution on another mesh
@@ -440,8 +442,8 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
         system = (right_bc(t_tip), sc, sp)
         # refinement only near convergence: the iterates before are replaced anyway
         near = not nonlinear or change < REFINE_NEAR_K
-        sol = solve_conduction(widths, kk, left, system[0], area=a_c, face_area=faces,
-                               source=sc, source_slope=sp, refine="auto" if near else False)
+        sol = solve_on_mesh(mesh, left, system[0], source=sc, source_slope=sp,
+                            refine="auto" if near else False)
         iterations += 1
         previous = change
         change = float(np.max(np.abs(sol.temperature - temp)))
@@ -461,8 +463,8 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
     if not nonlinear:
         change = 0.0
     if abs(sol.energy_residual) > REFINE_BELOW:  # refine the last iterate only
-        sol = solve_conduction(widths, kk, left, system[0], area=a_c, face_area=faces,
-                               source=system[1], source_slope=system[2], refine="auto")
+        sol = solve_on_mesh(mesh, left, system[0], source=system[1], source_slope=system[2],
+                            refine="auto")
         temp, t_tip = sol.temperature, float(sol.face_temperature[-1])
 
     out = _fin_balance(sol, law, eps, x, temp, t_b, t_inf, t_sur, t_tip, p_dx, tip, a_tip,
