@@ -37,11 +37,11 @@ __all__ = ["Grid", "DIRECT_MAX_CELLS", "MAX_CELLS_2D", "CG_RTOL"]
 #: with 13.2 GB; the factors grow a little faster than the cells, so 8 million keeps the
 #: peak near 14 GB. common practice, no published source
 DIRECT_MAX_CELLS = 8_000_000
-#: Most cells of one grid. Above DIRECT_MAX_CELLS conjugate gradients hold about 400 bytes
-#: a cell (matrix, assembly arrays, vectors, grid arrays), under 5 GB at 12 million cells,
-#: but need tens of thousands of iterations there (about 4,000 at 380,000 cells on case 2,
-#: growing as the square root of the cells): a solve of an hour or more. common practice, no
-#: published source
+#: Most cells of one grid. Above DIRECT_MAX_CELLS, conjugate gradients hold about 350 bytes
+#: a cell (0.53 GB at peak for 1.5 million cells, so about 4 GB at 12 million) but are slow:
+#: case 2 at 1.5 million cells took 8,021 iterations and 316 s on the same machine (its heat
+#: flow within 4e-6 of the direct solve's), and both the iterations and their cost grow with
+#: the cells, so 12 million would take about two hours. common practice, no published source
 MAX_CELLS_2D = 12_000_000
 #: Relative residual at which conjugate gradients stop; the energy balance of the result
 #: shows what is left (about 1e-11 relative in the tests). [-]
