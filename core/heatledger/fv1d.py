@@ -339,12 +339,12 @@ class ConductionMesh:
     ----------
     widths : ndarray
         Cell widths. [m]
-    half : ndarray
+    half_resistance : ndarray
         Half-cell resistances ``w_i / (2 k_i A_i)``. [K/W]
     g_int : ndarray
         Interior face conductances. [W/K]
-    a_p : ndarray
-        Diagonal from the interior faces alone. [W/K]
+    a_centre : ndarray
+        Diagonal coefficient a_P from the interior faces alone. [W/K]
     face_areas : tuple of float
         Areas of the two boundary faces. [m2]
 
@@ -354,9 +354,9 @@ class ConductionMesh:
     """
 
     widths: np.ndarray
-    half: np.ndarray
+    half_resistance: np.ndarray
     g_int: np.ndarray
-    a_p: np.ndarray
+    a_centre: np.ndarray
     face_areas: tuple
 
 
@@ -435,7 +435,7 @@ def solve_on_mesh(mesh: ConductionMesh, left: Boundary, right: Boundary, *, sour
     ----------
     [source: patankar-1980, ch. 4]; [source: lapack, ?pttrf and ?pttrs].
     """
-    w, half, g_int = mesh.widths, mesh.half, mesh.g_int
+    w, half, g_int = mesh.widths, mesh.half_resistance, mesh.g_int
     n = w.size
     if left.kind == "flux" and right.kind == "flux":
         raise HeatLedgerError(
@@ -447,7 +447,7 @@ def solve_on_mesh(mesh: ConductionMesh, left: Boundary, right: Boundary, *, sour
     face_q = _face_sources(face_source, half, b)
     # numpy's pairwise sum (no BLAS): this total feeds only the energy-balance residual
     src_const = float(b.sum()) if (source is not None or face_q) else 0.0
-    a_p = mesh.a_p.copy()
+    a_p = mesh.a_centre.copy()
     sp = None
     if source_slope is not None:
         sp = np.broadcast_to(np.asarray(source_slope, dtype=float), (n,))
