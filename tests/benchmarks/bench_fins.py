@@ -62,7 +62,7 @@ def main() -> None:
     for label, kw, target in cases:
         res = fin(**kw)
         line = paired(f"{label} (A) / one linear solve (B)", lambda kw=kw: fin(**kw),
-                      linear_solve, pairs=5).line(target)
+                      linear_solve, pairs=15, inner=3).line(target)
         est = res.mesh_estimate
         extra = (f"; estimate {est.error_estimate:.1e} W, {est.basis}" if est else "")
         print(f"{line}\n    {res.iterations} Newton/Picard solves, last change "
