@@ -267,7 +267,9 @@ def _parser() -> argparse.ArgumentParser:
 
     a = sub.add_parser("audit", help="write the self-checking audit workbook of a project")
     a.add_argument("file", help="project file (.toml) or filled-in template (.xlsx)")
-    a.add_argument("-o", "--output", metavar="XLSX", required=True, help="output file")
+    a.add_argument("-o", "--output", metavar="XLSX|PDF", required=True,
+                   help="output workbook (.xlsx), or the record printed to PDF by LibreOffice "
+                        "(.pdf)")
     a.add_argument("--force", action="store_true", help="replace an existing output file")
     a.add_argument("--quiet", action="store_true", help="no progress display")
     a.set_defaults(handler=_cmd_audit)

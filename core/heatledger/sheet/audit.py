@@ -235,9 +235,8 @@ def _cover_setup(st) -> None:
     info = project.info
     b = sheet.block("cover")
     b.put("B1", "heatledger calculation record", style="hl title")
-    b.put("B2", "Thermal resistance, U-values and temperatures through constructions; heat "
-                "loss and fins where the project has them",
-          role="note")
+    b.put("B2", "; ".join(fam.title for fam in FAMILIES
+                          if fam.present(project) or fam is FAMILIES[0]), role="note")
     r = 4
     b.put(f"B{r}", "Project information", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")

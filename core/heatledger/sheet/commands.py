@@ -79,7 +79,7 @@ def run_audit(source, output, *, force: bool = False, quiet: bool = False) -> in
     source : str or path-like
         ``.toml`` project file or ``.xlsx`` template. [-]
     output : str or path-like
-        Output .xlsx file. [-]
+        Output .xlsx workbook, or .pdf for the record printed by LibreOffice. [-]
     force : bool
         Replace an existing file. [-]
     quiet : bool
@@ -124,7 +124,27 @@ def _write(project, out: Path, *, force: bool, quiet: bool) -> int:
             if i == total:
                 sys.stderr.write("\n")
             sys.stderr.flush()
-    path = write_audit(project, out, force=force, progress=progress)
+    suffix = out.suffix.lower()
+    if suffix == ".pdf":
+        from .audit import audit_plan
+        from .pdf import spreadsheet_program, workbook_to_pdf
+        from .render_openpyxl import workbook_bytes
+
+        if spreadsheet_program() is None:  # say so before the work, not after
+            from .pdf import INSTALL_HINT
+
+            raise HeatLedgerError(INSTALL_HINT)
+        path = workbook_to_pdf(workbook_bytes(audit_plan(project, progress=progress)), out,
+                               force=force)
+        what, hint = "record (PDF, recalculated and printed by LibreOffice)", (
+            "the cover says whether all checks are OK")
+    elif suffix in (".xlsx", ""):
+        path = write_audit(project, out, force=force, progress=progress)
+        what, hint = "audit", ("open it in a spreadsheet program and check that the cover "
+                               "says ALL CHECKS OK")
+    else:
+        raise HeatLedgerError(f"the output must be a workbook (.xlsx) or the printed record "
+                              f"(.pdf); got {quote(out.name)}")
     parts = [_count(n, "construction")]
     rooms = getattr(getattr(project, "building", None), "building", None)
     n_rooms = len(getattr(rooms, "rooms", ()) or ())
@@ -136,8 +156,7 @@ def _write(project, out: Path, *, force: bool, quiet: bool) -> int:
         parts.append(_count(len(project.junctions), "junction"))
     if project.moisture:
         parts.append(_count(len(project.moisture), "moisture check"))
-    print(f"heatledger: audit of {', '.join(parts)} written to {path}; "
-          "open it in a spreadsheet program and check that the cover says ALL CHECKS OK")
+    print(f"heatledger: {what} of {', '.join(parts)} written to {path}; {hint}")
     return 0
 
 
