@@ -42,3 +42,31 @@ def test_without_a_spreadsheet_program_the_message_says_how_to_get_one(tmp_path,
     assert not (tmp_path / "record.pdf").exists()
     with pytest.raises(HeatLedgerError, match=r"\(.xlsx\) or the printed record \(.pdf\)"):
         commands.run_audit(project, tmp_path / "record.docx")
+
+
+@pytest.mark.calc
+def test_the_cover_answers_first_and_equals_the_engine(tmp_path, recalc):
+    import openpyxl
+
+    from heatledger.sheet.render_openpyxl import write_workbook
+    from tests.tolerances import RTOL_SHEET
+
+    project = demo_project()
+    wb = openpyxl.load_workbook(recalc(write_workbook(audit_plan(project),
+                                                      tmp_path / "a.xlsx")), data_only=True)
+    rows = list(wb["Cover"].iter_rows(min_col=2, max_col=4, values_only=True))
+    assert rows[3][0].startswith("Results")
+    found = {(b, c.split(":")[0] if isinstance(c, str) else c): d for b, c, d in rows[4:40]
+             if b}
+    for entry in project.constructions:
+        value = next(v for (item, q), v in found.items() if item == entry.name)
+        assert value == pytest.approx(entry.construction.u_value, rel=RTOL_SHEET)
+    for j in project.junctions:
+        value = next(v for (item, q), v in found.items()
+                     if item == f"Junction {j.name}" and q.startswith("psi"))
+        assert value == pytest.approx(j.result.psi_result.psi, rel=RTOL_SHEET, abs=1e-12)
+    load = next(v for (item, q), v in found.items()
+                if item == "Building" and q.startswith("design heat load"))
+    assert load == pytest.approx(project.building.heat_load().design_heat_load, rel=RTOL_SHEET)
+    verdicts = [c for b, c, _ in rows[4:40] if b and b.startswith("Moisture")]
+    assert any("FAILS" in v for v in verdicts)  # the demo's canopy junction fails (invented)

@@ -24,7 +24,8 @@ from .plan import (
 )
 from .render_openpyxl import workbook_bytes, write_workbook
 
-__all__ = ["audit_plan", "write_audit", "audit_bytes", "tool_version", "AuditContext"]
+__all__ = ["audit_plan", "write_audit", "audit_bytes", "tool_version", "AuditContext",
+           "Answer"]
 
 
 @dataclass
@@ -49,6 +50,8 @@ class AuditContext:
         ``{"count": expression, "ok": expression}`` per family: its check cells. [-]
     check_lists : list of str
         Sheets that list check cells sheet by sheet, for the cover. [-]
+    answers : list of Answer
+        The results the cover shows first, each a live reference to its sheet. [-]
     """
 
     title: str
@@ -59,6 +62,29 @@ class AuditContext:
     construction_refs: dict = field(default_factory=dict)
     counts: list = field(default_factory=list)
     check_lists: list = field(default_factory=list)
+    answers: list = field(default_factory=list)
+
+
+@dataclass(frozen=True)
+class Answer:
+    """One result the cover shows first.
+
+    Attributes
+    ----------
+    item : str
+        What it is about (a construction, a room, a junction...). [-]
+    quantity : str
+        The quantity with its unit, or a formula giving that text with a verdict. [-]
+    value : str or None
+        Formula of the value (a reference to its sheet), or None for a text result. [-]
+    number_format : str
+        Format of the value. [-]
+    """
+
+    item: str
+    quantity: str
+    value: str | None = None
+    number_format: str = "0.000"
 
 _PROJECT_FIELDS = (("name", "Project"), ("client", "Client"), ("site", "Site"),
                    ("author", "Author"), ("checker", "Checker"), ("revision", "Revision"),
@@ -237,7 +263,7 @@ def _cover_setup(st) -> None:
     b.put("B1", "heatledger calculation record", style="hl title")
     b.put("B2", "; ".join(fam.title for fam in FAMILIES
                           if fam.present(project) or fam is FAMILIES[0]), role="note")
-    r = 4
+    r = _cover_answers(b, sheet, audit.answers, 4)
     b.put(f"B{r}", "Project information", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1
@@ -254,6 +280,23 @@ def _cover_setup(st) -> None:
     st.b = b
     st.r = r
     st.tolerance = tolerance
+
+
+def _cover_answers(b, sheet, answers, r: int) -> int:
+    """The results first: one row per answer, live references to the sheets."""
+    b.put(f"B{r}", "Results (live references to the calculation sheets)", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    for a in answers:
+        b.put(f"B{r}", a.item, style="hl text wrap")
+        if a.quantity.startswith("="):
+            b.put(f"C{r}", formula=a.quantity, style="hl text wrap")
+        else:
+            b.put(f"C{r}", a.quantity, style="hl text wrap")
+        if a.value is not None:
+            b.put(f"D{r}", formula=a.value, number_format=a.number_format)
+        r += 1
+    return r + 1
 
 
 def _cover_record(st) -> None:

@@ -73,10 +73,24 @@ def add_sheets(plan, project, audit) -> None:
             project_name=audit.title, tolerance=audit.tolerance))
         plan.index[entry.name] = refs[-1]
         audit.construction_refs[entry.name] = refs[-1]
+        audit.answers.append(_answer(entry, refs[-1]))
         if audit.progress is not None:
             audit.progress(i, total, entry.name)
     audit.counts.append(_summary(audit.summary, project, refs))
     audit.check_lists.append("the Summary (constructions)")
+
+
+def _answer(entry, ref):
+    """The construction's U on the cover, with its target when it has one."""
+    from .audit import Answer
+
+    if entry.target_u is None:
+        return Answer(entry.name, "U-value [W/(m2 K)] (EN ISO 6946)", f"={ref.u_value}",
+                      "0.000")
+    t = f"{entry.target_u:g}"
+    return Answer(entry.name, f'=IF({ref.u_value}<={t},"U-value [W/(m2 K)]: meets the target '
+                              f'{t}","U-value [W/(m2 K)]: ABOVE the target {t}")',
+                  f"={ref.u_value}", "0.000")
 
 
 def _sheet_names(names) -> list[str]:

@@ -115,7 +115,8 @@ class FinRefs:
 
 
 def add_fin_sheets(plan: WorkbookPlan, project, summary_cells: dict | None = None, *,
-                   tolerance: float = DEFAULT_CHECK_TOLERANCE, project_name: str = "") -> dict:
+                   tolerance: float = DEFAULT_CHECK_TOLERANCE, project_name: str = "",
+                   answers: list | None = None) -> dict:
     """Add the ``Fins`` overview and one sheet per fin entry; return the check-count cells.
 
     Parameters
@@ -131,6 +132,8 @@ def add_fin_sheets(plan: WorkbookPlan, project, summary_cells: dict | None = Non
         Relative tolerance of the check cells. [-]
     project_name : str
         Project name for the page headers. [-]
+    answers : list, optional
+        Gains ``(fin name, FinRefs)`` for the cover. [-]
 
     Returns
     -------
@@ -152,6 +155,8 @@ def add_fin_sheets(plan: WorkbookPlan, project, summary_cells: dict | None = Non
         refs.append(add_fin_sheet(plan, name, entry, tolerance=tolerance,
                                   project_name=project_name))
         plan.index[("fins", entry.name)] = refs[-1]
+        if answers is not None:
+            answers.append((entry.name, refs[-1]))
     cells = _overview(overview, project.fins, refs)
     if summary_cells:
         return {k: f"{summary_cells[k]}+{cells[k]}" for k in ("count", "ok")}
@@ -448,8 +453,17 @@ def add_sheets(plan: WorkbookPlan, project, audit) -> None:
     audit : heatledger.sheet.audit.AuditContext
         Shared state of the audit; gains the fins' check counts. [-]
     """
+    from .audit import Answer
+
+    found: list = []
     audit.counts.append(add_fin_sheets(plan, project, tolerance=audit.tolerance,
-                                       project_name=audit.title))
+                                       project_name=audit.title, answers=found))
+    for name, ref in found:
+        audit.answers.append(Answer(f"Fin {name}", "heat rate of one fin [W]",
+                                    f"={ref.heat_rate}", "0.000"))
+        if ref.array:
+            audit.answers.append(Answer(f"Fin {name}", "heat rate of the array [W]",
+                                        f"={ref.array['heat_rate']}", "0.00"))
     audit.check_lists.append("Fins")
 
 

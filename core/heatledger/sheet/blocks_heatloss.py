@@ -512,6 +512,16 @@ def add_sheets(plan: WorkbookPlan, project, audit) -> None:
                              tolerance=audit.tolerance,
                              construction_refs=dict(audit.construction_refs))
     plan.index["heat loss"] = hl
+    from .audit import Answer
+
+    for name, cells in hl.rooms.items():
+        audit.answers.append(Answer(f"Room {name}", "design heat load [W] (EN 12831-1)",
+                                    f"={cells['load']}", "#,##0"))
+    audit.answers.append(Answer("Building", "design heat load [W] (EN 12831-1)",
+                                f"={hl.building['load']}", "#,##0"))
+    if hl.building.get("energy"):
+        audit.answers.append(Answer("Building", "annual heating energy [kWh]",
+                                    f"={hl.building['energy']}", "#,##0"))
     audit.counts.append({"count": hl.check_count, "ok": hl.checks_ok})
     audit.check_lists.append("Heat loss building (rooms)")
 

@@ -18,6 +18,7 @@ from types import SimpleNamespace
 from .. import cautions as _cautions
 from ..bridges2d.junctions import RESISTANCE_INSIDE_FRSI
 from ..bridges2d.picture import temperature_picture
+from .audit import Answer
 from .blocks_construction import add_calculation_sheet
 from .plan import Picture, PrintSetup, WorkbookPlan, col_letter, safe_sheet_name, sheet_ref
 from .rows import CheckRows, RowLayout
@@ -259,6 +260,11 @@ def add_sheets(plan: WorkbookPlan, project, audit) -> None:
                                    project_name=audit.title)
         plan.index[("junction", entry.name)] = cells
         refs.append((entry, name, cells))
+        audit.answers += [
+            Answer(f"Junction {entry.name}", f"psi [W/(m K)] (EN ISO 10211, "
+                   f"{entry.junction.dimensions} dimensions)", f"={cells['psi']}", "0.000"),
+            Answer(f"Junction {entry.name}", "f_Rsi [-] (R_si 0.25)", f"={cells['f_rsi']}",
+                   "0.000")]
     audit.counts.append(_overview(overview, refs))
     audit.check_lists.append("Junctions")
 

@@ -8,6 +8,7 @@ Sources: [source: iso13788-surface, clause 5]; [source: iso13788-glaser, clause 
 from __future__ import annotations
 
 from .. import cautions as _cautions
+from .audit import Answer
 from .moisture_glaser_sheet import glaser_sections
 from .moisture_sheet import (
     HEADER_ROWS,
@@ -101,9 +102,14 @@ def add_sheets(plan: WorkbookPlan, project, audit) -> None:
     for i, entry in enumerate(project.moisture, 1):
         name = safe_sheet_name(f"Moist {i} {entry.name}", used,
                                reserved=[s.name for s in plan.sheets])
-        refs.append((entry, name, add_moisture_sheet(plan, name, entry,
-                                                     tolerance=audit.tolerance,
-                                                     project_name=audit.title)))
+        cells = add_moisture_sheet(plan, name, entry, tolerance=audit.tolerance,
+                                   project_name=audit.title)
+        refs.append((entry, name, cells))
+        audit.answers.append(Answer(f"Moisture {entry.name}",
+                                    f'="surface humidity (EN ISO 13788): "&{cells["surface"]}'))
+        if cells["verdict"]:
+            audit.answers.append(Answer(f"Moisture {entry.name}",
+                                        f'="interstitial condensation: "&{cells["verdict"]}'))
     audit.counts.append(_overview(overview, refs))
     audit.check_lists.append("Moisture")
 
