@@ -14,7 +14,7 @@ References
 EN ISO 10077-1:2017, *Thermal performance of windows, doors and shutters -- Calculation of
 thermal transmittance -- Part 1: General*, clause 6 (whole-window U-value) [M: clause and
 equation numbers recalled, check against the purchased text]; Annex G (default psi_g; Tables
-E.1 and E.2 of the 2006 edition) [M].
+E.1 and E.2 of the 2006 edition) (recalled).
 
 Sources: [source: iso10077-1, clause 6, Annex G].
 """
@@ -120,7 +120,7 @@ class WindowResult:
     heat_loss_coefficient: float
     frame_fraction: float
     u_value: float
-    method: str = "EN ISO 10077-1:2017 clause 6, whole window from glazing, frame and edge [M]"
+    method: str = "EN ISO 10077-1:2017 clause 6, whole window from glazing, frame and edge (recalled)"
     warnings: tuple = ()
 
 
@@ -330,7 +330,7 @@ def declared_window(u_value, *, source: str, area=None) -> DeclaredWindow:
 
     References
     ----------
-    EN ISO 10077-1:2017, scope (declared values of products may replace the calculation) [M].
+    EN ISO 10077-1:2017, scope (declared values of products may replace the calculation) (recalled).
     [source: iso10077-1, scope].
     """
     u = _validate.positive("u_value", u_value, "W/(m2 K)")
@@ -500,7 +500,7 @@ def psi_glazing_default(frame: str, glazing: str, *, spacer: str = "conventional
 
     Notes
     -----
-    Table look-up; no equation. The shipped values are recalled [M]: prefer a value declared
+    Table look-up; no equation. The shipped values are recalled (recalled): prefer a value declared
     for the actual spacer.
 
     References

@@ -11,7 +11,7 @@ The U-values here are the steady-state ``U`` of EN ISO 13370; for a design heat 
 EN 12831-1 they are used as ``U_equiv`` with the factors ``f_g1``, ``f_g2`` and ``G_w`` (see
 :mod:`heatledger.heatloss`).
 
-Every formula and coefficient here is recalled [M] [source: iso13370-slab] and
+Every formula and coefficient here is recalled (recalled) [source: iso13370-slab] and
 [source: iso13370-floors]; the slab formulas are checked against the worked values 0.762
 and 0.222 W/(m2 K). Check clause and equation numbers against the purchased standard before
 release.
@@ -20,7 +20,7 @@ References
 ----------
 EN ISO 13370:2017, *Thermal performance of buildings -- Heat transfer via the ground --
 Calculation methods*: Table 7 (ground conductivity by category), clause 8.2 (slab on ground),
-8.3 (suspended floor), 8.4 (heated basement), Annex B (edge insulation) [M].
+8.3 (suspended floor), 8.4 (heated basement), Annex B (edge insulation) (recalled).
 """
 
 from __future__ import annotations

@@ -202,7 +202,7 @@ def suspended_floor(
         wind_shielding_factor=fw,
         soil_conductivity=lam,
         u_value=u,
-        method=f"EN ISO 13370:2017 clause 8.3 suspended floor, h <= 0.5 m, f_w {shield} [M]",
+        method=f"EN ISO 13370:2017 clause 8.3 suspended floor, h <= 0.5 m, f_w {shield} (recalled)",
     )
 
 
@@ -371,7 +371,7 @@ def heated_basement(
         method=(
             "EN ISO 13370:2017 clause 8.4 heated basement, floor regime by comparing "
             "d_t + z/2 with B', wall bracket uses " + ("d_t" if dw >= dt else "d_w (d_w < d_t)")
-            + " [M]"
+            + " (recalled)"
         ),
     )
 

@@ -27,8 +27,8 @@ from .soil import (
     _area_perimeter,
 )
 
-_SLAB_METHOD = "EN ISO 13370:2017 clause 8.2 slab on ground [M]"
-_EDGE_METHOD = "EN ISO 13370:2017 Annex B edge insulation [M]"
+_SLAB_METHOD = "EN ISO 13370:2017 clause 8.2 slab on ground (recalled)"
+_EDGE_METHOD = "EN ISO 13370:2017 Annex B edge insulation (recalled)"
 
 
 # ----------------------------------------------------------------------------- slab

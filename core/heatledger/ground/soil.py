@@ -3,7 +3,7 @@
 References
 ----------
 EN ISO 13370:2017, Table 7 (ground conductivity by category) [C];
-clause 8 surface resistances [M].
+clause 8 surface resistances (recalled).
 """
 
 from __future__ import annotations
@@ -16,7 +16,7 @@ from .._arrays import non_negative_array as _non_negative_array
 from ..errors import HeatLedgerError
 
 #: Soil types and their EN ISO 13370:2017 Table 7 category: (category, conductivity
-#: [W/(m K)], volumetric heat capacity [J/(m3 K)]). Conductivities [C]; heat capacities [M].
+#: [W/(m K)], volumetric heat capacity [J/(m3 K)]). Conductivities [C]; heat capacities (recalled).
 SOIL_TYPES = {
     "clay": (1, 1.5, 3.0e6),
     "silt": (1, 1.5, 3.0e6),
@@ -33,12 +33,12 @@ DEFAULT_SOIL_CONDUCTIVITY = 2.0
 #: [m2 K/W]
 RSI_FLOOR = 0.17
 #: Internal surface resistance of a basement wall, heat flow horizontal (EN ISO 6946 Table 7
-#: value used for basement walls in EN ISO 13370 [M]). [m2 K/W]
+#: value used for basement walls in EN ISO 13370 (recalled)). [m2 K/W]
 RSI_WALL = 0.13
-#: External surface resistance used in the equivalent thickness (EN ISO 13370 [M]). [m2 K/W]
+#: External surface resistance used in the equivalent thickness (EN ISO 13370 (recalled)). [m2 K/W]
 RSE_GROUND = 0.04
 
-#: Wind shielding factor ``f_w`` of an underfloor space (EN ISO 13370:2017 8.3 [M]). [-]
+#: Wind shielding factor ``f_w`` of an underfloor space (EN ISO 13370:2017 8.3 (recalled)). [-]
 WIND_SHIELDING_FACTORS = {"sheltered": 0.02, "average": 0.05, "exposed": 0.10}
 
 #: How the exposed perimeter relates to the floor outline: ``"rectilinear"`` and ``"any"``

@@ -3,7 +3,7 @@
 References
 ----------
 EN 12831-1:2017, clause 6 (ventilation heat loss) [M: recalled].
-ASHRAE Handbook -- Fundamentals (2017), ch. 1 (dry-air properties) [M].
+ASHRAE Handbook -- Fundamentals (2017), ch. 1 (dry-air properties) (recalled).
 """
 
 from __future__ import annotations
@@ -24,14 +24,14 @@ from ..errors import HeatLedgerError
 AIR_REFERENCE_TEMPERATURE = 20.0
 #: Pressure at which the air properties below are stated: one standard atmosphere. [Pa]
 AIR_REFERENCE_PRESSURE = STANDARD_ATMOSPHERE
-#: Molar mass of dry air, ASHRAE Handbook -- Fundamentals (2017), ch. 1 [M]. [kg/mol]
+#: Molar mass of dry air, ASHRAE Handbook -- Fundamentals (2017), ch. 1 (recalled). [kg/mol]
 DRY_AIR_MOLAR_MASS = 28.966e-3
 #: Density of dry air at the reference state as an ideal gas, p M / (R T). [kg/m3]
 AIR_DENSITY = AIR_REFERENCE_PRESSURE * DRY_AIR_MOLAR_MASS / (
     GAS_CONSTANT * (AIR_REFERENCE_TEMPERATURE + ZERO_CELSIUS)
 )
 #: Specific heat capacity of dry air at constant pressure near 20 degC: the 1.006 kJ/(kg K)
-#: of the ASHRAE Handbook -- Fundamentals (2017) ch. 1 moist-air enthalpy [M]. [J/(kg K)]
+#: of the ASHRAE Handbook -- Fundamentals (2017) ch. 1 moist-air enthalpy (recalled). [J/(kg K)]
 AIR_SPECIFIC_HEAT = 1006.0
 
 _SECONDS_PER_HOUR = SECONDS_PER_HOUR
@@ -76,7 +76,7 @@ def ventilation_heat_loss_coefficient(
 
     References
     ----------
-    EN 12831-1:2017, clause 6 (ventilation heat-loss coefficient) [M].
+    EN 12831-1:2017, clause 6 (ventilation heat-loss coefficient) (recalled).
     [source: en12831-1, clause 6].
 
     Examples
@@ -181,7 +181,7 @@ def _ventilation(v: Ventilation, volume: float) -> VentilationFlows:
         f"basis {_show(v.basis)}; V_eff = V_inf + V_vent (1 - eta) + max(0, n_min V - V_inf - "
         f"V_vent); eta {v.heat_recovery:g}; minimum air change "
         + ("governs" if top_up > 0.0 else "met")
-        + "; EN 12831-1 style [M]"
+        + "; EN 12831-1 style (recalled)"
     )
     return VentilationFlows(
         basis=v.basis, ventilation_flow=vent, infiltration_flow=inf, minimum_flow=vmin,

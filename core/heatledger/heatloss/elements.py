@@ -19,11 +19,11 @@ from ..errors import HeatLedgerError
 from ..windows import WINDOW_AREA_RTOL
 
 #: Correction factor for the annual variation of the external temperature, f_g1
-#: (EN 12831-1:2017 [M]). [-]
+#: (EN 12831-1:2017 (recalled)). [-]
 GROUND_FACTOR_FG1 = 1.45
-#: Groundwater factor G_w when the water table is more than 1 m below the floor [M]. [-]
+#: Groundwater factor G_w when the water table is more than 1 m below the floor (recalled). [-]
 GROUNDWATER_FACTOR_DEEP = 1.0
-#: Groundwater factor G_w when the water table is 1 m or less below the floor [M]. [-]
+#: Groundwater factor G_w when the water table is 1 m or less below the floor (recalled). [-]
 GROUNDWATER_FACTOR_SHALLOW = 1.15
 
 #: Kinds of element, for the breakdown by element type. [-]
@@ -56,10 +56,10 @@ class Ground:
     annual_mean_external_temperature : float
         Annual mean external temperature ``theta_m,e``. [degC]
     f_g1 : float, optional
-        Correction for the annual variation of the external temperature; 1.45 [M]. [-]
+        Correction for the annual variation of the external temperature; 1.45 (recalled). [-]
     groundwater_factor : float, optional
         ``G_w``: 1.00 when the water table is more than 1 m below the floor, 1.15 when it is
-        1 m or less [M]. [-]
+        1 m or less (recalled). [-]
 
     References
     ----------
@@ -338,14 +338,14 @@ def _resolve_u(ctx: str, el: Element, own, building) -> tuple[float, str]:
                                   "the room and the building; keep one definition")
         obj = found[0][1]
         value = obj if isinstance(obj, (int, float)) else getattr(obj, "u_value", None)
-        source = f"construction {_show(u)} ({found[0][0]} mapping)"
+        source = f"EN ISO 6946 U-value of construction {_show(u)}"
     elif isinstance(u, (int, float, np.floating, np.integer)):
-        value, source = u, "given U-value"
+        value, source = u, "U-value given for the element"
     else:
         value = u.u_value
-        source = f"{type(u).__name__}.u_value"
-        if getattr(u, "method", None):
-            source += f" ({u.method})"
+        source = str(getattr(u, "method", "") or "U-value of the element")
+        if getattr(u, "source", ""):
+            source += f" ({u.source})"
     if value is None:
         raise HeatLedgerError(f"{ctx}: construction {_show(u)} has no u_value")
     return _validate.non_negative(f"{ctx}: U-value", value, "W/(m2 K)"), source

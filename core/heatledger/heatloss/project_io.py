@@ -37,8 +37,8 @@ Schema (SI; thickness in mm where a key says so)::
 
 References
 ----------
-EN 12831-1:2017, clause 6 [M]; EN ISO 10077-1:2017, clause 6 [M]; EN ISO 13370:2017,
-clauses 8.2 to 8.4 [M].
+EN 12831-1:2017, clause 6 (recalled); EN ISO 10077-1:2017, clause 6 (recalled); EN ISO 13370:2017,
+clauses 8.2 to 8.4 (recalled).
 """
 
 from __future__ import annotations
@@ -77,7 +77,7 @@ __all__ = [
 BUILDING_KEYS = BUILDING_TABLE.keys()
 ROOM_KEYS = ROOM_TABLE.keys()
 VENTILATION_KEYS = ROOM_TABLE.keys(sub="ventilation")
-#: Groundwater depth and its factor G_w (EN 12831-1 [M]).
+#: Groundwater depth and its factor G_w (EN 12831-1 (recalled)).
 GROUNDWATER = {"deep": GROUNDWATER_FACTOR_DEEP, "shallow": GROUNDWATER_FACTOR_SHALLOW}
 #: How an element's U-value is found, with the keys each method reads.
 ELEMENT_METHODS = {method: ELEMENT_TABLE.keys(method) for method in ELEMENT_METHOD_NAMES}
@@ -184,7 +184,7 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
 
     References
     ----------
-    EN 12831-1:2017, clause 6 [M].
+    EN 12831-1:2017, clause 6 (recalled).
     """
     del library
     start = len(problems)

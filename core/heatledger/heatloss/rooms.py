@@ -3,7 +3,7 @@
 Caution: the design heat load supports, and does not replace, plant sizing by a competent
 person under the local building regulations and codes.
 
-Sources (recalled, [M]): [source: en12831-1, clause 6]; annual energy [source: degree-days].
+Sources (recalled): [source: en12831-1, clause 6]; annual energy [source: degree-days].
 """
 
 from __future__ import annotations
@@ -317,10 +317,10 @@ class Room:
         prov = (
             f"design external temperature: {_temp_text(te)}; internal {ti:g} degC",
             "transmission: EN 12831-1:2017 clause 6, H_T = sum A (U + dU_TB) f + sum psi l f "
-            "+ sum chi f [M]",
+            "+ sum chi f (recalled)",
             f"ventilation: {vent.method}",
             f"air: rho {AIR_DENSITY:.4f} kg/m3 (ideal dry air, 20 degC, 101325 Pa), c_p "
-            f"{AIR_SPECIFIC_HEAT:g} J/(kg K) [M]",
+            f"{AIR_SPECIFIC_HEAT:g} J/(kg K) (recalled)",
             "heating-up: Phi_hu = f_RH A_floor, f_RH input" if reheat > 0 else
             "heating-up: none (f_RH 0)",
         )
@@ -442,7 +442,7 @@ class Building:
 
         References
         ----------
-        EN 12831-1:2017, clause 6 (building heat load) [M].
+        EN 12831-1:2017, clause 6 (building heat load) (recalled).
         """
         te = _validate.finite("temp_outside", temp_outside)
         return self._evaluate(te)
@@ -587,7 +587,7 @@ def _annual(subject, h_t, h_v, degree_days, degree_day_base, te) -> AnnualEnergy
                  "base temperature NOT STATED: the degree-days must be on the base "
                  "appropriate to the building")
     prov = (
-        "annual energy: Q = 24 H DD / 1000 (degree-day method) [M]",
+        "annual energy: Q = 24 H DD / 1000 (degree-day method) (recalled)",
         f"degree-days {dd:g} K day, {base_text}",
         f"H = H_T + H_V = {h_t:.6g} + {h_v:.6g} W/K, adjustment factors at the design "
         f"external temperature {_temp_text(te)}; heating-up allowance not included; gains not "

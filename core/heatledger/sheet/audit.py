@@ -86,6 +86,15 @@ class Answer:
     value: str | None = None
     number_format: str = "0.000"
 
+#: What the confidence words of the methods and the materials mean, in plain words.
+CONFIDENCE_LEGEND = (
+    "\"recalled\": a formula, coefficient or clause number written from memory of the "
+    "standard's text, to be checked against the purchased standard before the result is "
+    "relied on; \"read\": read in the published text or a secondary published source; "
+    "\"verified numerically\": a recalled formula that reproduces the standard's printed "
+    "values (a test checks it); \"typical\": a typical value of a product family, to be "
+    "replaced by the declared value of the product used.")
+
 _PROJECT_FIELDS = (("name", "Project"), ("client", "Client"), ("site", "Site"),
                    ("author", "Author"), ("checker", "Checker"), ("revision", "Revision"),
                    ("date", "Date"), ("notes", "Notes"))
@@ -376,7 +385,10 @@ def _cover_methods(st) -> None:
         b.put(f"C{r}", text, style="hl paragraph")
         sheet.row_heights[r] = _height(text)
         r += 1
-    r += 1
+    b.put(f"B{r}", "How sure the sources are")
+    b.put(f"C{r}", CONFIDENCE_LEGEND, style="hl paragraph")
+    sheet.row_heights[r] = _height(CONFIDENCE_LEGEND)
+    r += 2
     b.put(f"B{r}", "Cautions", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
     r += 1

@@ -14,8 +14,8 @@ sheets.
 
 References
 ----------
-EN 12831-1:2017, clause 6 [M]; EN ISO 10077-1:2017, clause 6 [M]; EN ISO 13370:2017,
-clauses 8.2 to 8.4 and Annex B [M].
+EN 12831-1:2017, clause 6 (recalled); EN ISO 10077-1:2017, clause 6 (recalled); EN ISO 13370:2017,
+clauses 8.2 to 8.4 and Annex B (recalled).
 """
 
 from __future__ import annotations
@@ -74,9 +74,9 @@ HEATLOSS_METHODS = (
     "Ventilation: H_V = ρ c_p V_eff / 3600 with V_eff = V_inf + V_vent (1 − η) + top-up to "
     "n_min V; dry air at 20 degC and 101325 Pa",
     "Windows and doors: EN ISO 10077-1:2017 clause 6, U_w from glazing, frame and glazing "
-    "edge [M]",
+    "edge (recalled)",
     "Ground floors: EN ISO 13370:2017 clause 8.2 (slab on ground, both regimes; Annex B edge "
-    "insulation), 8.3 (suspended floor), 8.4 (heated basement) [M]",
+    "insulation), 8.3 (suspended floor), 8.4 (heated basement) (recalled)",
     "Annual heating energy: degree-day method Q = 24 H DD / 1000, base temperature stated",
 )
 

@@ -39,7 +39,7 @@ def _window_rows(w, el):
     uw = w.value_row("U_w = (A_g U_g + A_f U_f + l_g ψ_g + A_p U_p + l_p ψ_p)/A_w [W/(m2 K)]",
                      formula=(f"=({v['ag']}*{v['ug']}+{v['af']}*{v['uf']}+{v['lg']}*{v['pg']}"
                               f"+{v['ap']}*{v['up']}+{v['lp']}*{v['pp']})/{aw}"),
-                     engine=u.u_value, fmt=FMT_U, note="EN ISO 10077-1:2017 clause 6 [M]")
+                     engine=u.u_value, fmt=FMT_U, note="EN ISO 10077-1:2017 clause 6 (recalled)")
     return uw, aw
 
 
@@ -107,7 +107,7 @@ def _slab_rows(c) -> tuple:
         psi = w.value_row(
             "ψ_ge = −(λ/π)[ln(kD/d_t + 1) − ln(kD/(d_t + d') + 1)] [W/(m K)]",
             formula=(f"=-({lam}/PI())*(LN({k}*{dd}/{dt}+1)-LN({k}*{dd}/({dt}+{dx})+1))"),
-            engine=res.psi_edge, fmt="0.00000", note="EN ISO 13370 Annex B [M]")
+            engine=res.psi_edge, fmt="0.00000", note="EN ISO 13370 Annex B (recalled)")
         u = w.value_row("U = U_0 + 2 ψ_ge/B' [W/(m2 K)]", formula=f"={u0}+2*{psi}/{b}",
                         engine=res.u_value, fmt=FMT_U)
     else:
@@ -234,7 +234,7 @@ def _ventilation_rows(w, room, rres) -> dict:
     rho = w.value_row("ρ air density [kg/m3]", value=float(AIR_DENSITY), fmt="0.00000",
                       note="dry air as an ideal gas at 20 degC and 101325 Pa (M = 28.966 g/mol)")
     cp = w.value_row("c_p air specific heat [J/(kg K)]", value=float(AIR_SPECIFIC_HEAT),
-                     fmt="0.0", note="dry air near 20 degC, 1.006 kJ/(kg K) [M]")
+                     fmt="0.0", note="dry air near 20 degC, 1.006 kJ/(kg K) (recalled)")
     c = w.value_row("ρ c_p / 3600 [W h/(m3 K)]", formula=f"={rho}*{cp}/3600",
                     engine=vf.volumetric_heat_capacity, fmt="0.000000")
     h = w.value_row("H_V = ρ c_p V_eff / 3600 [W/K]", formula=f"={rho}*{cp}*{eff}/3600",
