@@ -477,7 +477,7 @@ def test_constructions_resolved_through_the_building():
     b = Building("B", [a], constructions={"block": shared})
     assert b.transmission_coefficient == pytest.approx(3.5)
     line = b.heat_load(-5.0).lines[0]
-    assert '"block" (building mapping)' in line.source
+    assert '"block" (defined for the building)' in line.source
     # the same name defined differently by the room and the building is ambiguous
     a2 = Room("A", 20.0, 30.0, [Element("wall", 10.0, "block")], Ventilation("flow"),
               constructions={"block": StandIn(0.5)})

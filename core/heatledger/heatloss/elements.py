@@ -338,7 +338,8 @@ def _resolve_u(ctx: str, el: Element, own, building) -> tuple[float, str]:
                                   "the room and the building; keep one definition")
         obj = found[0][1]
         value = obj if isinstance(obj, (int, float)) else getattr(obj, "u_value", None)
-        source = f"EN ISO 6946 U-value of construction {_show(u)}"
+        source = (f"EN ISO 6946 U-value of construction {_show(u)} (defined for the "
+                  f"{found[0][0]})")
     elif isinstance(u, (int, float, np.floating, np.integer)):
         value, source = u, "U-value given for the element"
     else:

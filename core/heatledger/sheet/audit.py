@@ -133,8 +133,9 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
     WorkbookPlan
     """
     info = project.info
-    title = info.get("name") or "heatledger project"
-    plan = WorkbookPlan(title=f"heatledger audit: {title}")
+    name = info.get("name") or "heatledger project"
+    plan = WorkbookPlan(title=f"heatledger audit: {name}")
+    title = page_header(info)
     cover = plan.add_sheet("Cover", column_widths={"A": 3, "B": 34, "C": 70, "D": 14},
                            print_setup=_print(title, "portrait"), tab_color="2E5A6B")
     materials = plan.add_sheet("Materials", column_widths=_widths([5, 34, 12, 12, 14, 12, 12,
@@ -196,6 +197,22 @@ def _widths(widths):
     from .plan import col_letter
 
     return {col_letter(i + 1): w for i, w in enumerate(widths)}
+
+
+def page_header(info: dict) -> str:
+    """The page header of every sheet: project, revision, date and checker. [-]
+
+    Parameters
+    ----------
+    info : dict
+        The project's ``[project]`` table. [-]
+    """
+    parts = [str(info.get("name") or "heatledger project")]
+    for key, label in (("revision", "rev."), ("date", ""), ("checker", "checked:")):
+        value = str(info.get(key) or "").strip()
+        if value:
+            parts.append(f"{label} {value}".strip())
+    return " | ".join(parts)
 
 
 def _print(title: str, orientation: str, rows: str | None = None) -> PrintSetup:

@@ -319,7 +319,10 @@ def read_template(path) -> tuple[dict, bytes]:
     HeatLedgerError
         If the file is missing, too large or not an .xlsx workbook.
     """
-    data, raw, _cells = _read(Path(path))
+    p = Path(path)
+    data, raw, _cells, early = _read(p)
+    if early:
+        raise ProjectError(early, source=p.name)
     return data, raw
 
 
@@ -341,12 +344,18 @@ def project_from_template(path) -> Project:
         Every problem found, in the template or in the project data, naming sheet and cell.
     """
     p = Path(path)
-    data, raw, cells = _read(p)
+    data, raw, cells, early = _read(p)
     try:
         project = project_from_dict(data, source_bytes=raw, source_name=p.name)
     except ProjectError as exc:
-        problems = [(_locate(where, cells), msg) for where, msg in exc.problems]
-        raise ProjectError(problems, source=p.name) from None
+        # every sheet's problems in one run: the cells that could not be read first, then
+        # what the project data says, less what follows from a cell already named
+        named = {where for where, _m in early}
+        later = [(_locate(where, cells), msg) for where, msg in exc.problems]
+        raise ProjectError(early + [(w, m) for w, m in later if w not in named],
+                           source=p.name) from None
+    if early:
+        raise ProjectError(early, source=p.name)
     project.warnings = [(_locate(where, cells), msg) for where, msg in project.warnings]
     return project
 
@@ -412,8 +421,9 @@ def _parse(wb, reader: SheetReader, raw: bytes):
         if name in wb.sheetnames:
             tables[name] = _read_table(reader.rows(wb[name], HEADER_ROW, len(cols)), name,
                                        cols, problems)
-    if problems:
+    if missing:
         raise ProjectError(problems, source=source)
+    early, problems = problems, []  # cells that could not be read: reported with the rest
     materials = []
     for i, (row, where) in enumerate(tables.get("Materials", []), 1):
         materials.append(row)
@@ -422,9 +432,7 @@ def _parse(wb, reader: SheetReader, raw: bytes):
         data["materials"] = materials
     for fam in FAMILIES:
         fam.load("template").read_rows(tables, data, problems, cells)
-    if problems:
-        raise ProjectError(problems, source=source)
-    return data, raw, cells
+    return data, raw, cells, early + problems
 
 
 def _read_project(rows, data, problems, cells) -> None:
