@@ -35,7 +35,7 @@ ALLOWED_FUNCTIONS = {"IF", "ABS", "MAX", "MIN", "SUM", "ROUND", "INT", "LOG10", 
                      "ISNUMBER", "AND", "OR", "NOT", "SUMPRODUCT", "SUMIF", "COUNT", "COUNTA",
                      "AVERAGE", "LN", "LOG", "EXP", "SQRT", "POWER", "PI", "SINH", "COSH",
                      "TANH", "ISBLANK", "IFERROR", "INDEX", "MATCH", "BESSELI", "BESSELK",
-                     "BESSELJ", "BESSELY"}
+                     "BESSELJ", "BESSELY", "HYPERLINK"}
 FORBIDDEN = {"LET", "LAMBDA", "XLOOKUP", "FILTER", "SEQUENCE", "IFS", "CONCAT", "TEXTJOIN",
              "UNIQUE", "SORT", "XMATCH", "SWITCH", "MAXIFS", "MINIFS"}
 

@@ -93,6 +93,19 @@ def _answer(entry, ref):
                   f"={ref.u_value}", "0.000")
 
 
+def _ground_build_ups(project) -> set:
+    """Constructions the project uses as the build-up of a ground floor (their own U is not
+    the floor's U)."""
+    from ..heatloss.schema import GROUND_METHODS
+
+    out = set()
+    for room in project.raw.get("rooms", []) or []:
+        for el in (room.get("elements", []) if isinstance(room, dict) else []) or []:
+            if isinstance(el, dict) and el.get("method") in GROUND_METHODS:
+                out.add(el.get("construction"))
+    return out
+
+
 def _sheet_names(names) -> list[str]:
     used: set[str] = set()
     width = max(2, len(str(len(names))))
@@ -106,8 +119,11 @@ def _summary(sheet, project, refs) -> dict[str, str]:
     b = sheet.block("summary")
     b.put("A1", "Summary of constructions", style="hl title")
     sheet.merges.append("A1:N1")
-    b.put("A2", "Values are live references to the construction sheets; U·A only where an area "
-                "is given. Area-weighted U is over the elements with an area.", role="note")
+    b.put("A2", "Values are live references to the construction sheets (click a name to open "
+                "its sheet); U·A only where an area is given, and not for the build-up of a "
+                "ground floor, whose EN ISO 13370 U-value is on its room's sheet. Area-weighted "
+                "U is over the elements counted in U·A.", role="note")
+    ground = _ground_build_ups(project)
     heads = ["No.", "Construction", "Sheet", "Heat flow", "Area A [m2]", "R_T [m2 K/W]",
              "U [W/(m2 K)]", "U, 2 s.f. [W/(m2 K)]", "Target U [W/(m2 K)]",
              "Target met? (U ≤ target)",
@@ -119,18 +135,25 @@ def _summary(sheet, project, refs) -> dict[str, str]:
     for i, (entry, ref) in enumerate(zip(project.constructions, refs, strict=True)):
         r = first + i
         b.put(f"A{r}", i + 1)
-        b.put(f"B{r}", entry.name, style="hl text")
+        link = ref.sheet.replace("'", "''")
+        text = entry.name.replace('"', '""')
+        b.put(f"B{r}", formula=f'=HYPERLINK("#\'{link}\'!A1","{text}")', style="hl text")
         b.put(f"C{r}", ref.sheet, style="hl text")
         b.put(f"D{r}", entry.construction.heat_flow, style="hl text")
-        b.put(f"E{r}", formula=f'=IF(ISNUMBER({ref.extras["area"]}),{ref.extras["area"]},"")',
-              number_format="0.00")
+        if entry.name not in ground:
+            b.put(f"E{r}", formula=f'=IF(ISNUMBER({ref.extras["area"]}),'
+                                   f'{ref.extras["area"]},"")', number_format="0.00")
         b.put(f"F{r}", formula=f"={ref.r_total}", number_format="0.000")
         b.put(f"G{r}", formula=f"={ref.u_value}", number_format="0.0000")
         b.put(f"H{r}", formula=f"={ref.u_reported}", number_format=FMT_U_2SF)
         b.put(f"I{r}", formula=f'=IF(ISNUMBER({ref.extras["target"]}),{ref.extras["target"]},"")',
               number_format="0.000")
         b.put(f"J{r}", formula=f'=IF(ISNUMBER(I{r}),IF(G{r}<=I{r},"yes","NO"),"no target")')
-        b.put(f"K{r}", formula=f'=IF(ISNUMBER(E{r}),G{r}*E{r},"")', number_format="0.00")
+        if entry.name in ground:  # the floor's own U is EN ISO 13370's, on the room sheet
+            b.put(f"E{r}", "ground floor", style="hl text")
+            b.put(f"K{r}", "build-up U only", style="hl text")
+        else:
+            b.put(f"K{r}", formula=f'=IF(ISNUMBER(E{r}),G{r}*E{r},"")', number_format="0.00")
         b.put(f"L{r}", ref.check_count, role="engine", number_format="0")
         b.put(f"M{r}", formula=f"={ref.checks_ok}", number_format="0")
         b.put(f"N{r}", formula=f'=IF(M{r}=L{r},"ALL CHECKS OK","NOT ALL OK")', style="hl check")
@@ -142,17 +165,18 @@ def _summary(sheet, project, refs) -> dict[str, str]:
     b.put(f"K{t + 1}", formula=f"=SUM(K{first}:K{last})", number_format="0.00")
     b.put(f"B{t + 2}", "Area-weighted U = Σ U·A / Σ A [W/(m2 K)]")
     b.put(f"G{t + 2}", formula=f'=IF(E{t}>0,K{t + 1}/E{t},"")', number_format="0.0000")
-    b.put(f"B{t + 3}", "Check cells in the workbook")
+    b.put(f"B{t + 3}", "Check cells of the construction sheets (the cover counts the "
+                       "whole workbook)")
     b.put(f"L{t + 3}", formula=f"=SUM(L{first}:L{last})", number_format="0")
     b.put(f"M{t + 3}", formula=f"=SUM(M{first}:M{last})", number_format="0")
     if refs:
         sheet.charts.append(Chart(
             "bar", "U-value and target per construction", f"B{t + 6}",
             (ChartSeries("U [W/(m2 K)]", sheet_ref(sheet.name, f"G{first}:G{last}"),
-                         sheet_ref(sheet.name, f"A{first}:A{last}"), color="2E5A6B"),
+                         sheet_ref(sheet.name, f"B{first}:B{last}"), color="2E5A6B"),
              ChartSeries("target U [W/(m2 K)]", sheet_ref(sheet.name, f"I{first}:I{last}"),
-                         sheet_ref(sheet.name, f"A{first}:A{last}"), color="D9A441")),
-            x_title="construction (No. in the table)", y_title="U [W/(m2 K)]",
+                         sheet_ref(sheet.name, f"B{first}:B{last}"), color="D9A441")),
+            x_title="construction", y_title="U [W/(m2 K)]",
             width_cm=20.0, height_cm=8.0, y_format="0.00"))
     return {"count": sheet_ref(sheet.name, f"L{t + 3}"),
             "ok": sheet_ref(sheet.name, f"M{t + 3}")}
