@@ -120,7 +120,8 @@ class WindowResult:
     heat_loss_coefficient: float
     frame_fraction: float
     u_value: float
-    method: str = "EN ISO 10077-1:2017 clause 6, whole window from glazing, frame and edge (recalled)"
+    method: str = ("EN ISO 10077-1:2017 clause 6, whole window from glazing, frame and edge "
+                   "(recalled)")
     warnings: tuple = ()
 
 
