@@ -18,7 +18,9 @@ from .._rounding import round_significant
 from .._validate import (
     MAX_CELLS,
     MAX_CELLS_PER_LAYER,
+    THIN_LAYER,
     choice,
+    conductivity_class,
     conductivity_warning,
     finite,
     non_negative,
@@ -543,12 +545,24 @@ def _input_slips(layers) -> list:
     out = []
     for i, lay in enumerate(layers, 1):
         mat = getattr(lay, "material", None)
-        found = _layer_slips(lay.name, mat.name if mat is not None else "", lay.thickness,
-                             getattr(lay, "conductivity", None))
+        lam = getattr(lay, "conductivity", None)
+        names = (lay.name, mat.name if mat is not None else "")
+        # most layers are thick enough and of a plausible conductivity for their class:
+        # decided here without building a message (the class lookup is cached by name)
+        if lay.thickness >= THIN_LAYER and (lam is None or _plausible(lam, names)):
+            continue
+        found = _layer_slips(*names, lay.thickness, lam)
         if found:
             label = f"layer {i} {quote(lay.name)}" if lay.name else f"layer {i}"
             out += [f"{label}: {text}" for text in found]
     return out
+
+
+def _plausible(conductivity: float, names: tuple) -> bool:
+    """True when the conductivity lies in the range of the material class the names give
+    (or the names give none). [-]"""
+    found = conductivity_class(*names)
+    return found is None or found[1] <= conductivity <= found[2]
 
 
 @functools.lru_cache(maxsize=4096)

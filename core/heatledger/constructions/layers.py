@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 
 from .._validate import (
+    LIMITS,
     choice,
     finite,
     fraction,
@@ -44,8 +45,14 @@ DEFAULT_NODES_PER_LAYER = 4
 # Layers
 
 
+_THICKNESS, _CONDUCTIVITY, _LAYER_R = (LIMITS["thickness"], LIMITS["conductivity"],
+                                      LIMITS["layer_resistance"])
+
+
 def _thickness(label: str, thickness) -> float:
     """A layer thickness [m]: greater than zero and within the physical limit."""
+    if type(thickness) is float and _THICKNESS.low <= thickness <= _THICKNESS.high:
+        return thickness  # the common case, without building the message
     return within(f"{label} thickness", positive(f"{label} thickness", thickness, "m"),
                   "thickness")
 
@@ -54,6 +61,12 @@ def _vapour(label: str, thickness: float, mu, sd, material=None) -> tuple:
     """``(mu, sd)`` of a layer: a stated mu [-] or sd [m] (not both), else the material's mu;
     ``sd = mu d``; ``(None, None)`` when nothing is known. ``inf`` marks a vapour-tight
     layer. [source: iso13788-glaser, 6.2 (s_d = mu d)]."""
+    if mu is None and sd is None:  # the common case: the material's value, or none
+        mu = None if material is None else material.vapour_resistance_factor
+        if mu is None:
+            return None, None
+        # library and project materials are checked when they are read
+        return mu, math.inf if mu == math.inf else mu * thickness
     if mu is not None and sd is not None:
         raise HeatLedgerError(f"{label}: give either vapour_resistance_factor or sd, not both")
     if sd is not None:
@@ -82,6 +95,8 @@ def _positive_or_tight(name: str, value, kind: str) -> float:
 
 def _conductivity(name: str, conductivity) -> float:
     """A conductivity [W/(m K)]: greater than zero and within the physical limits."""
+    if type(conductivity) is float and _CONDUCTIVITY.low <= conductivity <= _CONDUCTIVITY.high:
+        return conductivity
     return within(name, positive(name, conductivity, "W/(m K)"), "conductivity")
 
 
@@ -155,9 +170,9 @@ class Layer:
         else:
             self.conductivity = _conductivity(f"{label} conductivity", conductivity)
             self.declared_resistance = None
-            self.resistance_value = within(
-                f"{label} resistance thickness/conductivity",
-                self.thickness / self.conductivity, "layer_resistance")
+            r = self.thickness / self.conductivity
+            self.resistance_value = r if _LAYER_R.low <= r <= _LAYER_R.high else within(
+                f"{label} resistance thickness/conductivity", r, "layer_resistance")
             self.kind = "material"
         self.vapour_resistance_factor, self.sd = _vapour(
             label, self.thickness, vapour_resistance_factor, sd, material)
@@ -315,7 +330,7 @@ class BridgedLayer:
 
     kind = "bridged"
 
-    __slots__ = ("thickness", "parts", "name", "vapour_resistance_factor", "sd")
+    __slots__ = ("thickness", "parts", "name", "vapour_resistance_factor", "sd", "_lower")
 
     def __init__(self, thickness, parts, *, name: str = "", vapour_resistance_factor=None,
                  sd=None) -> None:
@@ -351,13 +366,14 @@ class BridgedLayer:
             raise HeatLedgerError(
                 f"{label}: area fractions must sum to 1; they sum to {total:.6g}")
         self.parts = tuple(cleaned)
-        within(f"{label} lower-limit resistance thickness/(sum of fraction x conductivity)",
-               self.lower_limit_resistance, "layer_resistance")
+        self._lower = within(
+            f"{label} lower-limit resistance thickness/(sum of fraction x conductivity)",
+            self.thickness / math.fsum(lam * f for lam, f in self.parts), "layer_resistance")
 
     @property
     def lower_limit_resistance(self) -> float:
         """Lower-limit resistance ``R_j = d / sum(f_q lambda_q)``. [m2 K/W]"""
-        return self.thickness / math.fsum(lam * f for lam, f in self.parts)
+        return self._lower
 
     def with_thickness(self, thickness) -> BridgedLayer:
         """The same bridged layer with another thickness.
