@@ -326,8 +326,8 @@ def solve_conduction(
     [source: patankar-1980, ch. 4].
     """
     mesh = conduction_mesh(widths, conductivity, area=area, face_area=face_area)
-    return solve_on_mesh(mesh, left, right, source=source, source_slope=source_slope,
-                         face_source=face_source, refine=refine)
+    return _solve_on(mesh, left, right, source, source_slope, face_source, refine,
+                     keep_mesh=False)  # a mesh of its own: its diagonal is used in place
 
 
 @dataclass(frozen=True)
@@ -435,6 +435,14 @@ def solve_on_mesh(mesh: ConductionMesh, left: Boundary, right: Boundary, *, sour
     ----------
     [source: patankar-1980, ch. 4]; [source: lapack, ?pttrf and ?pttrs].
     """
+    return _solve_on(mesh, left, right, source, source_slope, face_source, refine,
+                     keep_mesh=True)
+
+
+def _solve_on(mesh, left, right, source, source_slope, face_source, refine, *,
+              keep_mesh: bool) -> FVSolution:
+    """The solve of :func:`solve_on_mesh`; ``keep_mesh`` False lets it build the diagonal
+    in the mesh's own array (a mesh used once)."""
     w, half, g_int = mesh.widths, mesh.half_resistance, mesh.g_int
     n = w.size
     if left.kind == "flux" and right.kind == "flux":
@@ -447,7 +455,7 @@ def solve_on_mesh(mesh: ConductionMesh, left: Boundary, right: Boundary, *, sour
     face_q = _face_sources(face_source, half, b)
     # numpy's pairwise sum (no BLAS): this total feeds only the energy-balance residual
     src_const = float(b.sum()) if (source is not None or face_q) else 0.0
-    a_p = mesh.a_centre.copy()
+    a_p = mesh.a_centre.copy() if keep_mesh else mesh.a_centre
     sp = None
     if source_slope is not None:
         sp = np.broadcast_to(np.asarray(source_slope, dtype=float), (n,))
