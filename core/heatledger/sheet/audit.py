@@ -23,6 +23,7 @@ from .plan import (
     sheet_ref,
 )
 from .render_openpyxl import workbook_bytes, write_workbook
+from .whatif import add_record_sheet
 
 __all__ = ["audit_plan", "write_audit", "audit_bytes", "tool_version", "AuditContext",
            "Answer"]
@@ -150,6 +151,7 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
         if fam.present(project) or fam is FAMILIES[0]:  # the Summary is always filled
             fam.load("sheets")(plan, project, audit)
     summary_cells = {k: "+".join(c[k] for c in audit.counts) for k in ("count", "ok")}
+    summary_cells["changed"] = add_record_sheet(plan, title)
     _cover(cover, project, summary_cells, audit)
     for sheet in plan.sheets:
         fit_text_columns(sheet)
@@ -369,9 +371,14 @@ def _cover_checks(st) -> None:
     ok = b.put(f"C{r}", formula=f"={summary_cells['ok']}", number_format="0").ref
     r += 1
     b.put(f"B{r}", "State")
-    b.put(f"C{r}", formula=f'=IF(AND({count}>0,{ok}={count}),"ALL CHECKS OK",'
-                           f'"NOT ALL OK: "&({count}-{ok})&" check(s) fail; do not rely on this '
-                           'file")', style="hl check")
+    state = (f'IF(AND({count}>0,{ok}={count}),"ALL CHECKS OK","NOT ALL OK: "&({count}-{ok})'
+             '&" check(s) fail; do not rely on this file")')
+    changed = summary_cells.get("changed")
+    if changed:  # a what-if is a what-if, not a failure
+        state = (f'IF({changed}>0,"WHAT-IF: "&{changed}&" input(s) changed since the record '
+                 'was made (see the Record sheet); the checks compare against the recorded '
+                 f'run",{state})')
+    b.put(f"C{r}", formula=f"={state}", style="hl check")
     r += 1
     lists = audit.check_lists
     text = ("Every calculation sheet counts its own check cells at its top right; "

@@ -3,6 +3,8 @@ Summary of constructions (hooks of :mod:`heatledger.families`)."""
 
 from __future__ import annotations
 
+from openpyxl.cell.cell import ILLEGAL_CHARACTERS_RE
+
 from .blocks_construction import FMT_U_2SF, ConstructionRefs
 from .construction_sheet import add_construction_sheet
 from .plan import Chart, ChartSeries, col_letter, safe_sheet_name, sheet_ref
@@ -136,7 +138,7 @@ def _summary(sheet, project, refs) -> dict[str, str]:
         r = first + i
         b.put(f"A{r}", i + 1)
         link = ref.sheet.replace("'", "''")
-        text = entry.name.replace('"', '""')
+        text = ILLEGAL_CHARACTERS_RE.sub("", entry.name).replace('"', '""')[:255]
         b.put(f"B{r}", formula=f'=HYPERLINK("#\'{link}\'!A1","{text}")', style="hl text")
         b.put(f"C{r}", ref.sheet, style="hl text")
         b.put(f"D{r}", entry.construction.heat_flow, style="hl text")
