@@ -289,8 +289,11 @@ def _cover_setup(st) -> None:
     info = project.info
     b = sheet.block("cover")
     b.put("B1", "heatledger calculation record", style="hl title")
-    b.put("B2", "; ".join(fam.title for fam in FAMILIES
-                          if fam.present(project) or fam is FAMILIES[0]), role="note")
+    subtitle = "; ".join(fam.title for fam in FAMILIES
+                         if fam.present(project) or fam is FAMILIES[0])
+    b.put("B2", subtitle, style="hl paragraph")
+    sheet.merges.append("B2:D2")
+    sheet.row_heights[2] = _height(subtitle)
     r = _cover_answers(b, sheet, audit.answers, 4)
     b.put(f"B{r}", "Project information", style="hl subtitle")
     sheet.merges.append(f"B{r}:D{r}")
