@@ -142,10 +142,14 @@ def test_the_template_has_the_schema_columns_and_a_list_for_every_choice():
         heads = [c.value for c in sheet.cells() if c.ref.endswith(f"{tpl.HEADER_ROW}")
                  and c.role == "header"]
         assert heads == [h for _k, h, _t in table.template_columns()]
-        listed = {v.cells.split(":")[0].rstrip("0123456789") for v in sheet.validations}
+        listed = {v.cells.split(":")[0].rstrip("0123456789") for v in sheet.validations
+                  if v.kind == "list"}
+        prompted = {v.cells.rstrip("0123456789") for v in sheet.validations
+                    if v.kind == "any" and v.cells.endswith(str(tpl.HEADER_ROW))}
         shown = [c for c in table.columns if c.place != "file"]
         for j, col in enumerate(shown, 1):
             letter = tpl.col_letter(j)
+            assert letter in prompted, (table.sheet, col.key)  # the header explains it
             refers = (table.sheet, col.key) in tpl._REF_SHEETS  # names a row of another sheet
             assert (letter in listed) == bool(col.choices or col.type == "material"
                                               or refers), (table.sheet, col.key)

@@ -318,7 +318,8 @@ class PrintSetup:
 
 @dataclass(frozen=True)
 class DataValidation:
-    """A drop-down list on a range of input cells.
+    """A drop-down list on a range of input cells, or (``kind="any"``) an input message
+    only.
 
     Attributes
     ----------
@@ -332,6 +333,9 @@ class DataValidation:
         Message shown for a value not in the list.
     error_style : str
         ``"stop"`` (refuse other values) or ``"warning"`` (warn, allow).
+    kind : str
+        ``"list"`` (a drop-down of ``source``) or ``"any"`` (any value, the prompt shown as
+        an input message).
     """
 
     cells: str
@@ -339,6 +343,7 @@ class DataValidation:
     prompt: str = ""
     error: str = ""
     error_style: str = "stop"
+    kind: str = "list"
 
 
 # --------------------------------------------------------------------------- sheet, workbook

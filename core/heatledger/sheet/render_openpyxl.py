@@ -110,8 +110,11 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
         if sheet.tab_color:
             ws.sheet_properties.tabColor = sheet.tab_color
         for dv in sheet.validations:
-            rule = XLDataValidation(type="list", formula1=dv.source, allow_blank=True,
-                                    showDropDown=False, errorStyle=dv.error_style)
+            if dv.kind == "any":  # an input message only
+                rule = XLDataValidation(allow_blank=True)
+            else:
+                rule = XLDataValidation(type="list", formula1=dv.source, allow_blank=True,
+                                        showDropDown=False, errorStyle=dv.error_style)
             rule.promptTitle = None
             if dv.prompt:
                 rule.prompt = dv.prompt[:255]

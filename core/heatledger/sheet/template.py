@@ -187,6 +187,9 @@ def _table_sheet(plan: WorkbookPlan, table, table_rows: list, lists: dict) -> No
                   role="input", number_format=formats[j])
     last = HEADER_ROW + n_rows
     for j, col in enumerate(_sheet_columns(table), 1):
+        unit = f" [{col.unit}]" if col.unit and col.unit != "-" else ""
+        sh.validations.append(DataValidation(  # the header says what the column is
+            f"{col_letter(j)}{HEADER_ROW}", "", f"{col.description}{unit}"[:250], kind="any"))
         sh.validations += _drop_down(col, f"{col_letter(j)}{HEADER_ROW + 1}:"
                                           f"{col_letter(j)}{last}", lists, name)
 
