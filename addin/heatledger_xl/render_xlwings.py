@@ -335,6 +335,10 @@ def _add_series_native(chart, book, spec, rename) -> bool:
 
 
 def _validation(sheet, book, dv, rename, report) -> None:
+    if dv.kind == "any":  # an input message only: xlwings sets lists, not messages
+        report.skipped.append(f"{sheet.name}: input message on {dv.cells} (xlwings sets "
+                              "drop-down lists only)")
+        return
     target = sheet.range(dv.cells).data_validation
     try:
         source = (_range(book, dv.source, rename) if "!" in dv.source

@@ -491,6 +491,7 @@ def test_whole_workbooks_render_the_same_through_both_renderers(which):
                 assert got == v, (ps.name, rc)
         assert sorted(rec.merges) == sorted(str(r) for r in ws.merged_cells.ranges)
         assert len(rec.charts) == len(ps.charts)
-        assert len(rec.validations) == len(ps.validations)
+        lists = [v for v in ps.validations if v.kind == "list"]  # messages: openpyxl only
+        assert len(rec.validations) == len(lists)
     names = {n.name: n.refers_to for n in book.names}
     assert names == {k: "=" + v for k, v in plan.defined_names.items()}
