@@ -25,6 +25,7 @@ from .air import (
     _check_ventilation,
     _ventilation,
 )
+from .annual import _temp_text, annual_energy
 from .elements import (
     Element,
     LinearBridge,
@@ -228,7 +229,7 @@ class Room:
             ``Q = 24 (H_T + H_V) DD / 1000``, with the coefficients used. [-]
         """
         h_t = self.transmission_coefficient
-        return _annual(self.name, h_t, self.ventilation_coefficient, degree_days,
+        return annual_energy(self.name, h_t, self.ventilation_coefficient, degree_days,
                        degree_day_base, self.temp_outside)
 
     def annual_energy(self, degree_days, *, degree_day_base=None) -> float:
@@ -251,16 +252,9 @@ class Room:
 
     # -- the evaluation proper
 
-    def _evaluate(self, te, room_temps, building_constructions) -> RoomHeatLoad:
-        ctx = f"room {_show(self.name)}"
-        ti = self.temp_inside
-        if te is not None and not te < ti:
-            raise HeatLedgerError(
-                f"{ctx}: temp_outside {te:g} degC must be below the internal "
-                f"temperature {ti:g} degC for a design heat load"
-            )
-        lines: list[dict] = []
-        warnings = [_validate.room_height_warning(ctx, self.volume, self.floor_area)]
+    def _element_lines(self, ctx, te, room_temps, building_constructions, warnings) -> list:
+        """One loss line per element (``A (U + dU_TB) f``); slips go to ``warnings``."""
+        lines = []
         for el in self.elements:
             ectx = f"{ctx}, element {_show(el.name)}"
             u, source = _resolve_u(ectx, el, self.constructions, building_constructions)
@@ -268,7 +262,8 @@ class Room:
                 warnings += [f"{ectx}: {w}" for w in el.u.warnings]
             elif el.kind in ("window", "door"):
                 warnings.append(_validate.opening_u_warning(ectx, u))
-            f, rule, internal, label = _factor(ectx, el.boundary, ti, te, room_temps, self.name)
+            f, rule, internal, label = _factor(ectx, el.boundary, self.temp_inside, te,
+                                               room_temps, self.name)
             ue = u + el.thermal_bridge_allowance
             lines.append(dict(name=el.name, category="transmission", kind=el.kind,
                               boundary=label, quantity=el.area, quantity_unit="m2",
@@ -276,9 +271,15 @@ class Room:
                               bridge_allowance=el.thermal_bridge_allowance, factor=f,
                               factor_rule=rule, coefficient=el.area * ue * f,
                               internal=internal, source=source))
+        return lines
+
+    def _bridge_lines(self, ctx, te, room_temps) -> list:
+        """One loss line per linear (``psi l f``) or point (``chi n f``) thermal bridge."""
+        lines = []
         for br in self.thermal_bridges:
             bctx = f"{ctx}, thermal bridge {_show(br.name)}"
-            f, rule, internal, label = _factor(bctx, br.boundary, ti, te, room_temps, self.name)
+            f, rule, internal, label = _factor(bctx, br.boundary, self.temp_inside, te,
+                                               room_temps, self.name)
             if isinstance(br, LinearBridge):
                 q, qu, t, tu, kind = br.length, "m", br.psi, "W/(m K)", "linear bridge"
             else:
@@ -289,20 +290,22 @@ class Room:
                               factor_rule=rule, coefficient=q * t * f, internal=internal,
                               source=(f"psi of junction {_show(br.junction)} (EN ISO 10211)"
                                       if getattr(br, "junction", "") else "given")))
+        return lines
+
+    def _evaluate(self, te, room_temps, building_constructions) -> RoomHeatLoad:
+        ctx = f"room {_show(self.name)}"
+        ti = self.temp_inside
+        if te is not None and not te < ti:
+            raise HeatLedgerError(
+                f"{ctx}: temp_outside {te:g} degC must be below the internal "
+                f"temperature {ti:g} degC for a design heat load"
+            )
+        warnings = [_validate.room_height_warning(ctx, self.volume, self.floor_area)]
+        lines = self._element_lines(ctx, te, room_temps, building_constructions, warnings)
+        lines += self._bridge_lines(ctx, te, room_temps)
         vent = self.ventilation_flows()
-        lines.append(dict(name="ventilation", category="ventilation", kind="ventilation",
-                          boundary="outside air", quantity=vent.effective_flow,
-                          quantity_unit="m3/h", transmittance=vent.volumetric_heat_capacity,
-                          transmittance_unit="W h/(m3 K)", bridge_allowance=0.0, factor=1.0,
-                          factor_rule=vent.method, coefficient=vent.coefficient,
-                          internal=False, source="air properties at 20 degC, 101325 Pa"))
         reheat = self.reheat_factor * self.floor_area
-        lines.append(dict(name="heating-up allowance", category="reheat", kind="reheat",
-                          boundary="-", quantity=self.floor_area, quantity_unit="m2",
-                          transmittance=self.reheat_factor, transmittance_unit="W/m2",
-                          bridge_allowance=0.0, factor=1.0,
-                          factor_rule="Phi_hu = f_RH A_floor (input)", coefficient=0.0,
-                          internal=False, source="input f_RH"))
+        lines += _ventilation_and_reheat_lines(vent, self.reheat_factor, self.floor_area)
         dt = math.nan if te is None else ti - te
         for ln in lines:
             ln["heat_loss"] = reheat if ln["category"] == "reheat" else ln["coefficient"] * dt
@@ -333,6 +336,22 @@ class Room:
             ventilation=vent, lines=frozen, provenance=prov,
             warnings=tuple(dict.fromkeys(w for w in warnings if w)),
         )
+
+
+def _ventilation_and_reheat_lines(vent, reheat_factor, floor_area) -> list:
+    """The ventilation line (``H_V``) and the heating-up allowance line (``f_RH A``)."""
+    return [dict(name="ventilation", category="ventilation", kind="ventilation",
+                 boundary="outside air", quantity=vent.effective_flow, quantity_unit="m3/h",
+                 transmittance=vent.volumetric_heat_capacity,
+                 transmittance_unit="W h/(m3 K)", bridge_allowance=0.0, factor=1.0,
+                 factor_rule=vent.method, coefficient=vent.coefficient, internal=False,
+                 source="air properties at 20 degC, 101325 Pa"),
+            dict(name="heating-up allowance", category="reheat", kind="reheat",
+                 boundary="-", quantity=floor_area, quantity_unit="m2",
+                 transmittance=reheat_factor, transmittance_unit="W/m2",
+                 bridge_allowance=0.0, factor=1.0,
+                 factor_rule="Phi_hu = f_RH A_floor (input)", coefficient=0.0,
+                 internal=False, source="input f_RH")]
 
 
 # ----------------------------------------------------------------------------- building
@@ -477,7 +496,7 @@ class Building:
         AnnualEnergy
             ``Q = 24 H DD / 1000`` with the building's coefficients. [-]
         """
-        return _annual(self.name, self.transmission_coefficient, self.ventilation_coefficient,
+        return annual_energy(self.name, self.transmission_coefficient, self.ventilation_coefficient,
                        degree_days, degree_day_base, self._te)  # type: ignore[attr-defined]
 
     def annual_energy(self, degree_days, *, degree_day_base=None) -> float:
@@ -515,7 +534,7 @@ class Building:
         """
         result = self._evaluate(self._te)  # type: ignore[attr-defined]
         return {
-            r.room: _annual(r.room, r.transmission_coefficient, r.ventilation_coefficient,
+            r.room: annual_energy(r.room, r.transmission_coefficient, r.ventilation_coefficient,
                             degree_days, degree_day_base, self._te)  # type: ignore[attr-defined]
             for r in result.rooms
         }
@@ -564,37 +583,9 @@ class Building:
 # ----------------------------------------------------------------------------- helpers
 
 
-def _temp_text(te) -> str:
-    """A design temperature for a provenance line: ``-10 degC`` or ``not stated``."""
-    return "not stated" if te is None else f"{te:g} degC"
-
-
 def _share(value: float, total: float) -> float:
     return value / total if total != 0.0 and math.isfinite(total) else math.nan
 
 
 def _replace_share(line: LossLine, total: float) -> LossLine:
     return replace(line, share=_share(line.heat_loss, total))
-
-
-def _annual(subject, h_t, h_v, degree_days, degree_day_base, te) -> AnnualEnergy:
-    dd = _validate.non_negative("degree_days", degree_days, "K day")
-    base = None if degree_day_base is None else _validate.finite("degree_day_base",
-                                                                  degree_day_base)
-    h = h_t + h_v
-    energy = 24.0 * h * dd / 1000.0
-    base_text = (f"base temperature {base:g} degC (as stated)" if base is not None else
-                 "base temperature NOT STATED: the degree-days must be on the base "
-                 "appropriate to the building")
-    prov = (
-        "annual energy: Q = 24 H DD / 1000 (degree-day method) (recalled)",
-        f"degree-days {dd:g} K day, {base_text}",
-        f"H = H_T + H_V = {h_t:.6g} + {h_v:.6g} W/K, adjustment factors at the design "
-        f"external temperature {_temp_text(te)}; heating-up allowance not included; gains not "
-        "deducted (allow for them through the base temperature)",
-    )
-    return AnnualEnergy(subject=subject, heat_loss_coefficient=h, transmission_coefficient=h_t,
-                        ventilation_coefficient=h_v, degree_days=dd, degree_day_base=base,
-                        energy=energy, provenance=prov)
-
-
