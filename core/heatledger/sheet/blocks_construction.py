@@ -23,7 +23,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 
-from .plan import PrintSetup, Sheet, WorkbookPlan, col_letter
+from .plan import PrintSetup, Sheet, WorkbookPlan, col_letter, sheet_ref
 from .rows import RowLayout
 
 __all__ = ["ConstructionRefs", "add_calculation_sheet",
@@ -155,6 +155,98 @@ def add_calculation_sheet(plan: WorkbookPlan, sheet_name: str, widths, header: s
         print_setup=PrintSetup(orientation="landscape", header=header,
                                footer_left="heatledger calculation sheet {sheet}",
                                footer_right="page {page} of {pages}", title_rows="1:3"))
+
+
+def put_check_counters(w, label_col: int) -> None:
+    """The labels of a calculation sheet's check counters, rows 4 to 6 of ``label_col``.
+
+    Parameters
+    ----------
+    w : CheckRows
+        The sheet's row writer. [-]
+    label_col : int
+        Column of the labels (the counts stand in column J). [-]
+    """
+    for row, label in ((4, "Check cells on this sheet"), (5, "Check cells that say OK"),
+                       (6, "State of this sheet")):
+        w.put(label_col, label, row=row)
+
+
+def put_sheet_state(w, first_row: int, last_col: str) -> str:
+    """The check counters of a finished calculation sheet (J4 to J6): the checks written, the
+    ones that say OK in ``A{first_row}`` to the last row written, and the state; return the
+    OK count's cell.
+
+    Parameters
+    ----------
+    w : CheckRows
+        The sheet's row writer, after its last row. [-]
+    first_row : int
+        First row searched for "OK". [-]
+    last_col : str
+        Last column searched. [-]
+    """
+    last = w.row
+    w.block = w.sheet.block("header")
+    count = w.put(10, w.checks, role="engine", fmt="0", row=4)
+    ok = w.put(10, formula=f'=COUNTIF(A{first_row}:{last_col}{last},"OK")', fmt="0", row=5)
+    w.put(10, formula=f'=IF({ok}={count},"ALL CHECKS OK","NOT ALL OK")', style="hl check",
+          row=6)
+    return ok
+
+
+def put_overview_state(b, row: int, count: int, ok_ref: str, cols: str) -> None:
+    """One row of an overview sheet's checks: the sheet's check count, the OK count (a
+    reference to the sheet) and the state, in the three columns ``cols`` (``"GHI"``).
+
+    Parameters
+    ----------
+    b : Block
+        The overview's block. [-]
+    row : int
+        Row. [-]
+    count : int
+        Check cells on the sheet. [-]
+    ok_ref : str
+        The sheet's cell counting the checks that say OK. [-]
+    cols : str
+        Three column letters. [-]
+    """
+    c_count, c_ok, c_state = cols
+    b.put(f"{c_count}{row}", count, role="engine", number_format="0")
+    b.put(f"{c_ok}{row}", formula=f"={ok_ref}", number_format="0")
+    b.put(f"{c_state}{row}",
+          formula=f'=IF({c_ok}{row}={c_count}{row},"ALL CHECKS OK","NOT ALL OK")',
+          style="hl check")
+
+
+def put_overview_totals(sheet, b, first: int, n_rows: int, label: str, cols: str) -> dict:
+    """The total check counts under an overview table; return ``{"count", "ok"}`` refs.
+
+    Parameters
+    ----------
+    sheet : Sheet
+        The overview sheet. [-]
+    b : Block
+        Its block. [-]
+    first : int
+        First row of the table. [-]
+    n_rows : int
+        Rows of the table. [-]
+    label : str
+        Text of the totals row. [-]
+    cols : str
+        The count and OK columns (``"GH"``). [-]
+    """
+    last = first + max(n_rows, 1) - 1
+    t = last + 2
+    c_count, c_ok = cols[0], cols[1]
+    b.put(f"B{t}", label)
+    count = b.put(f"{c_count}{t}", formula=f"=SUM({c_count}{first}:{c_count}{last})",
+                  number_format="0").ref
+    ok = b.put(f"{c_ok}{t}", formula=f"=SUM({c_ok}{first}:{c_ok}{last})",
+               number_format="0").ref
+    return {"count": sheet_ref(sheet.name, count), "ok": sheet_ref(sheet.name, ok)}
 
 
 def put_warning(w, text: str | None = None, *, formula: str | None = None,

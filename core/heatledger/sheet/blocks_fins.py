@@ -35,7 +35,15 @@ from types import SimpleNamespace
 
 from .. import cautions as _cautions
 from ..fins.annular import AnnularFin
-from .blocks_construction import DEFAULT_CHECK_TOLERANCE, add_calculation_sheet, put_warning
+from .blocks_construction import (
+    DEFAULT_CHECK_TOLERANCE,
+    add_calculation_sheet,
+    put_check_counters,
+    put_overview_state,
+    put_overview_totals,
+    put_sheet_state,
+    put_warning,
+)
 from .blocks_fins_closed import (
     F_E,
     F_G,
@@ -230,9 +238,7 @@ def _fin_setup(st) -> None:
     w.put(2, "Check tolerance, relative [-]")
     w.put(3, float(tolerance), role="input", fmt=F_E)
     w.put(4, "check: |formula − engine| ≤ tolerance × max(1, |engine|)", role="note")
-    for row, label in ((4, "Check cells on this sheet"), (5, "Check cells that say OK"),
-                       (6, "State of this sheet")):
-        w.put(6, label, row=row)
+    put_check_counters(w, 6)
     if entry.notes:
         w.row = 9
         w.put(2, "Notes")
@@ -282,7 +288,6 @@ def _fin_inputs(st) -> object:
     profile = _profile_table(w, r, fin, entry)
     array_refs = _array(w, r, entry) if entry.array is not None else {}
     fv_rows = _fv(w, r, fin, entry)
-    last_row = w.row
     sheet.charts.append(Chart(
         "scatter", f"Temperature along {entry.name}", f"P{HEADER_ROWS + 2}",
         (ChartSeries("closed form", sheet_ref(sheet_name, f"E{profile[0]}:E{profile[1]}"),
@@ -296,11 +301,7 @@ def _fin_inputs(st) -> object:
         x_title=("radius [mm]" if isinstance(fin, AnnularFin) else
                  "distance from the base [mm]"),
         y_title="temperature [degC]", width_cm=18.0, height_cm=9.0))
-    w.block = sheet.block("header")
-    count = w.put(10, w.checks, role="engine", fmt="0", row=4)
-    ok = w.put(10, formula=f'=COUNTIF(A{HEADER_ROWS + 1}:V{last_row},"OK")', fmt="0", row=5)
-    w.put(10, formula=f'=IF({ok}={count},"ALL CHECKS OK","NOT ALL OK")', style="hl check",
-          row=6)
+    ok = put_sheet_state(w, HEADER_ROWS + 1, "V")
     s = sheet_name
     return FinRefs(sheet=s, name=entry.name, heat_rate=sheet_ref(s, r["q"]),
                    efficiency=sheet_ref(s, r["eta"]), effectiveness=sheet_ref(s, r["eps"]),
@@ -424,21 +425,13 @@ def _overview(sheet, entries, refs) -> dict:
                                  ("K", ref.array.get("fin_resistance"), F_T)):
             if target:
                 b.put(f"{col}{row}", formula=f"={target}", number_format=fmt)
-        b.put(f"L{row}", ref.check_count, role="engine", number_format="0")
-        b.put(f"M{row}", formula=f"={ref.checks_ok}", number_format="0")
-        b.put(f"N{row}", formula=f'=IF(M{row}=L{row},"ALL CHECKS OK","NOT ALL OK")',
-              style="hl check")
+        put_overview_state(b, row, ref.check_count, ref.checks_ok, "LMN")
         warns = list(entry.evaluate().warnings)
         arr = entry.evaluate_array()
         if arr is not None:
             warns += [t for t in arr.warnings if t not in warns]
         b.put(f"O{row}", "; ".join(warns) or "none", style="hl text wrap")
-    last = first + max(len(refs), 1) - 1
-    t = last + 2
-    b.put(f"B{t}", "Check cells on the fin sheets")
-    count = b.put(f"L{t}", formula=f"=SUM(L{first}:L{last})", number_format="0").ref
-    ok = b.put(f"M{t}", formula=f"=SUM(M{first}:M{last})", number_format="0").ref
-    return {"count": sheet_ref(sheet.name, count), "ok": sheet_ref(sheet.name, ok)}
+    return put_overview_totals(sheet, b, first, len(refs), "Check cells on the fin sheets", "LM")
 
 
 def add_sheets(plan: WorkbookPlan, project, audit) -> None:

@@ -19,7 +19,13 @@ from .. import cautions as _cautions
 from ..bridges2d.junctions import RESISTANCE_INSIDE_FRSI
 from ..bridges2d.picture import temperature_picture
 from .audit import Answer
-from .blocks_construction import add_calculation_sheet
+from .blocks_construction import (
+    add_calculation_sheet,
+    put_check_counters,
+    put_overview_state,
+    put_overview_totals,
+    put_sheet_state,
+)
 from .plan import Picture, PrintSetup, WorkbookPlan, col_letter, safe_sheet_name, sheet_ref
 from .rows import CheckRows, RowLayout
 
@@ -71,12 +77,7 @@ def add_junction_sheet(plan: WorkbookPlan, sheet_name: str, entry, *, tolerance:
     _results(st)
     _picture(st)
     w = st.w
-    last = w.row
-    w.block = st.sheet.block("header")
-    count = w.put(10, w.checks, role="engine", fmt="0", row=4)
-    ok = w.put(10, formula=f'=COUNTIF(A{HEADER_ROWS}:N{last},"OK")', fmt="0", row=5)
-    w.put(10, formula=f'=IF({ok}={count},"ALL CHECKS OK","NOT ALL OK")', style="hl check",
-          row=6)
+    ok = put_sheet_state(w, HEADER_ROWS, "N")
     s = sheet_name
     return {"psi": sheet_ref(s, st.psi), "l2d": sheet_ref(s, st.l2d),
             "f_rsi": sheet_ref(s, st.f_rsi), "ok": sheet_ref(s, ok), "count": w.checks}
@@ -105,9 +106,7 @@ def _setup(plan, sheet_name, entry, tolerance, project_name):
     w.row = 8
     w.put(2, "Check tolerance, relative [-]")
     w.put(3, float(tolerance), role="input", fmt="0.0E+00")
-    for row, label in ((4, "Check cells on this sheet"), (5, "Check cells that say OK"),
-                       (6, "State of this sheet")):
-        w.put(8, label, row=row)
+    put_check_counters(w, 8)
     if entry.notes:
         w.put(2, f"Notes: {entry.notes}", role="note", row=7)
     w.row = HEADER_ROWS
@@ -288,18 +287,11 @@ def _overview(sheet, refs) -> dict:
         b.put(f"C{row}", name, style="hl text")
         for col, key in (("D", "psi"), ("E", "l2d"), ("F", "f_rsi")):
             b.put(f"{col}{row}", formula=f"={cells[key]}", number_format="0.0000")
-        b.put(f"G{row}", cells["count"], role="engine", number_format="0")
-        b.put(f"H{row}", formula=f"={cells['ok']}", number_format="0")
-        b.put(f"I{row}", formula=f'=IF(H{row}=G{row},"ALL CHECKS OK","NOT ALL OK")',
-              style="hl check")
+        put_overview_state(b, row, cells["count"], cells["ok"], "GHI")
         b.put(f"J{row}", entry.junction.dimensions, style="hl text")
         b.put(f"K{row}", entry.junction.description, style="hl text wrap")
-    last = first + max(len(refs), 1) - 1
-    t = last + 2
-    b.put(f"B{t}", "Check cells on the junction sheets")
-    count = b.put(f"G{t}", formula=f"=SUM(G{first}:G{last})", number_format="0").ref
-    ok = b.put(f"H{t}", formula=f"=SUM(H{first}:H{last})", number_format="0").ref
-    return {"count": sheet_ref(sheet.name, count), "ok": sheet_ref(sheet.name, ok)}
+    return put_overview_totals(sheet, b, first, len(refs), "Check cells on the junction sheets",
+                               "GH")
 
 
 def topics(project) -> tuple:

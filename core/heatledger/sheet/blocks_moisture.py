@@ -9,6 +9,7 @@ from __future__ import annotations
 
 from .. import cautions as _cautions
 from .audit import Answer
+from .blocks_construction import put_overview_state, put_overview_totals, put_sheet_state
 from .moisture_glaser_sheet import glaser_sections
 from .moisture_sheet import (
     HEADER_ROWS,
@@ -64,13 +65,7 @@ def add_moisture_sheet(plan: WorkbookPlan, sheet_name: str, entry, *, tolerance:
     surface_section(st)
     glaser_sections(st)
     w = st.w
-    last = w.row
-    w.block = st.sheet.block("header")
-    count = w.put(10, w.checks, role="engine", fmt="0", row=4)
-    ok = w.put(10, formula=f'=COUNTIF(A{HEADER_ROWS}:{col_letter(40)}{last},"OK")', fmt="0",
-               row=5)
-    w.put(10, formula=f'=IF({ok}={count},"ALL CHECKS OK","NOT ALL OK")', style="hl check",
-          row=6)
+    ok = put_sheet_state(w, HEADER_ROWS, col_letter(40))
     s = sheet_name
     return {"f_rsi": sheet_ref(s, st.f_rsi), "surface": sheet_ref(s, st.surface_result),
             "verdict": sheet_ref(s, st.verdict_cell) if hasattr(st, "verdict_cell") else None,
@@ -136,16 +131,9 @@ def _overview(sheet, refs) -> dict:
         b.put(f"E{row}", formula=f"={cells['surface']}", style="hl text")
         if cells["verdict"]:
             b.put(f"F{row}", formula=f"={cells['verdict']}", style="hl text")
-        b.put(f"G{row}", cells["count"], role="engine", number_format="0")
-        b.put(f"H{row}", formula=f"={cells['ok']}", number_format="0")
-        b.put(f"I{row}", formula=f'=IF(H{row}=G{row},"ALL CHECKS OK","NOT ALL OK")',
-              style="hl check")
-    last = first + max(len(refs), 1) - 1
-    t = last + 2
-    b.put(f"B{t}", "Check cells on the moisture sheets")
-    count = b.put(f"G{t}", formula=f"=SUM(G{first}:G{last})", number_format="0").ref
-    ok = b.put(f"H{t}", formula=f"=SUM(H{first}:H{last})", number_format="0").ref
-    return {"count": sheet_ref(sheet.name, count), "ok": sheet_ref(sheet.name, ok)}
+        put_overview_state(b, row, cells["count"], cells["ok"], "GHI")
+    return put_overview_totals(sheet, b, first, len(refs), "Check cells on the moisture sheets",
+                               "GH")
 
 
 def topics(project) -> tuple:

@@ -29,7 +29,7 @@ from ..moisture.psychrometrics import (
     WATER_VAPOUR_GAS_CONSTANT,
 )
 from ..moisture.surface import MIN_TEMPERATURE_DIFFERENCE
-from .blocks_construction import add_calculation_sheet, put_warning
+from .blocks_construction import add_calculation_sheet, put_check_counters, put_warning
 from .plan import col_letter
 from .rows import CheckRows, RowLayout
 
@@ -112,9 +112,7 @@ def moisture_setup(plan, sheet_name: str, entry, tolerance: float, project_name:
     w.row = 8
     w.put(2, "Check tolerance, relative [-]")
     w.put(3, float(tolerance), role="input", fmt="0.0E+00")
-    for row, label in ((4, "Check cells on this sheet"), (5, "Check cells that say OK"),
-                       (6, "State of this sheet")):
-        w.put(8, label, row=row)
+    put_check_counters(w, 8)
     if entry.notes:
         w.put(4, f"Notes: {entry.notes}", role="note", row=5)
     w.row = HEADER_ROWS
