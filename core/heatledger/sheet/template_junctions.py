@@ -7,7 +7,7 @@ noting the cell of every key so that a problem names its sheet and cell.
 from __future__ import annotations
 
 from ..bridges2d.schema import FLANK_TABLE, JUNCTION_TABLE, REGION_TABLE, SURFACE_TABLE
-from .template_tables import nest_row
+from .template_tables import attach_children, read_parents
 
 __all__ = ["template_rows", "read_rows"]
 
@@ -52,24 +52,9 @@ def read_rows(tables: dict, data: dict, problems: list, cells: dict) -> None:
     cells : dict
         Key path -> cell, extended for every key read. [-]
     """
-    junctions, by_name = [], {}
-    for i, (row, where) in enumerate(tables.get(JUNCTION_TABLE.sheet, []), 1):
-        key = f"junctions[{i}]"
-        junction = nest_row(row, where, key, {}, cells)
-        junctions.append(junction)
-        by_name.setdefault(str(junction.get("name", "")).strip(), (junction, key))
+    junctions, by_name = read_parents(tables.get(JUNCTION_TABLE.sheet, []), "junctions", cells)
     for table, child in _CHILDREN:
-        for row, where in tables.get(table.sheet, []):
-            row = dict(row)
-            owner = str(row.pop("junction", "") or "").strip()
-            if owner not in by_name:
-                names = ", ".join(repr(j.get("name", "")) for j in junctions) or "none"
-                problems.append((where.get("junction", where["_row"]),
-                                 f"junction {owner!r} is not on the Junctions sheet; choose "
-                                 f"one of {names}"))
-                continue
-            junction, key = by_name[owner]
-            lst = junction.setdefault(child, [])
-            lst.append(nest_row(row, where, f"{key}.{child}[{len(lst) + 1}]", {}, cells))
+        attach_children(tables.get(table.sheet, []), "junction", child,
+                        ("junction", JUNCTION_TABLE.sheet, junctions, by_name), problems, cells)
     if junctions:
         data["junctions"] = junctions

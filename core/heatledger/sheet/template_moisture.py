@@ -9,7 +9,7 @@ and cell.
 from __future__ import annotations
 
 from ..moisture.schema import CLIMATE_TABLE, MOISTURE_TABLE, MONTH_TABLE
-from .template_tables import nest_row
+from .template_tables import attach_children, nest_row, read_parents
 
 __all__ = ["template_rows", "read_rows"]
 
@@ -51,25 +51,11 @@ def read_rows(tables: dict, data: dict, problems: list, cells: dict) -> None:
     cells : dict
         Key path -> cell, extended for every key read. [-]
     """
-    climates, by_name = [], {}
-    for i, (row, where) in enumerate(tables.get(CLIMATE_TABLE.sheet, []), 1):
-        key = f"climates[{i}]"
-        climate = nest_row(row, where, key, {}, cells)
+    climates, by_name = read_parents(tables.get(CLIMATE_TABLE.sheet, []), "climates", cells)
+    for climate in climates:
         climate["months"] = []
-        climates.append(climate)
-        by_name.setdefault(str(climate.get("name", "")).strip(), (climate, key))
-    for row, where in tables.get(MONTH_TABLE.sheet, []):
-        row = dict(row)
-        owner = str(row.pop("climate", "") or "").strip()
-        if owner not in by_name:
-            names = ", ".join(repr(c.get("name", "")) for c in climates) or "none"
-            problems.append((where.get("climate", where["_row"]),
-                             f"climate {owner!r} is not on the Climates sheet; choose one of "
-                             f"{names}"))
-            continue
-        climate, key = by_name[owner]
-        lst = climate["months"]
-        lst.append(nest_row(row, where, f"{key}.months[{len(lst) + 1}]", {}, cells))
+    attach_children(tables.get(MONTH_TABLE.sheet, []), "climate", "months",
+                    ("climate", CLIMATE_TABLE.sheet, climates, by_name), problems, cells)
     if climates:
         data["climates"] = climates
     checks = [nest_row(row, where, f"moisture[{i}]", {}, cells)

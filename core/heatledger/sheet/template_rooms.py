@@ -9,7 +9,7 @@ project data, noting the cell of every key so that a problem names its sheet and
 from __future__ import annotations
 
 from ..heatloss.schema import ELEMENT_TABLE, ROOM_TABLE, TABLES
-from .template_tables import flatten_row, nest_row, note_cells
+from .template_tables import attach_children, flatten_row, note_cells, read_parents
 
 __all__ = ["ROOM_COLUMNS", "ROOM_NOTES", "ROOM_SHEETS", "template_rows", "read_rows"]
 
@@ -69,29 +69,13 @@ def read_rows(tables: dict, data: dict, problems: list, cells: dict) -> None:
         row, where = building_rows[0]
         data["building"] = dict(row)
         note_cells(cells, "building", where)
-    rooms = []
-    by_name: dict = {}
-    for i, (row, where) in enumerate(tables.get("Rooms", []), 1):
-        key = f"rooms[{i}]"
-        room = nest_row(row, where, key, _VENT, cells)
+    rooms, by_name = read_parents(tables.get("Rooms", []), "rooms", cells, _VENT)
+    for room in rooms:
         room["elements"] = []
-        rooms.append(room)
-        name = str(room.get("name", "")).strip()
-        by_name.setdefault(name, (room, key))
     for sheet, child in (("Elements", "elements"), ("Bridges", "thermal_bridges")):
-        for row, where in tables.get(sheet, []):
-            row = dict(row)
-            owner = str(row.pop("room_name", "") or "").strip()
-            if owner not in by_name:
-                choices = ", ".join(repr(r.get("name", "")) for r in rooms) or "none"
-                problems.append((where.get("room_name", where["_row"]),
-                                 f"room {owner!r} is not on the Rooms sheet; choose one of "
-                                 f"{choices}"))
-                continue
-            room, key = by_name[owner]
-            lst = room.setdefault(child, [])
-            lst.append(nest_row(row, where, f"{key}.{child}[{len(lst) + 1}]",
-                                _EDGE if child == "elements" else {}, cells))
+        attach_children(tables.get(sheet, []), "room_name", child,
+                        ("room", "Rooms", rooms, by_name), problems, cells,
+                        _EDGE if child == "elements" else None)
     for room in rooms:
         if not room.get("thermal_bridges"):
             room.pop("thermal_bridges", None)

@@ -95,3 +95,71 @@ def note_cells(cells: dict, key: str, where: dict, skip=()) -> None:
     for k, ref in where.items():
         if k != "_row" and k not in skip:
             cells[f"{key}.{k}"] = ref
+
+
+def read_parents(rows, key: str, cells: dict, subtables=None) -> tuple:
+    """The rows of a parent sheet (Rooms, Climates, Junctions) as project tables, and the
+    tables by name for :func:`attach_children`.
+
+    Parameters
+    ----------
+    rows : list
+        ``(row, where)`` pairs of the sheet. [-]
+    key : str
+        Key of the list in the project data (``"rooms"``). [-]
+    cells : dict
+        Key path -> cell, extended in place. [-]
+    subtables : dict, optional
+        Column key -> (table key, key inside the table). [-]
+
+    Returns
+    -------
+    tuple
+        ``(tables, {name: (table, key path)})``.
+    """
+    parents, by_name = [], {}
+    for i, (row, where) in enumerate(rows, 1):
+        path = f"{key}[{i}]"
+        parent = nest_row(row, where, path, subtables or {}, cells)
+        parents.append(parent)
+        by_name.setdefault(str(parent.get("name", "")).strip(), (parent, path))
+    return parents, by_name
+
+
+def attach_children(rows, link: str, child: str, parents: tuple, problems: list,
+                    cells: dict, subtables=None) -> None:
+    """Put each row of a child sheet (Elements, Climate months...) into the parent its
+    ``link`` column names; a row naming no parent is a problem at that cell.
+
+    Parameters
+    ----------
+    rows : list
+        ``(row, where)`` pairs of the child sheet. [-]
+    link : str
+        Column naming the parent (``"room_name"``). [-]
+    child : str
+        Key of the children's list in the parent (``"elements"``). [-]
+    parents : tuple
+        ``(what, sheet, tables, by_name)``: the parent's kind and sheet for the message and
+        the output of :func:`read_parents`. [-]
+    problems : list
+        ``(cell, message)`` is appended for a row naming no parent. [-]
+    cells : dict
+        Key path -> cell, extended in place. [-]
+    subtables : dict, optional
+        Column key -> (table key, key inside the table) of the child rows. [-]
+    """
+    what, sheet, tables, by_name = parents
+    for row, where in rows:
+        row = dict(row)
+        owner = str(row.pop(link, "") or "").strip()
+        if owner not in by_name:
+            names = ", ".join(repr(t.get("name", "")) for t in tables) or "none"
+            problems.append((where.get(link, where["_row"]),
+                             f"{what} {owner!r} is not on the {sheet} sheet; choose one of "
+                             f"{names}"))
+            continue
+        parent, path = by_name[owner]
+        lst = parent.setdefault(child, [])
+        lst.append(nest_row(row, where, f"{path}.{child}[{len(lst) + 1}]", subtables or {},
+                            cells))
