@@ -209,15 +209,9 @@ def _cell_value(value, kind: str):
 
 
 #: Columns naming a row of another sheet, and that sheet (its first column holds the names).
-_REF_SHEETS = {("Moisture checks", "construction"): "Constructions",
-               ("Moisture checks", "climate"): "Climates",
-               ("Climate months", "climate"): "Climates",
-               ("Junctions", "construction"): "Constructions",
-               ("Junctions", "floor"): "Constructions",
-               ("Junction flanks", "construction"): "Constructions",
-               ("Junction regions", "junction"): "Junctions",
-               ("Junction surfaces", "junction"): "Junctions",
-               ("Junction flanks", "junction"): "Junctions"}
+#: Each family's template module declares its own (``REF_SHEETS``).
+_REF_SHEETS = {k: v for fam in FAMILIES
+               for k, v in getattr(fam.load("template"), "REF_SHEETS", {}).items()}
 
 
 def _drop_down(col, cells: str, lists: dict, sheet: str = "") -> list:

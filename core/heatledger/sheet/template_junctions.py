@@ -9,10 +9,15 @@ from __future__ import annotations
 from ..bridges2d.schema import FLANK_TABLE, JUNCTION_TABLE, REGION_TABLE, SURFACE_TABLE
 from .template_tables import attach_children, read_parents
 
-__all__ = ["template_rows", "read_rows"]
+__all__ = ["template_rows", "read_rows", "REF_SHEETS"]
 
 #: Child sheets: (table, key inside a junction).
 _CHILDREN = ((REGION_TABLE, "regions"), (SURFACE_TABLE, "surfaces"), (FLANK_TABLE, "flanking"))
+#: (sheet, column) -> the sheet whose first column lists the names it may take.
+REF_SHEETS = {(JUNCTION_TABLE.sheet, "construction"): "Constructions",
+              (JUNCTION_TABLE.sheet, "floor"): "Constructions",
+              (FLANK_TABLE.sheet, "construction"): "Constructions",
+              **{(t.sheet, "junction"): JUNCTION_TABLE.sheet for t, _c in _CHILDREN}}
 
 
 def template_rows(data: dict) -> dict:

@@ -11,7 +11,12 @@ from __future__ import annotations
 from ..moisture.schema import CLIMATE_TABLE, MOISTURE_TABLE, MONTH_TABLE
 from .template_tables import attach_children, nest_row, read_parents
 
-__all__ = ["template_rows", "read_rows"]
+__all__ = ["template_rows", "read_rows", "REF_SHEETS"]
+
+#: (sheet, column) -> the sheet whose first column lists the names it may take.
+REF_SHEETS = {(MOISTURE_TABLE.sheet, "construction"): "Constructions",
+              (MOISTURE_TABLE.sheet, "climate"): CLIMATE_TABLE.sheet,
+              (MONTH_TABLE.sheet, "climate"): CLIMATE_TABLE.sheet}
 
 
 def template_rows(data: dict) -> dict:
