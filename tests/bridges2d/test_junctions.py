@@ -75,7 +75,8 @@ def test_corner_psi_is_l2d_minus_flanks_and_external_corners_are_negative():
 
 def test_layered_wall_far_field_carries_the_construction_u():
     # a stud junction with studs of the insulation's own conductivity is the plain wall:
-    # L_2D / s = U = 1/R_T (the scheme is exact for a field linear in each layer)
+    # L_2D / s = U = 1/R_T (EN ISO 6946 6.7, from memory; the scheme is exact for a field
+    # linear in each layer)
     j = stud_wall(WALL, 2, stud_width=0.05, stud_conductivity=0.035, spacing=0.6)
     r = j.solve(0.01)
     assert r.psi_result.coupling_coefficient / 0.6 == pytest.approx(WALL.u_value,
@@ -99,12 +100,14 @@ def test_floor_and_balcony():
     floor = wall_floor(WALL, FLOOR).solve(0.01)
     balcony = wall_floor(WALL, FLOOR, projection=1.5).solve(0.01)
     # a slab carried through the insulation is a far larger bridge than one bearing on the
-    # inner leaf (fact of the trade); both conserve energy
+    # inner leaf, and an uninsulated balcony slab is above 0.5 W/(m K): common practice, no
+    # published source; both conserve energy
     assert balcony.psi_result.psi > 0.5 > floor.psi_result.psi
     assert balcony.surface_factor < floor.surface_factor
     for r in (floor, balcony):
         assert abs(r.flow_solve.energy_balance) < 1e-9
-    # the wall is 2 flanks + the floor high (external dimensions)
+    # the wall is 2 flanks + the floor high (external dimensions), each flank max(1 m, 3 d)
+    # (EN ISO 10211, 5.2, from memory)
     h = 2 * max(1.0, 3 * 0.225) + 0.25
     assert wall_floor(WALL, FLOOR).flanking[0][2] == pytest.approx(h)
 
@@ -161,6 +164,8 @@ def test_spreadsheet_functions_against_the_engine():
     regions = [[0, 0, 1200, 100, 0.5], [0, 100, 1200, 200, "eps 032"]]
     surfaces = [["out", 0, 0, 1200, 0, 0, 0.04, "outside"],
                 ["in", 0, 200, 1200, 200, 20, 0.13, "inside"]]
+    # U = 1/(Rsi + sum d/lambda + Rse), EN ISO 6946 6.7 and Table 7 (from memory); eps 032
+    # is the library's typical 0.032 W/(m K)
     u = 1 / (0.13 + 0.1 / 0.5 + 0.1 / 0.032 + 0.04)
     assert abs(udfs.HL_PSI(regions, surfaces, [[u, 1.2]])) < 1e-12
     surfaces[1][6] = 0.25  # R_si of the surface-temperature calculation

@@ -136,7 +136,8 @@ def test_drying_is_capped_and_the_year_closes():
 
 def test_starting_month_rule():
     # the scan from January finds the first month that condenses (from dry) after one
-    # that does not
+    # that does not: heatledger's reading of EN ISO 13788 clause 6 (README, "Moisture"),
+    # checked here against the months found independently, not a published value
     res = interstitial_condensation(_roof(2.0), _seasonal())
     condensing_dry = [m for m in range(12) if interstitial_condensation(
         _roof(2.0), _steady(_seasonal().temp_outside[m], _seasonal().rh_outside[m], 20.0,
@@ -183,7 +184,8 @@ def test_a_more_open_outer_layer_never_accumulates_more(outer_sd, factor):
 
 
 def test_air_layer_and_vapour_tight_layer():
-    # an air layer counts s_d = its thickness; a metal sheet (mu = inf) stops vapour
+    # an air layer counts s_d = its thickness (mu = 1, still air: EN ISO 13788, from memory);
+    # a metal sheet (mu = inf) stops vapour
     wall = Construction([Layer(0.1, 0.04, name="wool", vapour_resistance_factor=1.0),
                          AirLayer(0.025, name="cavity"),
                          Layer(0.001, 50.0, name="steel sheet", material="steel")])
