@@ -44,7 +44,9 @@ JUNCTION_METHODS = (
     "(EN ISO 10211, 5.2); layers as bands of their EN ISO 6946 equivalent conductivity",
 )
 F = "0.0000"
-JUNCTION_ROWS = RowLayout(label=2, value=3, engine=4, check=5, note=6, default_format=F)
+#: Notes wrap in the wide last column, so a long note does not widen the printed page.
+JUNCTION_ROWS = RowLayout(label=2, value=3, engine=4, check=5, note=14, default_format=F,
+                          note_style="hl note wrap")
 HEADER_ROWS = 9
 
 
@@ -84,7 +86,7 @@ def add_junction_sheet(plan: WorkbookPlan, sheet_name: str, entry, *, tolerance:
 
 
 def _setup(plan, sheet_name, entry, tolerance, project_name):
-    widths = [6, 40, 14, 14, 14, 14, 14, 14, 14, 14, 14, 14, 14, 40]
+    widths = [6, 40, 14, 14, 14, 14, 14, 14, 14, 14, 14, 14, 14, 60]
     sheet = add_calculation_sheet(plan, sheet_name, widths, f"{project_name} | {entry.name}")
     w = CheckRows(sheet, "$C$8", JUNCTION_ROWS)
     j = entry.junction
@@ -173,8 +175,8 @@ def _solver(st) -> None:
     w.stated("cells with material (unknowns)", float(flow.cells), "#,##0")
     nx, ny = flow.settings["grid"]
     w.stated("grid columns x rows", f"{nx} x {ny}")
-    w.stated("method", f"{flow.settings['method']}; solver {flow.solver} "
-             f"({flow.settings['steps']} refinement step(s))")
+    w.stated("method", flow.settings["method"])
+    w.stated("solver", f"{flow.solver}; {flow.settings['steps']} refinement step(s)")
     a, b = st.surface_rows
     w.value_row("energy balance: sum of all surface heat flows [W/m]",
                 formula=f"=SUM(L{a}:L{b})", engine=flow.energy_balance, fmt="0.0E+00",
