@@ -313,8 +313,8 @@ def _material(where: str, value: object) -> Material:
         raise HeatLedgerError(f"{where}: {exc}") from None
 
 
-def _cell(where: str, column: str, value: object, default: object, low: float, high: float,
-          low_inclusive: bool, unit: str) -> float:
+def _cell(name: str, row: int, column: str, value: object, default: object, low: float,
+          high: float, low_inclusive: bool, unit: str) -> float:
     """:func:`number` for a table cell; a plain number within bounds or a blank optional cell
     is answered without building the message text (the common case of every row)."""
     kind = type(value)
@@ -323,24 +323,25 @@ def _cell(where: str, column: str, value: object, default: object, low: float, h
             return float(value)
     elif value is None and default is not REQUIRED:
         return default  # type: ignore[return-value]
-    return number(f"{where} {column}", value, default, low=low, high=high,
+    return number(f"{name} row {row} {column}", value, default, low=low, high=high,
                   low_inclusive=low_inclusive, unit=unit)
 
 
 def _layer(name: str, row: int, cells: tuple):
-    where = f"{name} row {row}"
+    # ``where`` (for messages) is written out only on the paths that may need it
     c_name, c_thick, c_cond, c_res, c_frac, c_bcond = cells
     if not (type(c_name) is str and (label := c_name.strip()) and label[0] != "#"):
-        label = text(f"{where} material", c_name, "")  # the common case, a name, is done
-    thickness = _cell(where, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
+        label = text(f"{name} row {row} material", c_name, "")  # a name is the common case
+    thickness = _cell(name, row, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
                       MAX_THICKNESS_MM, True, "mm") / 1000.0
-    cond = _cell(where, "conductivity", c_cond, None, MIN_CONDUCTIVITY, MAX_CONDUCTIVITY, True,
-                 "W/(m K)")
-    if cond is not None:
-        _layer_resistance(where, "conductivity", thickness, cond)
-    res = _cell(where, "resistance", c_res, None, 0.0, MAX_LAYER_RESISTANCE, False,
+    cond = _cell(name, row, "conductivity", c_cond, None, MIN_CONDUCTIVITY, MAX_CONDUCTIVITY,
+                 True, "W/(m K)")
+    if cond is not None and thickness > MAX_LAYER_RESISTANCE * cond:
+        _layer_resistance(f"{name} row {row}", "conductivity", thickness, cond)  # raises
+    res = _cell(name, row, "resistance", c_res, None, 0.0, MAX_LAYER_RESISTANCE, False,
                 "m2 K/W")
-    frac = _cell(where, "bridging_fraction", c_frac, None, 0.0, 1.0, False, "")
+    frac = _cell(name, row, "bridging_fraction", c_frac, None, 0.0, 1.0, False, "")
+    where = f"{name} row {row}" if frac is not None or c_bcond is not None else ""
     if frac is not None and frac >= 1.0:
         raise HeatLedgerError(f"{where} bridging_fraction must be below 1; got {frac:g} "
                               "(give the fraction of studs or battens, e.g. 0.12)")
@@ -349,6 +350,7 @@ def _layer(name: str, row: int, cells: tuple):
     try:
         low = label.lower()
         if low == "air" or low.startswith("air:"):
+            where = f"{name} row {row}"
             if cond is not None or res is not None or frac is not None or has_bcond:
                 raise HeatLedgerError(
                     f"{where}: an air layer takes its resistance from ISO 6946 Annex D; "
@@ -356,7 +358,7 @@ def _layer(name: str, row: int, cells: tuple):
                     "another name and a declared resistance)")
             return _air_layer(where, label, thickness)
         if frac is None and has_bcond:
-            raise HeatLedgerError(f"{where}: bridging_conductivity is given but "
+            raise HeatLedgerError(f"{name} row {row}: bridging_conductivity is given but "
                                   "bridging_fraction is blank; give both or neither")
         if frac is not None:
             if res is not None:
@@ -372,17 +374,20 @@ def _layer(name: str, row: int, cells: tuple):
                                 name=label or f"layer {row}")
         if res is not None:
             if cond is not None:
-                raise HeatLedgerError(f"{where}: give conductivity or a declared resistance, "
-                                      "not both")
+                raise HeatLedgerError(f"{name} row {row}: give conductivity or a declared "
+                                      "resistance, not both")
             return Layer(thickness, resistance=res, name=label or f"layer {row}")
         if cond is not None:
             return Layer(thickness, cond, name=label or f"layer {row}")
         if not label:
-            raise HeatLedgerError(f"{where}: give a material name, a conductivity or a "
-                                  "declared resistance")
-        return Layer(thickness, material=_material(f"{where} material", label))
+            raise HeatLedgerError(f"{name} row {row}: give a material name, a conductivity or "
+                                  "a declared resistance")
+        material = _library_material(label)  # a library name (cached); otherwise the message
+        return Layer(thickness, material=material if material is not None else
+                     _material(f"{name} row {row} material", label))
     except HeatLedgerError as exc:
         msg = str(exc)
+        where = f"{name} row {row}"
         if msg.startswith(where):
             raise
         raise HeatLedgerError(f"{where}: {msg}") from None
@@ -404,7 +409,30 @@ def _main_conductivity(where: str, label: str) -> float:
     return _material(f"{where} material", label).conductivity
 
 
+@lru_cache(maxsize=ROW_CACHE_SIZE)
+def _library_material(label: str) -> Material | None:
+    """The library material a text names, or None (then the caller's path gives the
+    message): the lookup of the names a workbook repeats in every table, cached."""
+    return LIBRARY.get(label) if label in LIBRARY else None
+
+
+@lru_cache(maxsize=ROW_CACHE_SIZE)
+def _named_conductivity(value: str) -> float | None:
+    """Conductivity of the library material a bridging_conductivity text names, or None for
+    a number written as text, an error value or an unknown name (read the long way)."""
+    stripped = value.strip()
+    try:
+        float(stripped)
+    except ValueError:
+        if stripped.upper() not in ERROR_VALUES and stripped and stripped[0] != "#":
+            material = _library_material(stripped)
+            return None if material is None else material.conductivity
+    return None
+
+
 def _bridging_conductivity(where: str, value: object) -> float:
+    if type(value) is str and (lam := _named_conductivity(value)) is not None:
+        return lam  # a library name, the common case
     value = _unwrap_single(f"{where} bridging_conductivity", value)
     if isinstance(value, str):
         try:

@@ -105,7 +105,8 @@ class Construction:
     def __init__(self, layers, heat_flow: str = "horizontal", *, rsi=None, rse=None,
                  name: str = "", corrections=(), apply_small_corrections: bool = False) -> None:
         self.name = str(name)
-        self.heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
+        self.heat_flow = (heat_flow if type(heat_flow) is str and heat_flow in _HEAT_FLOW_SET
+                          else choice("heat_flow", heat_flow, HEAT_FLOWS))
         self.layers = tuple(layers)
         label = f"construction {quote(self.name)}" if self.name else "construction"
         if not self.layers:
@@ -122,14 +123,23 @@ class Construction:
                     else _surface_resistance(f"{label} rse", rse))
         self.corrections_input = tuple(corrections)
         self.apply_small_corrections = bool(apply_small_corrections)
-        self.warnings: list[str] = []
+        self._method_warnings: list[str] = []
         self._compute(label, rse_given)
-        #: Input that is probably a slip (a thickness in metres in a millimetre field, a
-        #: conductivity far outside its material class); also at the head of ``warnings``.
-        self.input_warnings: list[str] = _input_slips(self.layers)
-        self.warnings[:0] = self.input_warnings
 
     # ---- results --------------------------------------------------------------------
+    @cached_property
+    def input_warnings(self) -> list:
+        """Input that is probably a slip (a thickness in metres in a millimetre field, a
+        conductivity far outside its material class); also at the head of ``warnings``.
+        Found when first read (a U-value alone does not need them). [-]"""
+        return _input_slips(self.layers)
+
+    @cached_property
+    def warnings(self) -> list:
+        """The input slips, then the method's warnings (bridging limits beyond their range,
+        bridged layers with a slightly ventilated air layer). [-]"""
+        return self.input_warnings + self._method_warnings
+
     @property
     def total_resistance(self) -> float:
         """Total thermal resistance ``R_T`` surface to surface incl. Rsi and Rse. [m2 K/W]"""
@@ -294,16 +304,17 @@ class Construction:
     def _compute(self, label: str, rse_given: bool) -> None:
         hf = self.heat_flow
         own = []
-        for lay in self.layers:
-            if lay.kind == "air":
+        vent_idx = None  # ventilated air layers: the first one from the inside governs
+        for i, lay in enumerate(self.layers):
+            kind = lay.kind
+            if kind == "air":
                 own.append(lay.resistance_for(hf))
-            elif lay.kind == "bridged":
+                if vent_idx is None and lay.ventilation != "unventilated":
+                    vent_idx = i
+            elif kind == "bridged":
                 own.append(lay.lower_limit_resistance)
             else:
                 own.append(lay.resistance_value)
-        # ventilated air layers: the first ventilated layer from the inside governs
-        vent_idx = next((i for i, lay in enumerate(self.layers)
-                         if lay.kind == "air" and lay.ventilation != "unventilated"), None)
         counted = [True] * len(self.layers)
         scale = [1.0] * len(self.layers)
         rse_used = self.rse
@@ -322,9 +333,10 @@ class Construction:
             raise HeatLedgerError(f"{label}: the first layer is a well ventilated air layer, so "
                                   "no layer is left to count")
 
-        r_inner = math.fsum(r for r, c in zip(own, counted, strict=True) if c)
         bridging = self._bridging(own, counted, rse_used)
-        r_total = bridging.total if bridging else self.rsi + r_inner + rse_used
+        r_total = (bridging.total if bridging else
+                   self.rsi + math.fsum([r for r, c in zip(own, counted, strict=True) if c])
+                   + rse_used)
 
         if vent_idx is not None and self.layers[vent_idx].ventilation == "slightly":
             lay = self.layers[vent_idx]
@@ -343,7 +355,8 @@ class Construction:
                 scale[i] = s
             rse_used = self.rse * s
             if bridging is not None:
-                self.warnings.append("bridged layers with a slightly ventilated air layer: the "
+                self._method_warnings.append("bridged layers with a slightly ventilated air "
+                                             "layer: the "
                                      "bridging limits are computed with the layer unventilated")
             self._ventilation = VentilationResult(
                 vent_idx, "slightly", av, r_tu, r_tv, w_u, w_v, s,
@@ -363,7 +376,7 @@ class Construction:
         self._rse_used = rse_used
         self._row_data = (own, scale, counted)
         if bridging is not None and bridging.ratio > BRIDGING_RATIO_LIMIT:
-            self.warnings.append(
+            self._method_warnings.append(
                 f"upper/lower limit ratio {bridging.ratio:.3f} exceeds 1.5: ISO 6946:2017 6.7.2 "
                 "is not valid; use a numerical method (ISO 10211)")
         self._corrections = self._apply_corrections(label, own)
@@ -394,8 +407,8 @@ class Construction:
         bridged = [i for i, lay in enumerate(self.layers) if lay.kind == "bridged" and counted[i]]
         if not bridged:
             return None
-        base = self.rsi + rse_used + math.fsum(own[i] for i in range(len(own))
-                                         if counted[i] and i not in bridged)
+        base = self.rsi + rse_used + math.fsum([own[i] for i in range(len(own))
+                                                if counted[i] and i not in bridged])
         sections = []
         inv_upper = 0.0
         for combo in product(*(self.layers[i].parts for i in bridged)):
@@ -407,12 +420,14 @@ class Construction:
             sections.append((frac, r_q))
             inv_upper += frac / r_q
         upper = 1.0 / inv_upper
-        lower = base + math.fsum(own[i] for i in bridged)
+        lower = base + math.fsum([own[i] for i in bridged])
         total = 0.5 * (upper + lower)
         return BridgingResult(upper, lower, total, (upper - lower) / (2.0 * total),
                               upper / lower, tuple(sections), {i: own[i] for i in bridged})
 
     def _apply_corrections(self, label, own) -> CorrectionResult:
+        if not self.corrections_input:
+            return _NO_CORRECTIONS
         items = []
         for c in self.corrections_input:
             idx = getattr(c, "layer", None)
@@ -467,6 +482,12 @@ class Construction:
     def __repr__(self) -> str:
         return (f"Construction({len(self.layers)} layers, heat_flow={self.heat_flow!r}, "
                 f"U={self.u_value:.4g} W/(m2 K))")
+
+
+#: The heat-flow directions, for a quick test of a direction written as the engine writes it.
+_HEAT_FLOW_SET = frozenset(HEAT_FLOWS)
+#: The correction result of a construction without corrections (immutable, shared).
+_NO_CORRECTIONS = CorrectionResult((), 0.0, False, "no corrections")
 
 
 def _surface_resistance(name: str, value) -> float:
