@@ -166,7 +166,11 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
             padded = tuple(row) + _PADDING[n]
         if i == 1 and type(padded[1]) is str and _is_header(padded):
             continue
-        if _may_hold_bool(padded):
+        try:  # no cell equal to 0 or 1: none can be TRUE or FALSE (a quick look)
+            maybe_bool = not _ZERO_ONE.isdisjoint(padded)
+        except TypeError:  # an unhashable cell (a nested list)
+            maybe_bool = True
+        if maybe_bool:
             _no_booleans(f"{name} row {i}", padded, LAYER_COLUMNS)
         if len(out) == MAX_LAYERS:
             raise HeatLedgerError(f"{name} holds more than {MAX_LAYERS} layers; end the "
@@ -241,7 +245,7 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
         layers = [_cached_layer(name, i, cells) for i, cells in rows]
     except TypeError:  # a cell value that cannot key a cache (a nested list)
         layers = [_layer(name, i, cells) for i, cells in rows]
-    if sum(lay.kind == "bridged" for lay in layers) > MAX_BRIDGED_LAYERS:
+    if [lay.kind for lay in layers].count("bridged") > MAX_BRIDGED_LAYERS:
         bridged = [i for (i, _), lay in zip(rows, layers, strict=True) if lay.kind == "bridged"]
         raise HeatLedgerError(
             f"{name} row {bridged[MAX_BRIDGED_LAYERS]}: at most {MAX_BRIDGED_LAYERS} bridged "
@@ -273,14 +277,6 @@ ROW_CACHE_SIZE = 4096
 @lru_cache(maxsize=ROW_CACHE_SIZE)
 def _cached_layer(name: str, row: int, cells: tuple):
     return _layer(name, row, cells)
-
-
-def _may_hold_bool(cells: tuple) -> bool:
-    """False when no cell equals 0 or 1, so none can be TRUE or FALSE (a quick look)."""
-    try:
-        return not _ZERO_ONE.isdisjoint(cells)
-    except TypeError:  # an unhashable cell (a nested list)
-        return True
 
 
 def _no_booleans(where: str, cells: tuple, columns: tuple) -> None:
