@@ -330,13 +330,15 @@ def _layer(name: str, row: int, cells: tuple):
         label = text(f"{name} row {row} material", c_name, "")  # a name is the common case
     thickness = _cell(name, row, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
                       MAX_THICKNESS_MM, True, "mm") / 1000.0
-    cond = _cell(name, row, "conductivity", c_cond, None, MIN_CONDUCTIVITY, MAX_CONDUCTIVITY,
-                 True, "W/(m K)")
+    # blank optional cells (None) are the common case: answered without a call
+    cond = None if c_cond is None else _cell(name, row, "conductivity", c_cond, None,
+                                             MIN_CONDUCTIVITY, MAX_CONDUCTIVITY, True, "W/(m K)")
     if cond is not None and thickness > MAX_LAYER_RESISTANCE * cond:
         _layer_resistance(f"{name} row {row}", "conductivity", thickness, cond)  # raises
-    res = _cell(name, row, "resistance", c_res, None, 0.0, MAX_LAYER_RESISTANCE, False,
-                "m2 K/W")
-    frac = _cell(name, row, "bridging_fraction", c_frac, None, 0.0, 1.0, False, "")
+    res = None if c_res is None else _cell(name, row, "resistance", c_res, None, 0.0,
+                                           MAX_LAYER_RESISTANCE, False, "m2 K/W")
+    frac = None if c_frac is None else _cell(name, row, "bridging_fraction", c_frac, None, 0.0,
+                                             1.0, False, "")
     where = f"{name} row {row}" if frac is not None or c_bcond is not None else ""
     if frac is not None and frac >= 1.0:
         raise HeatLedgerError(f"{where} bridging_fraction must be below 1; got {frac:g} "

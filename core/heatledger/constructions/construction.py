@@ -363,11 +363,9 @@ class Construction:
         elif bridging is not None:
             # share the bridging adjustment (R_T - R''_T) among bridged layers, in proportion
             # to their lower-limit resistances, so that the ladder sums to R_T
-            bridged = [i for i, lay in enumerate(self.layers) if lay.kind == "bridged"
-                       and counted[i]]
-            r_b = sum(own[i] for i in bridged)
-            s = 1.0 + (bridging.total - bridging.lower) / r_b
-            for i in bridged:
+            lower_r = bridging.layer_lower_resistances  # the counted bridged layers, in order
+            s = 1.0 + (bridging.total - bridging.lower) / sum(lower_r.values())
+            for i in lower_r:
                 scale[i] = s
         self._bridging_result = bridging
         self._r_total = r_total
