@@ -15,6 +15,7 @@ from types import SimpleNamespace
 from .. import cautions as _cautions
 from ..families import FAMILIES
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE
+from .pages import contain_overflow, paginate
 from .plan import (
     PrintSetup,
     WorkbookPlan,
@@ -155,7 +156,9 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
     _cover(cover, project, summary_cells, audit)
     for sheet in plan.sheets:
         fit_text_columns(sheet)
+        contain_overflow(sheet)
         fit_wrapped_rows(sheet)
+        paginate(sheet, title_columns=2)
     return plan
 
 

@@ -67,8 +67,9 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
 
     style_cache = _StyleCache(wb)
     charts = _ChartCache(wb)
-    for sheet in plan.sheets:
-        ws = wb.create_sheet(sheet.name)
+    # every sheet exists before any is filled: a chart may show data of a later sheet
+    worksheets = [wb.create_sheet(sheet.name) for sheet in plan.sheets]
+    for sheet, ws in zip(plan.sheets, worksheets, strict=True):
         cells = ws._cells
         for cell in sheet.cells():
             row, col = split_ref(cell.ref)
@@ -105,6 +106,8 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
             ws.row_dimensions[row].height = height
         for row in sheet.row_breaks:
             ws.row_breaks.append(Break(id=row))
+        for col in sheet.col_breaks:
+            ws.col_breaks.append(Break(id=col))
         if sheet.freeze:
             ws.freeze_panes = sheet.freeze
         if sheet.tab_color:
@@ -482,9 +485,12 @@ def _hf(text: str) -> str:
 def _print_setup(ws, setup) -> None:
     ws.page_setup.paperSize = ws.PAPERSIZE_A4
     ws.page_setup.orientation = setup.orientation
-    ws.sheet_properties.pageSetUpPr.fitToPage = True
-    ws.page_setup.fitToWidth = setup.fit_width
-    ws.page_setup.fitToHeight = setup.fit_height
+    if setup.scale is None:
+        ws.sheet_properties.pageSetUpPr.fitToPage = True
+        ws.page_setup.fitToWidth = setup.fit_width
+        ws.page_setup.fitToHeight = setup.fit_height
+    else:
+        ws.page_setup.scale = setup.scale
     ws.print_options.horizontalCentered = True
     ws.page_margins.left = ws.page_margins.right = 0.5
     ws.page_margins.top = ws.page_margins.bottom = 0.7
@@ -499,3 +505,5 @@ def _print_setup(ws, setup) -> None:
         ws.oddFooter.right.size = 8
     if setup.title_rows:
         ws.print_title_rows = setup.title_rows
+    if setup.title_columns:
+        ws.print_title_cols = setup.title_columns
