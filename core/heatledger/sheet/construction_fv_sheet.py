@@ -38,7 +38,15 @@ APPENDIX_PREFIX = "FV "
 
 def add_fv_appendix(st) -> None:
     """Write the appendix sheet of the construction in ``st`` and the summary row on the
-    construction sheet; ``st`` gains ``fv_sheet``, ``fv_w``, ``node0`` and ``nodeN``."""
+    construction sheet.
+
+    Parameters
+    ----------
+    st : types.SimpleNamespace
+        The construction sheet's state (plan, sheet name, engine temperatures, the cells of
+        the layer rows and of Rsi, Rse, θi, θe, R_T); gains ``fv_sheet``, ``fv_w``,
+        ``fv_ok``, ``node0`` and ``nodeN``. [-]
+    """
     used = {s.name for s in st.plan.sheets}
     st.fv_sheet = safe_sheet_name(APPENDIX_PREFIX + st.sheet_name, used)
     sheet = add_calculation_sheet(st.plan, st.fv_sheet, FV_WIDTHS,

@@ -82,7 +82,18 @@ def contain_overflow(sheet) -> int:
 
 def used_width(sheet) -> list[float]:
     """Widths of the columns a sheet prints, from column A to the last one holding a cell,
-    a merged range, a chart or a picture. [characters]"""
+    a merged range, a chart or a picture.
+
+    Parameters
+    ----------
+    sheet : Sheet
+        The sheet. [-]
+
+    Returns
+    -------
+    list of float
+        Width of each printed column. [characters]
+    """
     last = 0
     for c in sheet.cells():
         last = max(last, split_ref(c.ref)[1])
