@@ -89,3 +89,13 @@ def test_every_sheet_prints_at_a_readable_scale(demo_plan):
     for sheet in demo_plan.sheets:
         assert sheet.print_setup.scale is not None, sheet.name
         assert sheet.print_setup.scale >= MIN_PRINT_SCALE, sheet.name
+
+
+def test_a_merged_text_never_crosses_a_column_break():
+    sh = _sheet([5, 30] + [12] * 30)
+    sh.block("n").put("A3", "caution " * 40, style="hl warning")
+    sh.merges.append("A3:AF3")
+    paginate(sh, title_columns=2)
+    contain_overflow(sh)
+    first_break = sh.col_breaks[0]
+    assert f"A3:{col_letter(first_break)}3" in sh.merges

@@ -162,9 +162,9 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
     _cover(cover, project, summary_cells, audit)
     for sheet in plan.sheets:
         fit_text_columns(sheet)
+        paginate(sheet, title_columns=2)
         contain_overflow(sheet)
         fit_wrapped_rows(sheet)
-        paginate(sheet, title_columns=2)
     return plan
 
 

@@ -41,12 +41,13 @@ WRAPPED = {"hl note": "hl note wrap", "hl text": "hl text wrap", "hl label": "hl
 
 
 def contain_overflow(sheet) -> int:
-    """Wrap every text that would run on past the sheet's last column (a spreadsheet prints
-    such a run-on on pages of its own, a few words each).
-
-    A text whose cells to its right are empty up to the last column is merged across them and
-    wrapped there; one with a filled neighbour wraps in its own column. Run
+    """Keep every text inside its printed page: wrap a text that would run on past the page
+    edge (a spreadsheet prints such a run-on on pages of its own, a few words each), and cut
+    back a merged range that crosses a column break. Run it after :func:`paginate` and run
     :func:`~heatledger.sheet.fit.fit_wrapped_rows` afterwards for the row heights.
+
+    A text whose cells to its right are empty up to the page edge is merged across them and
+    wrapped there; one with a filled neighbour wraps in its own column.
 
     Parameters
     ----------
@@ -60,24 +61,37 @@ def contain_overflow(sheet) -> int:
     """
     cells = sheet.cell_map()
     last = max((split_ref(r)[1] for r in cells), default=0)
+    edges = sorted({*sheet.col_breaks, last})
+    sheet.merges[:] = [m for m in (_cut_at_break(rng, edges) for rng in sheet.merges) if m]
     widths = [sheet.column_widths.get(col_letter(j), DEFAULT_COLUMN_WIDTH)
               for j in range(1, last + 1)]
-    merged = {split_ref(rng.partition(":")[0]) for rng in sheet.merges}
     merged_rows = {split_ref(rng.partition(":")[0])[0] for rng in sheet.merges}
     changed = 0
     for c in cells.values():
         if c.formula is not None or not isinstance(c.value, str) or c.style not in WRAPPED:
             continue
         row, col = split_ref(c.ref)
-        if (row, col) in merged or \
-                text_width(c.value, STYLES[c.style].size) <= sum(widths[col - 1:]):
+        edge = next(e for e in edges if e >= col)
+        if row in merged_rows or \
+                text_width(c.value, STYLES[c.style].size) <= sum(widths[col - 1:edge]):
             continue
-        free = all(ref(row, j) not in cells for j in range(col + 1, last + 1))
-        if free and col < last and row not in merged_rows:
-            sheet.merges.append(f"{ref(row, col)}:{ref(row, last)}")
+        if edge > col and all(ref(row, j) not in cells for j in range(col + 1, edge + 1)):
+            sheet.merges.append(f"{ref(row, col)}:{ref(row, edge)}")
         c.style = WRAPPED[c.style]
         changed += 1
     return changed
+
+
+def _cut_at_break(rng: str, edges: list[int]) -> str | None:
+    """A merged range ending at the page edge of its first column (None: one cell left)."""
+    first, _, end = rng.partition(":")
+    if not end:
+        return rng
+    (r1, c1), (r2, c2) = split_ref(first), split_ref(end)
+    edge = next((e for e in edges if e >= c1), c2)
+    if c2 <= edge:
+        return rng
+    return None if edge == c1 and r1 == r2 else f"{first}:{ref(r2, edge)}"
 
 
 def used_width(sheet) -> list[float]:

@@ -499,10 +499,10 @@ def _print_setup(ws, setup) -> None:
         ws.oddHeader.center.size = 9
     if setup.footer_left:
         ws.oddFooter.left.text = _hf(setup.footer_left)
-        ws.oddFooter.left.size = 8
+        ws.oddFooter.left.size = 9
     if setup.footer_right:
         ws.oddFooter.right.text = _hf(setup.footer_right)
-        ws.oddFooter.right.size = 8
+        ws.oddFooter.right.size = 9
     if setup.title_rows:
         ws.print_title_rows = setup.title_rows
     if setup.title_columns:
