@@ -15,7 +15,7 @@ from types import SimpleNamespace
 from .. import cautions as _cautions
 from ..families import FAMILIES
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE
-from .pages import contain_overflow, paginate
+from .pages import LABEL_COLUMN_CAP, contain_overflow, paginate
 from .plan import (
     PrintSetup,
     WorkbookPlan,
@@ -161,7 +161,7 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
     summary_cells["changed"] = add_record_sheet(plan, title)
     _cover(cover, project, summary_cells, audit)
     for sheet in plan.sheets:
-        fit_text_columns(sheet)
+        fit_text_columns(sheet, cap=LABEL_COLUMN_CAP)
         paginate(sheet, title_columns=2)
         contain_overflow(sheet)
         fit_wrapped_rows(sheet)

@@ -36,18 +36,21 @@ PAGE_WIDTH_CHARS = {"landscape": 138.0 * 0.97, "portrait": 94.0 * 0.97}
 CM_PER_CHAR = 27.16 / 138.0
 
 
+#: Widest a label column is made to fit its texts before they wrap instead. [characters]
+LABEL_COLUMN_CAP = 40.0
 #: The wrapping style that stands in for an unwrapped one whose text would run off the page.
 WRAPPED = {"hl note": "hl note wrap", "hl text": "hl text wrap", "hl label": "hl paragraph"}
 
 
 def contain_overflow(sheet) -> int:
-    """Keep every text inside its printed page: wrap a text that would run on past the page
-    edge (a spreadsheet prints such a run-on on pages of its own, a few words each), and cut
-    back a merged range that crosses a column break. Run it after :func:`paginate` and run
+    """Keep every text whole and inside its printed page: wrap a text that a filled cell to
+    its right would cut, wrap a text that would run on past the page edge (a spreadsheet
+    prints such a run-on on pages of its own, a few words each), and cut back a merged range
+    that crosses a column break. Run it after :func:`paginate` and run
     :func:`~heatledger.sheet.fit.fit_wrapped_rows` afterwards for the row heights.
 
-    A text whose cells to its right are empty up to the page edge is merged across them and
-    wrapped there; one with a filled neighbour wraps in its own column.
+    A text is merged across the empty cells to its right, up to the first filled cell or the
+    page edge, and wrapped there; one with a filled neighbour wraps in its own column.
 
     Parameters
     ----------
@@ -65,21 +68,39 @@ def contain_overflow(sheet) -> int:
     sheet.merges[:] = [m for m in (_cut_at_break(rng, edges) for rng in sheet.merges) if m]
     widths = [sheet.column_widths.get(col_letter(j), DEFAULT_COLUMN_WIDTH)
               for j in range(1, last + 1)]
-    merged_rows = {split_ref(rng.partition(":")[0])[0] for rng in sheet.merges}
+    merged = _merged_cells(sheet.merges)
     changed = 0
     for c in cells.values():
         if c.formula is not None or not isinstance(c.value, str) or c.style not in WRAPPED:
             continue
         row, col = split_ref(c.ref)
+        need = text_width(c.value, STYLES[c.style].size)
         edge = next(e for e in edges if e >= col)
-        if row in merged_rows or \
-                text_width(c.value, STYLES[c.style].size) <= sum(widths[col - 1:edge]):
+        stop = next((j for j in range(col + 1, edge + 1)
+                     if _filled(cells.get(ref(row, j))) or (row, j) in merged), edge + 1)
+        if (row, col) in merged or need <= sum(widths[col - 1:stop - 1]):
             continue
-        if edge > col and all(ref(row, j) not in cells for j in range(col + 1, edge + 1)):
-            sheet.merges.append(f"{ref(row, col)}:{ref(row, edge)}")
+        if stop - 1 > col and all(ref(row, j) not in cells for j in range(col + 1, stop)):
+            sheet.merges.append(f"{ref(row, col)}:{ref(row, stop - 1)}")
+            merged.update((row, j) for j in range(col, stop))
         c.style = WRAPPED[c.style]
         changed += 1
     return changed
+
+
+def _merged_cells(merges) -> set[tuple[int, int]]:
+    """(row, column) of every cell inside a merged range."""
+    out = set()
+    for rng in merges:
+        first, _, end = rng.partition(":")
+        (r1, c1), (r2, c2) = split_ref(first), split_ref(end or first)
+        out.update((r, c) for r in range(r1, r2 + 1) for c in range(c1, c2 + 1))
+    return out
+
+
+def _filled(cell) -> bool:
+    """Whether a cell shows something (a spreadsheet cuts a run-on text there)."""
+    return cell is not None and (cell.formula is not None or cell.value not in (None, ""))
 
 
 def _cut_at_break(rng: str, edges: list[int]) -> str | None:
