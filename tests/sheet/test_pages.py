@@ -99,3 +99,10 @@ def test_a_merged_text_never_crosses_a_column_break():
     contain_overflow(sh)
     first_break = sh.col_breaks[0]
     assert f"A3:{col_letter(first_break)}3" in sh.merges
+
+
+def test_every_calculation_sheet_shows_its_check_counters_on_its_first_page(demo_plan):
+    # the counters stand in column J (10) of every calculation sheet
+    for sheet in demo_plan.sheets:
+        if any(c.value == "State of this sheet" for c in sheet.cells()):
+            assert not sheet.col_breaks or sheet.col_breaks[0] >= 10, sheet.name
