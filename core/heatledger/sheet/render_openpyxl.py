@@ -69,8 +69,9 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
     style_cache = _StyleCache(wb)
     charts = _ChartCache(wb)
     places: dict[str, tuple] = {}  # reference -> (row, column, coordinate), across sheets
-    for sheet in plan.sheets:
-        ws = wb.create_sheet(sheet.name)
+    # every sheet exists before any is filled: a chart may show data of a later sheet
+    worksheets = [wb.create_sheet(sheet.name) for sheet in plan.sheets]
+    for sheet, ws in zip(plan.sheets, worksheets, strict=True):
         _write_cells(ws, sheet, style_cache, places)
         for rng in sheet.merges:
             _merge(ws, rng)
@@ -80,6 +81,8 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
             ws.row_dimensions[row].height = height
         for row in sheet.row_breaks:
             ws.row_breaks.append(Break(id=row))
+        for col in sheet.col_breaks:
+            ws.col_breaks.append(Break(id=col))
         if sheet.freeze:
             ws.freeze_panes = sheet.freeze
         if sheet.tab_color:
@@ -506,9 +509,12 @@ def _hf(text: str) -> str:
 def _print_setup(ws, setup) -> None:
     ws.page_setup.paperSize = ws.PAPERSIZE_A4
     ws.page_setup.orientation = setup.orientation
-    ws.sheet_properties.pageSetUpPr.fitToPage = True
-    ws.page_setup.fitToWidth = setup.fit_width
-    ws.page_setup.fitToHeight = setup.fit_height
+    if setup.scale is None:
+        ws.sheet_properties.pageSetUpPr.fitToPage = True
+        ws.page_setup.fitToWidth = setup.fit_width
+        ws.page_setup.fitToHeight = setup.fit_height
+    else:
+        ws.page_setup.scale = setup.scale
     ws.print_options.horizontalCentered = True
     ws.page_margins.left = ws.page_margins.right = 0.5
     ws.page_margins.top = ws.page_margins.bottom = 0.7
@@ -517,9 +523,11 @@ def _print_setup(ws, setup) -> None:
         ws.oddHeader.center.size = 9
     if setup.footer_left:
         ws.oddFooter.left.text = _hf(setup.footer_left)
-        ws.oddFooter.left.size = 8
+        ws.oddFooter.left.size = 9
     if setup.footer_right:
         ws.oddFooter.right.text = _hf(setup.footer_right)
-        ws.oddFooter.right.size = 8
+        ws.oddFooter.right.size = 9
     if setup.title_rows:
         ws.print_title_rows = setup.title_rows
+    if setup.title_columns:
+        ws.print_title_cols = setup.title_columns
