@@ -251,6 +251,13 @@ class _PlanCell(Cell):
     __slots__ = ("style_id", "has_style", "coordinate")
 
 
+class _PlanMergedCell(MergedCell):
+    """A cell covered by a merged range, with the style index, the style flag and the
+    coordinate fixed like a :class:`_PlanCell`'s (it shares the top-left cell's style)."""
+
+    __slots__ = ("style_id", "has_style", "coordinate")
+
+
 def _place(a1: str) -> tuple:
     """Row, column and openpyxl's coordinate text of a plan reference. [-]"""
     row, col = split_ref(a1)
@@ -340,6 +347,16 @@ def _merge(ws, rng: str) -> None:
     style = top._style if top is not None else None
     cells = mcr.cells
     next(cells)
+    if isinstance(top, _PlanCell):  # the top-left cell's shared style, index and flag
+        fixed = (top._style, top.style_id, top.has_style)
+        for row, col in cells:
+            mc = _PlanMergedCell.__new__(_PlanMergedCell)
+            mc.parent = ws
+            mc.row, mc.column = row, col
+            mc.coordinate = f"{get_column_letter(col)}{row}"
+            mc._style, mc.style_id, mc.has_style = fixed
+            ws._cells[row, col] = mc
+        return
     for row, col in cells:
         mc = MergedCell(ws, row, col)
         if style is not None:
