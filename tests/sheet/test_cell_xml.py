@@ -105,3 +105,12 @@ def test_a_rendered_workbook_is_the_same_as_openpyxl_writes_it(make_plan):
     assert ours.keys() == reference.keys()
     for name in reference:
         assert ours[name] == reference[name], name
+
+
+def test_another_openpyxl_series_writes_with_openpyxl_own_writer():
+    from openpyxl.writer.excel import ExcelWriter
+
+    from heatledger.sheet.cell_xml import PlainCellsExcelWriter, writer_class
+
+    assert writer_class("3.1.5") is PlainCellsExcelWriter
+    assert writer_class("3.2.0") is ExcelWriter and writer_class("4.0") is ExcelWriter

@@ -9,17 +9,25 @@ elements are written here as text, character for character what openpyxl writes 
 workbooks are unchanged). Any other cell (a date, an array formula, rich text, a comment,
 a hyperlink) and any other XML writer than openpyxl's standard-library one go openpyxl's
 own way. Only :func:`heatledger.sheet.render_openpyxl.workbook_bytes` uses this.
+
+The sheet writer mirrors openpyxl's own, so it is used only with the openpyxl series it was
+compared against (:data:`MIRRORED_SERIES`); with any other release the workbook is written by
+openpyxl's own writer, slower but never different.
 """
 
 from __future__ import annotations
 
+import openpyxl
 from openpyxl.cell._writer import write_cell
 from openpyxl.comments.comment_sheet import CommentRecord
 from openpyxl.drawing.spreadsheet_drawing import SpreadsheetDrawing
 from openpyxl.worksheet._writer import WorksheetWriter
 from openpyxl.writer.excel import ExcelWriter
 
-__all__ = ["PlainCellsExcelWriter", "cell_xml"]
+__all__ = ["PlainCellsExcelWriter", "cell_xml", "writer_class", "MIRRORED_SERIES"]
+
+#: openpyxl release series whose worksheet writer the plain-cell writer mirrors.
+MIRRORED_SERIES = "3.1."
 
 _PLAIN_NUMBERS = (int, float, bool)
 _TYPE_ATTR = {"s": ' t="inlineStr"', "f": "", "n": ' t="n"', "b": ' t="b"'}
@@ -135,3 +143,20 @@ class PlainCellsExcelWriter(ExcelWriter):
         self._archive.write(writer.out, ws.path[1:])
         self.manifest.append(ws)
         writer.cleanup()
+
+
+def writer_class(version: str | None = None) -> type:
+    """The workbook writer to use: the plain-cell writer with the openpyxl series it mirrors,
+    openpyxl's own ``ExcelWriter`` with any other release.
+
+    Parameters
+    ----------
+    version : str, optional
+        openpyxl's version (default the installed one). [-]
+
+    Returns
+    -------
+    type
+    """
+    version = openpyxl.__version__ if version is None else version
+    return PlainCellsExcelWriter if version.startswith(MIRRORED_SERIES) else ExcelWriter

@@ -34,7 +34,7 @@ from openpyxl.worksheet.merge import MergedCellRange
 from openpyxl.worksheet.pagebreak import Break
 
 from ..errors import HeatLedgerError
-from .cell_xml import PlainCellsExcelWriter
+from .cell_xml import writer_class
 from .files import ZIP_EPOCH, write_bytes_atomic
 from .plan import STYLES, Chart, Style, WorkbookPlan, is_formula_like, split_ref
 
@@ -181,7 +181,7 @@ def workbook_bytes(plan: WorkbookPlan) -> bytes:
     # ExcelWriter keeps the modified time we set; openpyxl's save_workbook would stamp now.
     # Its plain cells are written as text, as openpyxl writes them (sheet/cell_xml.py).
     wb.properties.modified = plan.timestamp
-    PlainCellsExcelWriter(wb, archive).save()
+    writer_class()(wb, archive).save()
     return buf.getvalue()
 
 
