@@ -62,7 +62,11 @@ _CAUTION = ("Results support, and do not replace, design by a competent person u
             "of the products used.")
 _STEPS = [
     "Classic xlwings, desktop Excel for Windows:",
-    "1. pip install heatledger   (installs xlwings, numpy, scipy)",
+    "heatledger is not on the package index yet: install it from a clone (pip install .) "
+    "or from a wheel built there (python -m build --wheel, then pip install "
+    "dist/heatledger-0.1.0-py3-none-any.whl).",
+    "1. Install heatledger as above into the Python Excel should use (brings xlwings, "
+    "numpy, scipy).",
     "2. xlwings addin install    (the xlwings tab appears in Excel)",
     "3. Open this file, File > Save As > Excel Macro-Enabled Workbook (.xlsm).",
     "4. File > Options > Trust Center > Trust Center Settings > Macro Settings: tick "
@@ -75,7 +79,8 @@ _STEPS = [
     "",
     "xlwings Lite (Excel on the web, macOS, Windows; Python in the browser):",
     "1. Home > Add-ins: add 'xlwings Lite'.",
-    "2. requirements.txt: add heatledger (a released version, or the URL of its wheel).",
+    "2. requirements.txt: add the HTTPS address where you put the heatledger wheel (not on "
+    "the package index yet).",
     "3. main.py: from heatledger_xl.udfs import *   and   from heatledger_xl.macros import "
     "HL_CALC_SHEET",
     "4. Restart xlwings Lite; the HL_ functions are then available in every cell.",
