@@ -15,7 +15,9 @@ The component inside LibreOffice calls :func:`call` with the values Calc passes 
   gives the formula that error for a single cell and ``Err:504`` for a range holding one.
 
 Results: a number stays a number, a text a text; a table (a function that spills in Excel)
-becomes rows of cells, empty cells ``None``, TRUE/FALSE booleans. A function never raises:
+becomes rows of cells. An empty cell of a table comes back as an empty text, so that it shows
+blank: Calc would show an empty element of an array result as 0 (a thickness of 0 mm for a
+surface row). TRUE/FALSE are booleans, which Calc shows as 1 and 0. A function never raises:
 a problem is the one-line text that starts with the function's name, exactly as the Excel
 functions return it (:func:`heatledger_xl.registry.error_text`); a table function returns
 that text as a one-cell table.
@@ -76,7 +78,7 @@ def to_calc(out: object, spills: bool) -> object:
     Examples
     --------
     >>> to_calc([[1, "a"], [True]], True)
-    ((1.0, 'a'), (True, None))
+    ((1.0, 'a'), (True, ''))
     >>> to_calc("HL_X: bad", True), to_calc(3, False)
     ((('HL_X: bad',),), 3.0)
     """
@@ -86,7 +88,8 @@ def to_calc(out: object, spills: bool) -> object:
         return ((_cell(out),),)
     rows = [row if isinstance(row, list) else [row] for row in out] or [[None]]
     width = max(len(row) for row in rows) or 1
-    return tuple(tuple(_cell(c) for c in row) + (None,) * (width - len(row)) for row in rows)
+    return tuple(tuple("" if c is None else _cell(c) for c in row) + ("",) * (width - len(row))
+                 for row in rows)
 
 
 def call(name: str, args: tuple, spills: bool, registry: dict | None = None) -> object:

@@ -5,12 +5,16 @@ PIPE_NAME``. It connects to the soffice listening on that pipe, then answers one
 request per input line with one JSON line:
 
 - ``{"op": "evaluate", "cells": {"A1": 1.5, "B1": "text", "C1": "=HL_VERSION()"},
-  "arrays": {"E1:G4": "=..."}, "blocks": {"A1:A3": [["=..."], ...]}, "read": ["C1"],
-  "bulk": ["A1:A3"]}`` - a new hidden document, automatic calculation off, the cells set
-  (a text starting with ``=`` is a formula; ``arrays`` are array formulas over a range,
-  ``blocks`` formulas set a range at a time), one full recalculation, then each ``read``
+  "data": {"A2:B3": [[1.0, "x"], ...]}, "arrays": {"E1:G4": "=..."}, "blocks": {"A1:A3":
+  [["=..."], ...]}, "read": ["C1"], "bulk": ["A1:A3"]}`` - a new hidden document, automatic
+  calculation off, the cells set (a text starting with ``=`` is a formula; ``data`` sets
+  numbers and texts a range at a time, ``arrays`` are array formulas over a range, ``blocks``
+  formulas a range at a time), one full recalculation, a copy saved to ``save_as`` (an
+  .ods, by its extension) if given, then each ``read``
   range cell by cell (``["number", x]``, ``["text", s]``, ``["empty"]``, ``["error", code,
   shown]``) and each ``bulk`` range as its data array with the addresses of error cells;
+- ``{"op": "load", "path": "/abs/book.xlsx", "read": [...], "bulk": [...]}`` - the same on
+  the first sheet of a file (an .xlsx or .ods);
 - ``{"op": "functions", "prefix": "HL_"}`` - the function-wizard entries (name,
   description, category, arguments) of the functions whose names start with ``prefix``;
 - ``{"op": "quit"}`` - closes LibreOffice.
@@ -78,26 +82,41 @@ def _set(sheet, name, value):
         cell.setValue(float(value))
 
 
+def _open(uno, desktop, url):
+    hidden = uno.createUnoStruct("com.sun.star.beans.PropertyValue")
+    hidden.Name, hidden.Value = "Hidden", True
+    return desktop.loadComponentFromURL(url, "_blank", 0, (hidden,))
+
+
+def _fill(sheet, req):
+    for name, value in req.get("cells", {}).items():
+        _set(sheet, name, value)
+    for name, rows in req.get("data", {}).items():
+        sheet.getCellRangeByName(name).setDataArray(tuple(tuple(r) for r in rows))
+    for name, formula in req.get("arrays", {}).items():
+        sheet.getCellRangeByName(name).setArrayFormula(formula)
+    for name, rows in req.get("blocks", {}).items():
+        sheet.getCellRangeByName(name).setFormulaArray(tuple(tuple(r) for r in rows))
+
+
 def _evaluate(uno, desktop, req):
     from com.sun.star.sheet.FormulaResult import ERROR
 
-    hidden = uno.createUnoStruct("com.sun.star.beans.PropertyValue")
-    hidden.Name, hidden.Value = "Hidden", True
-    doc = desktop.loadComponentFromURL("private:factory/scalc", "_blank", 0, (hidden,))
+    if req["op"] == "load":
+        doc = _open(uno, desktop, uno.systemPathToFileUrl(req["path"]))
+    else:
+        doc = _open(uno, desktop, "private:factory/scalc")
     try:
         doc.enableAutomaticCalculation(False)
         sheet = doc.Sheets.getByIndex(0)
-        for name, value in req.get("cells", {}).items():
-            _set(sheet, name, value)
-        for name, formula in req.get("arrays", {}).items():
-            sheet.getCellRangeByName(name).setArrayFormula(formula)
-        for name, rows in req.get("blocks", {}).items():
-            sheet.getCellRangeByName(name).setFormulaArray(tuple(tuple(r) for r in rows))
+        _fill(sheet, req)
         started = time.perf_counter()
         doc.calculateAll()
         seconds = time.perf_counter() - started
         out = {"read": {n: _read(sheet, n) for n in req.get("read", [])}, "bulk": {},
                "seconds": seconds}
+        if req.get("save_as"):
+            doc.storeToURL(uno.systemPathToFileUrl(req["save_as"]), ())
         for name in req.get("bulk", []):
             rng = sheet.getCellRangeByName(name)
             errors = rng.queryFormulaCells(ERROR).getRangeAddressesAsString()
