@@ -74,9 +74,8 @@ def site_dirs() -> list[str]:
     heatledger_xl and heatledger_calc are imported from, then this environment's
     site-packages (numpy, scipy, openpyxl, xlwings)."""
     import heatledger
-    import heatledger_xl
-
     import heatledger_calc
+    import heatledger_xl
 
     dirs = [str(Path(m.__file__).resolve().parents[1])
             for m in (heatledger, heatledger_xl, heatledger_calc)]

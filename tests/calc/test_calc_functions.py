@@ -186,7 +186,7 @@ def test_every_function_answers_in_calc_as_in_python(calc):
         want[ref] = (name, rows)
         top += len(rows) + 1
     got = evaluate(calc, cells, reads, arrays=arrays)
-    for ref, (name, rows) in want.items():
+    for ref, (_name, rows) in want.items():
         for got_row, want_row in zip(got[ref], rows, strict=True):
             for value, cell in zip(got_row, want_row, strict=True):
                 assert_same(value, cell)

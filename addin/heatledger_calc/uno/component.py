@@ -49,10 +49,14 @@ def _engine():
             from heatledger_calc import values
             _ENGINE["values"] = values
         except Exception as exc:  # noqa: BLE001 - reported in every cell instead
+            built = ".".join(map(str, TABLE.get("python", [])))
+            running = f"{sys.version_info[0]}.{sys.version_info[1]}"
+            versions = (f" (the extension was built with Python {built}; LibreOffice runs "
+                        f"Python {running}: they must match)" if built != running else "")
             _ENGINE["values"] = (
                 f"heatledger cannot be imported in LibreOffice's Python ({type(exc).__name__}: "
-                f"{exc}); rebuild and reinstall the extension from the Python environment "
-                "heatledger is installed in: heatledger calc-addin install")
+                f"{exc}){versions}; rebuild and reinstall the extension from the Python "
+                "environment heatledger is installed in: heatledger calc-addin install")
     return _ENGINE["values"]
 
 
