@@ -18,7 +18,8 @@ from heatledger.errors import HeatLedgerError
 from .build import program_dir
 from .extension import EXTENSION_ID
 
-__all__ = ["unopkg_path", "location_args", "install_extension", "remove_extension"]
+__all__ = ["unopkg_path", "location_args", "check_scope", "install_extension",
+           "remove_extension"]
 
 _ROOT = ("unopkg does not install an extension for the root user alone; run this command "
          "as the user who runs LibreOffice, or add --shared to install it for every user of "
@@ -53,6 +54,18 @@ def location_args(profile: Path | None = None, shared_cache: Path | None = None)
     return args
 
 
+def check_scope(shared: bool) -> None:
+    """Refuse a per-user install or removal as root, which unopkg refuses too.
+
+    Parameters
+    ----------
+    shared : bool
+        Whether the extension is installed for every user (``--shared``). [-]
+    """
+    if not shared and hasattr(os, "geteuid") and os.geteuid() == 0:
+        raise HeatLedgerError(_ROOT)
+
+
 def _unopkg(args: list[str], what: str) -> str:
     proc = subprocess.run([unopkg_path(), *args], capture_output=True, text=True,
                           timeout=300, check=False)
@@ -81,8 +94,7 @@ def install_extension(oxt: str | os.PathLike, *, shared: bool = False,
     if not path.is_file():
         raise HeatLedgerError(f"extension file {path} not found; build it with "
                               "`heatledger calc-addin build -o heatledger.oxt`")
-    if not shared and hasattr(os, "geteuid") and os.geteuid() == 0:
-        raise HeatLedgerError(_ROOT)
+    check_scope(shared)
     args = ["add", "--force", "--suppress-license", *(["--shared"] if shared else []),
             *location_args(profile, shared_cache), str(path.resolve())]
     return _unopkg(args, f"install {path.name}")
@@ -99,8 +111,7 @@ def remove_extension(*, shared: bool = False, profile: Path | None = None,
     profile, shared_cache : Path, optional
         Another user profile and shared-extension folder (:func:`location_args`). [-]
     """
-    if not shared and hasattr(os, "geteuid") and os.geteuid() == 0:
-        raise HeatLedgerError(_ROOT)
+    check_scope(shared)
     args = ["remove", *(["--shared"] if shared else []),
             *location_args(profile, shared_cache), EXTENSION_ID]
     return _unopkg(args, f"remove {EXTENSION_ID}")

@@ -331,6 +331,7 @@ def _install_calc_addin(args, build, install) -> int:
     import tempfile
     from pathlib import Path
 
+    install.check_scope(args.shared)
     with tempfile.TemporaryDirectory(prefix="heatledger-oxt-") as tmp:
         oxt = Path(args.oxt) if args.oxt else build.build_extension(Path(tmp) / "heatledger.oxt")
         install.install_extension(oxt, shared=args.shared)

@@ -166,6 +166,30 @@ def test_build_refuses_a_name_unopkg_cannot_install(tmp_path, capsys):
     assert ".oxt" in capsys.readouterr().err
 
 
+def test_install_as_root_asks_for_shared_before_doing_anything(monkeypatch, tmp_path, capsys):
+    from heatledger_calc import install
+
+    monkeypatch.setattr(install.os, "geteuid", lambda: 0)
+    monkeypatch.setattr(install, "unopkg_path", lambda: pytest.fail("unopkg must not run"))
+    assert main(["calc-addin", "install", "--oxt", str(tmp_path / "none.oxt")]) == 1
+    assert "--shared" in capsys.readouterr().err
+    assert main(["calc-addin", "remove"]) == 1
+    assert "--shared" in capsys.readouterr().err
+
+
+def test_install_names_a_missing_extension_file(tmp_path, capsys):
+    assert main(["calc-addin", "install", "--shared", "--oxt", str(tmp_path / "none.oxt")]) == 1
+    assert "calc-addin build" in capsys.readouterr().err
+
+
+def test_location_arguments_point_libreoffice_at_other_folders(tmp_path):
+    from heatledger_calc.install import location_args
+
+    args = location_args(tmp_path / "p", tmp_path / "s")
+    assert args == [f"-env:UserInstallation={(tmp_path / 'p').resolve().as_uri()}",
+                    f"-env:UNO_SHARED_PACKAGES_CACHE={(tmp_path / 's').resolve().as_uri()}"]
+
+
 @pytest.mark.calc_functions
 def test_built_extension_holds_the_generated_files(calc_oxt):
     with zipfile.ZipFile(calc_oxt) as zf:
