@@ -288,6 +288,8 @@ def heat_flow_value(value: object) -> str:
     value : object
         The cell value. [-]
     """
+    if value is None:  # a blank cell, the common case
+        return "horizontal"
     raw = text("heat_flow", value, "horizontal")
     out = raw.lower()
     if out not in _HEAT_FLOWS:

@@ -91,7 +91,8 @@ def construction_plan(layers, temp_inside, temp_outside, heat_flow=None, *,
 def write_construction_sheet(book, layers, temp_inside, temp_outside, heat_flow=None, *,
                              name: str = "construction", replace: bool = False,
                              nodes_per_layer=None) -> RenderReport:
-    """Write the calculation sheet of a construction into ``book``.
+    """Write the calculation sheet of a construction and its finite-volume appendix sheet
+    into ``book``.
 
     Parameters
     ----------
@@ -145,8 +146,9 @@ def _run(book) -> RenderReport | None:
     except HeatLedgerError as exc:
         _tell(book, f"heatledger: {exc}")
         return None
-    written = ", ".join(report.sheets.values())
-    _tell(book, f"heatledger wrote the calculation sheet {written}: {report.cells} cells, "
+    main, *appendix = report.sheets.values()
+    also = f" and its finite-volume appendix {appendix[0]}" if appendix else ""
+    _tell(book, f"heatledger wrote the calculation sheet {main}{also}: {report.cells} cells, "
                 f"{report.formulas} formulas. Check that every check cell says OK.")
     return report
 

@@ -166,7 +166,11 @@ def layer_rows(name: str, cells: object) -> tuple[tuple[int, tuple], ...]:
             padded = tuple(row) + _PADDING[n]
         if i == 1 and type(padded[1]) is str and _is_header(padded):
             continue
-        if _may_hold_bool(padded):
+        try:  # no cell equal to 0 or 1: none can be TRUE or FALSE (a quick look)
+            maybe_bool = not _ZERO_ONE.isdisjoint(padded)
+        except TypeError:  # an unhashable cell (a nested list)
+            maybe_bool = True
+        if maybe_bool:
             _no_booleans(f"{name} row {i}", padded, LAYER_COLUMNS)
         if len(out) == MAX_LAYERS:
             raise HeatLedgerError(f"{name} holds more than {MAX_LAYERS} layers; end the "
@@ -241,7 +245,7 @@ def build_construction(rows: tuple, heat_flow: str, rsi: float | None,
         layers = [_cached_layer(name, i, cells) for i, cells in rows]
     except TypeError:  # a cell value that cannot key a cache (a nested list)
         layers = [_layer(name, i, cells) for i, cells in rows]
-    if sum(lay.kind == "bridged" for lay in layers) > MAX_BRIDGED_LAYERS:
+    if [lay.kind for lay in layers].count("bridged") > MAX_BRIDGED_LAYERS:
         bridged = [i for (i, _), lay in zip(rows, layers, strict=True) if lay.kind == "bridged"]
         raise HeatLedgerError(
             f"{name} row {bridged[MAX_BRIDGED_LAYERS]}: at most {MAX_BRIDGED_LAYERS} bridged "
@@ -275,14 +279,6 @@ def _cached_layer(name: str, row: int, cells: tuple):
     return _layer(name, row, cells)
 
 
-def _may_hold_bool(cells: tuple) -> bool:
-    """False when no cell equals 0 or 1, so none can be TRUE or FALSE (a quick look)."""
-    try:
-        return not _ZERO_ONE.isdisjoint(cells)
-    except TypeError:  # an unhashable cell (a nested list)
-        return True
-
-
 def _no_booleans(where: str, cells: tuple, columns: tuple) -> None:
     """TRUE/FALSE is never a valid table cell. Rejected here, before the row keys a cache,
     because TRUE == 1 and FALSE == 0 in Python and would share a cache entry."""
@@ -313,8 +309,8 @@ def _material(where: str, value: object) -> Material:
         raise HeatLedgerError(f"{where}: {exc}") from None
 
 
-def _cell(where: str, column: str, value: object, default: object, low: float, high: float,
-          low_inclusive: bool, unit: str) -> float:
+def _cell(name: str, row: int, column: str, value: object, default: object, low: float,
+          high: float, low_inclusive: bool, unit: str) -> float:
     """:func:`number` for a table cell; a plain number within bounds or a blank optional cell
     is answered without building the message text (the common case of every row)."""
     kind = type(value)
@@ -323,24 +319,27 @@ def _cell(where: str, column: str, value: object, default: object, low: float, h
             return float(value)
     elif value is None and default is not REQUIRED:
         return default  # type: ignore[return-value]
-    return number(f"{where} {column}", value, default, low=low, high=high,
+    return number(f"{name} row {row} {column}", value, default, low=low, high=high,
                   low_inclusive=low_inclusive, unit=unit)
 
 
 def _layer(name: str, row: int, cells: tuple):
-    where = f"{name} row {row}"
+    # ``where`` (for messages) is written out only on the paths that may need it
     c_name, c_thick, c_cond, c_res, c_frac, c_bcond = cells
     if not (type(c_name) is str and (label := c_name.strip()) and label[0] != "#"):
-        label = text(f"{where} material", c_name, "")  # the common case, a name, is done
-    thickness = _cell(where, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
+        label = text(f"{name} row {row} material", c_name, "")  # a name is the common case
+    thickness = _cell(name, row, "thickness_mm", c_thick, REQUIRED, MIN_THICKNESS_MM,
                       MAX_THICKNESS_MM, True, "mm") / 1000.0
-    cond = _cell(where, "conductivity", c_cond, None, MIN_CONDUCTIVITY, MAX_CONDUCTIVITY, True,
-                 "W/(m K)")
-    if cond is not None:
-        _layer_resistance(where, "conductivity", thickness, cond)
-    res = _cell(where, "resistance", c_res, None, 0.0, MAX_LAYER_RESISTANCE, False,
-                "m2 K/W")
-    frac = _cell(where, "bridging_fraction", c_frac, None, 0.0, 1.0, False, "")
+    # blank optional cells (None) are the common case: answered without a call
+    cond = None if c_cond is None else _cell(name, row, "conductivity", c_cond, None,
+                                             MIN_CONDUCTIVITY, MAX_CONDUCTIVITY, True, "W/(m K)")
+    if cond is not None and thickness > MAX_LAYER_RESISTANCE * cond:
+        _layer_resistance(f"{name} row {row}", "conductivity", thickness, cond)  # raises
+    res = None if c_res is None else _cell(name, row, "resistance", c_res, None, 0.0,
+                                           MAX_LAYER_RESISTANCE, False, "m2 K/W")
+    frac = None if c_frac is None else _cell(name, row, "bridging_fraction", c_frac, None, 0.0,
+                                             1.0, False, "")
+    where = f"{name} row {row}" if frac is not None or c_bcond is not None else ""
     if frac is not None and frac >= 1.0:
         raise HeatLedgerError(f"{where} bridging_fraction must be below 1; got {frac:g} "
                               "(give the fraction of studs or battens, e.g. 0.12)")
@@ -349,6 +348,7 @@ def _layer(name: str, row: int, cells: tuple):
     try:
         low = label.lower()
         if low == "air" or low.startswith("air:"):
+            where = f"{name} row {row}"
             if cond is not None or res is not None or frac is not None or has_bcond:
                 raise HeatLedgerError(
                     f"{where}: an air layer takes its resistance from ISO 6946 Annex D; "
@@ -356,7 +356,7 @@ def _layer(name: str, row: int, cells: tuple):
                     "another name and a declared resistance)")
             return _air_layer(where, label, thickness)
         if frac is None and has_bcond:
-            raise HeatLedgerError(f"{where}: bridging_conductivity is given but "
+            raise HeatLedgerError(f"{name} row {row}: bridging_conductivity is given but "
                                   "bridging_fraction is blank; give both or neither")
         if frac is not None:
             if res is not None:
@@ -372,17 +372,20 @@ def _layer(name: str, row: int, cells: tuple):
                                 name=label or f"layer {row}")
         if res is not None:
             if cond is not None:
-                raise HeatLedgerError(f"{where}: give conductivity or a declared resistance, "
-                                      "not both")
+                raise HeatLedgerError(f"{name} row {row}: give conductivity or a declared "
+                                      "resistance, not both")
             return Layer(thickness, resistance=res, name=label or f"layer {row}")
         if cond is not None:
             return Layer(thickness, cond, name=label or f"layer {row}")
         if not label:
-            raise HeatLedgerError(f"{where}: give a material name, a conductivity or a "
-                                  "declared resistance")
-        return Layer(thickness, material=_material(f"{where} material", label))
+            raise HeatLedgerError(f"{name} row {row}: give a material name, a conductivity or "
+                                  "a declared resistance")
+        material = _library_material(label)  # a library name (cached); otherwise the message
+        return Layer(thickness, material=material if material is not None else
+                     _material(f"{name} row {row} material", label))
     except HeatLedgerError as exc:
         msg = str(exc)
+        where = f"{name} row {row}"
         if msg.startswith(where):
             raise
         raise HeatLedgerError(f"{where}: {msg}") from None
@@ -404,7 +407,30 @@ def _main_conductivity(where: str, label: str) -> float:
     return _material(f"{where} material", label).conductivity
 
 
+@lru_cache(maxsize=ROW_CACHE_SIZE)
+def _library_material(label: str) -> Material | None:
+    """The library material a text names, or None (then the caller's path gives the
+    message): the lookup of the names a workbook repeats in every table, cached."""
+    return LIBRARY.get(label) if label in LIBRARY else None
+
+
+@lru_cache(maxsize=ROW_CACHE_SIZE)
+def _named_conductivity(value: str) -> float | None:
+    """Conductivity of the library material a bridging_conductivity text names, or None for
+    a number written as text, an error value or an unknown name (read the long way)."""
+    stripped = value.strip()
+    try:
+        float(stripped)
+    except ValueError:
+        if stripped.upper() not in ERROR_VALUES and stripped and stripped[0] != "#":
+            material = _library_material(stripped)
+            return None if material is None else material.conductivity
+    return None
+
+
 def _bridging_conductivity(where: str, value: object) -> float:
+    if type(value) is str and (lam := _named_conductivity(value)) is not None:
+        return lam  # a library name, the common case
     value = _unwrap_single(f"{where} bridging_conductivity", value)
     if isinstance(value, str):
         try:

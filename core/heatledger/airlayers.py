@@ -37,6 +37,9 @@ MAX_AIR_LAYER_THICKNESS = 0.3
 #: and from which it is well ventilated. [mm2]  source: EN ISO 6946:2017, 6.9.2-6.9.4
 VENT_AREA_UNVENTILATED_MM2 = 500.0
 VENT_AREA_WELL_VENTILATED_MM2 = 1500.0
+_HEAT_FLOW_SET = frozenset(HEAT_FLOWS)
+#: hr0 at the default mean temperature of 10 degC, computed once. [W/(m2 K)]
+_H_R0_10C = radiative_coefficient_black_body(10.0)
 
 
 def air_layer_resistance(
@@ -95,7 +98,8 @@ def air_layer_resistance(
     >>> round(air_layer_resistance(0.025, "horizontal"), 2)
     0.18
     """
-    heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
+    if not (type(heat_flow) is str and heat_flow in _HEAT_FLOW_SET):
+        heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
     e1 = fraction("emissivity_1", emissivity_1, allow_zero=False)
     e2 = fraction("emissivity_2", emissivity_2, allow_zero=False)
     plain = isinstance(thickness, (int, float)) and not isinstance(thickness, bool)
@@ -104,7 +108,8 @@ def air_layer_resistance(
         _check_thickness(math.isfinite(d), d < 0.0, d > MAX_AIR_LAYER_THICKNESS + 1e-12, d)
     else:
         d = _thickness_array(thickness)
-    h_r0 = radiative_coefficient_black_body(finite("temp_mean", temp_mean))
+    h_r0 = (_H_R0_10C if temp_mean == 10.0 and type(temp_mean) is float else
+            radiative_coefficient_black_body(finite("temp_mean", temp_mean)))
     radiative = _radiative_term(h_r0, e1, e2, d, width, math.sqrt if plain else np.sqrt)
     if plain:
         return _scalar_resistance(d, heat_flow, radiative)

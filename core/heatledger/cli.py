@@ -244,8 +244,11 @@ class _VersionAction(argparse.Action):
 def _parser() -> argparse.ArgumentParser:
     p = argparse.ArgumentParser(
         prog="heatledger",
-        description="Heat-transfer calculations for building constructions: U-values "
-                    "(EN ISO 6946), temperatures through the layers (1-D finite volumes).",
+        description="Heat-transfer calculations for buildings: U-values (EN ISO 6946) and "
+                    "temperatures through the layers (1-D finite volumes), fins, 2-D thermal "
+                    "bridges (EN ISO 10211), room and building heat loss (EN 12831-1) and "
+                    "moisture (EN ISO 13788), with a self-checking audit workbook and its "
+                    "printed record.",
     )
     p.add_argument("--version", action=_VersionAction)
     sub = p.add_subparsers(dest="command", metavar="COMMAND")

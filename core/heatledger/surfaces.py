@@ -34,6 +34,7 @@ SIDES = ("inside", "outside")
 # reproduced by Annex C (see tests).
 _RSI = {"up": 0.10, "horizontal": 0.13, "down": 0.17}
 _RSE = 0.04
+_SIDE_SET = frozenset(SIDES)
 # source: EN ISO 6946:2017, Annex C: internal convective coefficients hci (W/(m2 K)) [recalled]
 _HCI = {"up": 5.0, "horizontal": 2.5, "down": 0.7}
 
@@ -73,6 +74,8 @@ def surface_resistance(side: str, heat_flow: str) -> float:
     >>> surface_resistance("inside", "horizontal")
     0.13
     """
+    if type(heat_flow) is str and heat_flow in _RSI and side in _SIDE_SET:
+        return _RSI[heat_flow] if side == "inside" else _RSE  # written as the engine writes
     side = choice("side", side, SIDES)
     heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
     return _RSI[heat_flow] if side == "inside" else _RSE

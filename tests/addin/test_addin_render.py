@@ -314,15 +314,9 @@ def hex_of(color) -> str:
     return str(color.rgb)[-6:].upper() if color is not None and color.rgb else ""
 
 
-# --------------------------------------------------------------------------- tests
-def test_both_renderers_give_the_same_cells_formulas_and_formats():
-    plan = plan_of_wall()
-    wb = openpyxl_cells(plan)
-    book = RecordingBook("Sheet1")
-    report = render_xlwings.render_plan(plan, book)
-    assert report.sheets == {"EW1 demo wall": "EW1 demo wall"}
-    ws = wb["EW1 demo wall"]
-    rec = book.sheets["EW1 demo wall"]
+def _same_cells(ws, rec) -> int:
+    """Assert one sheet's values and formulas agree in both renderers; return its formula
+    count."""
     xl_values, xl_formulas = {}, {}
     for row in ws.iter_rows():
         for c in row:
@@ -340,7 +334,24 @@ def test_both_renderers_give_the_same_cells_formulas_and_formats():
             assert rec.values[rc] == pytest.approx(v, rel=rtol_file), rc
         else:
             assert rec.values[rc] == v, rc
-    assert len(xl_formulas) > 200 and report.formulas == len(xl_formulas)
+    return len(xl_formulas)
+
+
+# --------------------------------------------------------------------------- tests
+def test_both_renderers_give_the_same_cells_formulas_and_formats():
+    plan = plan_of_wall()
+    wb = openpyxl_cells(plan)
+    book = RecordingBook("Sheet1")
+    report = render_xlwings.render_plan(plan, book)
+    # the calculation sheet and its finite-volume appendix
+    assert report.sheets == {"EW1 demo wall": "EW1 demo wall",
+                             "FV EW1 demo wall": "FV EW1 demo wall"}
+    total = 0
+    for sheet in plan.sheets:
+        total += _same_cells(wb[sheet.name], book.sheets[sheet.name])
+    assert total > 200 and report.formulas == total
+    ws = wb["EW1 demo wall"]
+    rec = book.sheets["EW1 demo wall"]
     for cell in plan.sheets[0].cells():
         oc = ws[cell.ref]
         fmt = rec.format[(oc.row, oc.column)]
@@ -427,7 +438,8 @@ def test_macro_reads_selection_and_names_and_writes_the_sheet():
         book.names.add(name, f"='Inputs'!{ref}")
         inputs.values[(int(ref[1]), 2)] = value
     report = macros._run(book)
-    assert report is not None and report.sheets == {"EW1 demo wall": "EW1 demo wall"}
+    assert report is not None and report.sheets == {"EW1 demo wall": "EW1 demo wall",
+                                                    "FV EW1 demo wall": "FV EW1 demo wall"}
     assert "wrote the calculation sheet EW1 demo wall" in book.app.alerts[-1]
     direct = RecordingBook()
     render_xlwings.render_plan(plan_of_wall(), direct)

@@ -5,9 +5,9 @@
 Plain script (not a test). Each figure is the fin solve as a ratio to one linear solve of the
 same size (``solve_conduction`` with a constant h), timed in interleaved pairs
 (``_bench.py``), min and median. The default path is what a user calls: Newton iterations
-without refinement, the last iterate refined only when its energy balance needs it, and the
-mesh estimate from three meshes (here coarser: 25,000, 50,000 and 100,000 cells, started
-from the solution found). Target for that path: at most 5x one linear solve. Scenario
+refined only near convergence, and the mesh estimate from three meshes (here 6,250, 25,000
+and 100,000 cells) solved coarse to fine, each started from the converged solution of the
+mesh before it. Target for that path: at most 5x one linear solve. Scenario
 (invented): an aluminium plate fin, 100 mm long, 2 mm thick, 100 mm wide, base at 80 degC
 in 20 degC air, natural convection h = 1.32 dT^0.25 W/(m2 K), optionally with radiation.
 """

@@ -134,8 +134,9 @@ def _assert_equals_engine(project, plan, wb):
         temps = con.temperatures(project.temp_inside, project.temp_outside,
                                  nodes_per_layer=entry.nodes_per_layer)
         ws = wb[refs.sheet]
+        fv = wb[refs.extras["fv_sheet"]]  # the finite-volume appendix
         n0, n1 = refs.extras["nodes"]
-        nodal = np.array([ws[f"M{r}"].value for r in range(n0, n1 + 1)], dtype=float)
+        nodal = np.array([fv[f"M{r}"].value for r in range(n0, n1 + 1)], dtype=float)
         np.testing.assert_allclose(nodal, temps.temperature, rtol=RTOL_SHEET, atol=0)
         i0, i1 = refs.extras["interfaces"]
         ladder = np.array([ws[f"G{r}"].value for r in range(i0, i1 + 1)], dtype=float)
@@ -170,7 +171,7 @@ def test_one_layer_slab_against_hand_calculation(variety, tmp_path, recalc):
     assert _value(wb, refs.r_total) == pytest.approx(r_total, rel=RTOL_ROUND_OFF)
     q = (21.0 - (-10.0)) / r_total
     # analytical steady profile in a homogeneous slab: linear, theta(x) = theta_si - q x / k
-    ws = wb[refs.sheet]
+    ws = wb[refs.extras["fv_sheet"]]
     n0, n1 = refs.extras["nodes"]
     x_m = np.array([ws[f"E{r}"].value for r in range(n0, n1 + 1)]) / 1000.0
     exact = 21.0 - q * 0.17 - q * x_m / 1.6

@@ -3,6 +3,9 @@ sheet, and a clear message when no spreadsheet program is installed."""
 
 from __future__ import annotations
 
+import math
+import statistics
+
 import pypdf
 import pytest
 
@@ -10,6 +13,7 @@ from heatledger.demo import demo_bytes, demo_project
 from heatledger.errors import HeatLedgerError
 from heatledger.sheet import commands, pdf
 from heatledger.sheet.audit import audit_plan
+from heatledger.sheet.styles import STYLES
 
 
 @pytest.mark.calc
@@ -28,8 +32,27 @@ def test_the_record_is_printed_with_bookmarks_and_recalculated_values(tmp_path, 
     cover = reader.pages[0].extract_text()
     # the state is a formula: the printed text is what LibreOffice computed
     assert "ALL CHECKS OK" in cover
+    # readable on A4: on every page the median printed word is at least 65 % of the body font
+    body = STYLES["hl label"].size
+    medians = [(i + 1, _median_word_height(page)) for i, page in enumerate(reader.pages)]
+    smallest = min(medians, key=lambda m: m[1])
+    assert smallest[1] >= 0.65 * body, smallest
     with pytest.raises(HeatLedgerError, match="exists"):
         commands.run_audit(project, out)
+
+
+def _median_word_height(page) -> float:
+    """Median printed height of the words on a PDF page: font size times the vertical scale
+    of the text and current transformation matrices (PDF 32000-1:2008, 9.4.2). [pt]"""
+    heights = []
+
+    def visit(text, cm, tm, _font, size):
+        if text.strip():
+            c, d = tm[2], tm[3]
+            heights.append(size * math.hypot(c * cm[0] + d * cm[2], c * cm[1] + d * cm[3]))
+
+    page.extract_text(visitor_text=visit)
+    return statistics.median(heights) if heights else math.inf
 
 
 def test_without_a_spreadsheet_program_the_message_says_how_to_get_one(tmp_path,

@@ -6,7 +6,6 @@ Sources: [source: iso6946-layers, 6.7, clause 8]; [source: patankar-1980, ch. 4]
 
 from __future__ import annotations
 
-import functools
 import math
 from functools import cached_property
 from itertools import product
@@ -18,16 +17,12 @@ from .._rounding import round_significant
 from .._validate import (
     MAX_CELLS,
     MAX_CELLS_PER_LAYER,
-    THIN_LAYER,
     choice,
-    conductivity_class,
-    conductivity_warning,
     finite,
     non_negative,
     positive,
     quote,
     show,
-    thin_layer_warning,
     within,
 )
 from ..airlayers import (
@@ -52,6 +47,7 @@ from .results import (
     LayerRow,
     VentilationResult,
 )
+from .slips import _input_slips
 
 # --------------------------------------------------------------------------------------
 # Construction
@@ -105,7 +101,8 @@ class Construction:
     def __init__(self, layers, heat_flow: str = "horizontal", *, rsi=None, rse=None,
                  name: str = "", corrections=(), apply_small_corrections: bool = False) -> None:
         self.name = str(name)
-        self.heat_flow = choice("heat_flow", heat_flow, HEAT_FLOWS)
+        self.heat_flow = (heat_flow if type(heat_flow) is str and heat_flow in _HEAT_FLOW_SET
+                          else choice("heat_flow", heat_flow, HEAT_FLOWS))
         self.layers = tuple(layers)
         label = f"construction {quote(self.name)}" if self.name else "construction"
         if not self.layers:
@@ -122,14 +119,25 @@ class Construction:
                     else _surface_resistance(f"{label} rse", rse))
         self.corrections_input = tuple(corrections)
         self.apply_small_corrections = bool(apply_small_corrections)
-        self.warnings: list[str] = []
+        # tuples, not lists: a cached construction then holds fewer objects the cyclic
+        # garbage collector walks (a workbook may keep thousands)
+        self._method_warnings: tuple = ()
         self._compute(label, rse_given)
-        #: Input that is probably a slip (a thickness in metres in a millimetre field, a
-        #: conductivity far outside its material class); also at the head of ``warnings``.
-        self.input_warnings: list[str] = _input_slips(self.layers)
-        self.warnings[:0] = self.input_warnings
 
     # ---- results --------------------------------------------------------------------
+    @cached_property
+    def input_warnings(self) -> list:
+        """Input that is probably a slip (a thickness in metres in a millimetre field, a
+        conductivity far outside its material class); also at the head of ``warnings``.
+        Found when first read (a U-value alone does not need them). [-]"""
+        return _input_slips(self.layers)
+
+    @cached_property
+    def warnings(self) -> list:
+        """The input slips, then the method's warnings (bridging limits beyond their range,
+        bridged layers with a slightly ventilated air layer). [-]"""
+        return self.input_warnings + list(self._method_warnings)
+
     @property
     def total_resistance(self) -> float:
         """Total thermal resistance ``R_T`` surface to surface incl. Rsi and Rse. [m2 K/W]"""
@@ -294,16 +302,17 @@ class Construction:
     def _compute(self, label: str, rse_given: bool) -> None:
         hf = self.heat_flow
         own = []
-        for lay in self.layers:
-            if lay.kind == "air":
+        vent_idx = None  # ventilated air layers: the first one from the inside governs
+        for i, lay in enumerate(self.layers):
+            kind = lay.kind
+            if kind == "air":
                 own.append(lay.resistance_for(hf))
-            elif lay.kind == "bridged":
+                if vent_idx is None and lay.ventilation != "unventilated":
+                    vent_idx = i
+            elif kind == "bridged":
                 own.append(lay.lower_limit_resistance)
             else:
                 own.append(lay.resistance_value)
-        # ventilated air layers: the first ventilated layer from the inside governs
-        vent_idx = next((i for i, lay in enumerate(self.layers)
-                         if lay.kind == "air" and lay.ventilation != "unventilated"), None)
         counted = [True] * len(self.layers)
         scale = [1.0] * len(self.layers)
         rse_used = self.rse
@@ -322,9 +331,10 @@ class Construction:
             raise HeatLedgerError(f"{label}: the first layer is a well ventilated air layer, so "
                                   "no layer is left to count")
 
-        r_inner = math.fsum(r for r, c in zip(own, counted, strict=True) if c)
         bridging = self._bridging(own, counted, rse_used)
-        r_total = bridging.total if bridging else self.rsi + r_inner + rse_used
+        r_total = (bridging.total if bridging else
+                   self.rsi + math.fsum([r for r, c in zip(own, counted, strict=True) if c])
+                   + rse_used)
 
         if vent_idx is not None and self.layers[vent_idx].ventilation == "slightly":
             lay = self.layers[vent_idx]
@@ -343,8 +353,9 @@ class Construction:
                 scale[i] = s
             rse_used = self.rse * s
             if bridging is not None:
-                self.warnings.append("bridged layers with a slightly ventilated air layer: the "
-                                     "bridging limits are computed with the layer unventilated")
+                self._method_warnings += ("bridged layers with a slightly ventilated air "
+                                          "layer: the bridging limits are computed with the "
+                                          "layer unventilated",)
             self._ventilation = VentilationResult(
                 vent_idx, "slightly", av, r_tu, r_tv, w_u, w_v, s,
                 "slightly ventilated: R_T = (1500 - Av)/1000 R_T,u + (Av - 500)/1000 R_T,v; "
@@ -352,20 +363,18 @@ class Construction:
         elif bridging is not None:
             # share the bridging adjustment (R_T - R''_T) among bridged layers, in proportion
             # to their lower-limit resistances, so that the ladder sums to R_T
-            bridged = [i for i, lay in enumerate(self.layers) if lay.kind == "bridged"
-                       and counted[i]]
-            r_b = sum(own[i] for i in bridged)
-            s = 1.0 + (bridging.total - bridging.lower) / r_b
-            for i in bridged:
+            lower_r = bridging.layer_lower_resistances  # the counted bridged layers, in order
+            s = 1.0 + (bridging.total - bridging.lower) / sum(lower_r.values())
+            for i in lower_r:
                 scale[i] = s
         self._bridging_result = bridging
         self._r_total = r_total
         self._rse_used = rse_used
-        self._row_data = (own, scale, counted)
+        self._row_data = (tuple(own), tuple(scale), tuple(counted))
         if bridging is not None and bridging.ratio > BRIDGING_RATIO_LIMIT:
-            self.warnings.append(
+            self._method_warnings += (
                 f"upper/lower limit ratio {bridging.ratio:.3f} exceeds 1.5: ISO 6946:2017 6.7.2 "
-                "is not valid; use a numerical method (ISO 10211)")
+                "is not valid; use a numerical method (ISO 10211)",)
         self._corrections = self._apply_corrections(label, own)
 
     @cached_property
@@ -394,25 +403,21 @@ class Construction:
         bridged = [i for i, lay in enumerate(self.layers) if lay.kind == "bridged" and counted[i]]
         if not bridged:
             return None
-        base = self.rsi + rse_used + math.fsum(own[i] for i in range(len(own))
-                                         if counted[i] and i not in bridged)
-        sections = []
+        base = self.rsi + rse_used + math.fsum([own[i] for i in range(len(own))
+                                                if counted[i] and i not in bridged])
+        sections = _sections(base, [self.layers[i] for i in bridged])
         inv_upper = 0.0
-        for combo in product(*(self.layers[i].parts for i in bridged)):
-            frac = 1.0
-            r_q = base
-            for i, (lam, f) in zip(bridged, combo, strict=True):
-                frac *= f
-                r_q += self.layers[i].thickness / lam
-            sections.append((frac, r_q))
+        for frac, r_q in sections:
             inv_upper += frac / r_q
         upper = 1.0 / inv_upper
-        lower = base + math.fsum(own[i] for i in bridged)
+        lower = base + math.fsum([own[i] for i in bridged])
         total = 0.5 * (upper + lower)
         return BridgingResult(upper, lower, total, (upper - lower) / (2.0 * total),
                               upper / lower, tuple(sections), {i: own[i] for i in bridged})
 
     def _apply_corrections(self, label, own) -> CorrectionResult:
+        if not self.corrections_input:
+            return _NO_CORRECTIONS
         items = []
         for c in self.corrections_input:
             idx = getattr(c, "layer", None)
@@ -467,6 +472,30 @@ class Construction:
     def __repr__(self) -> str:
         return (f"Construction({len(self.layers)} layers, heat_flow={self.heat_flow!r}, "
                 f"U={self.u_value:.4g} W/(m2 K))")
+
+
+#: The heat-flow directions, for a quick test of a direction written as the engine writes it.
+_HEAT_FLOW_SET = frozenset(HEAT_FLOWS)
+#: The correction result of a construction without corrections (immutable, shared).
+_NO_CORRECTIONS = CorrectionResult((), 0.0, False, "no corrections")
+
+
+def _sections(base: float, bridged: list) -> list:
+    """Area fraction [-] and total resistance [m2 K/W] of every section of the upper limit:
+    every combination of the parts of the bridged layers, each adding its d/lambda to the
+    ``base`` resistance of the other layers and the surfaces."""
+    if len(bridged) == 1:  # the common case: the sections are the parts of the one layer
+        d = bridged[0].thickness
+        return [(f, base + d / lam) for lam, f in bridged[0].parts]
+    out = []
+    for combo in product(*(lay.parts for lay in bridged)):
+        frac = 1.0
+        r_q = base
+        for lay, (lam, f) in zip(bridged, combo, strict=True):
+            frac *= f
+            r_q += lay.thickness / lam
+        out.append((frac, r_q))
+    return out
 
 
 def _surface_resistance(name: str, value) -> float:
@@ -538,39 +567,3 @@ def _cell_counts(counted, nodes_per_layer, max_spacing) -> list:
             f"{MAX_CELLS_PER_LAYER} per layer and {MAX_CELLS} in a construction (about 250 MB "
             "of memory; the solve converges as 1/n^2, so far fewer are enough)")
     return counts
-
-
-def _input_slips(layers) -> list:
-    """Warnings for layer input that is probably a slip (see heatledger._validate)."""
-    out = []
-    for i, lay in enumerate(layers, 1):
-        mat = getattr(lay, "material", None)
-        lam = getattr(lay, "conductivity", None)
-        names = (lay.name, mat.name if mat is not None else "")
-        # most layers are thick enough and of a plausible conductivity for their class:
-        # decided here without building a message (the class lookup is cached by name)
-        if lay.thickness >= THIN_LAYER and (lam is None or _plausible(lam, names)):
-            continue
-        found = _layer_slips(*names, lay.thickness, lam)
-        if found:
-            label = f"layer {i} {quote(lay.name)}" if lay.name else f"layer {i}"
-            out += [f"{label}: {text}" for text in found]
-    return out
-
-
-def _plausible(conductivity: float, names: tuple) -> bool:
-    """True when the conductivity lies in the range of the material class the names give
-    (or the names give none). [-]"""
-    found = conductivity_class(*names)
-    return found is None or found[1] <= conductivity <= found[2]
-
-
-@functools.lru_cache(maxsize=4096)
-def _layer_slips(name: str, material: str, thickness: float, conductivity) -> tuple:
-    """The slip warnings of one layer, without its position (cached: a spreadsheet's tables
-    repeat their layers). [-]"""
-    found = [thin_layer_warning("", thickness, name, material,
-                                metal=conductivity is not None and conductivity >= 10.0)]
-    if conductivity is not None:
-        found.append(conductivity_warning("", conductivity, name, material))
-    return tuple(w for w in found if w)

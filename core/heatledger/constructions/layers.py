@@ -47,17 +47,27 @@ DEFAULT_NODES_PER_LAYER = 4
 
 _THICKNESS, _CONDUCTIVITY, _LAYER_R = (LIMITS["thickness"], LIMITS["conductivity"],
                                       LIMITS["layer_resistance"])
+_SD = LIMITS["sd"]
+_EMISSIVITY_DEFAULT = 0.9
 
 
-def _thickness(label: str, thickness) -> float:
+def _label(who: tuple) -> str:
+    """How messages name a layer: ``who`` is (kind of layer, name). Built only when a check
+    fails or a message needs it (the checks of a sound layer do not format text)."""
+    kind, name = who
+    return f"{kind} {quote(name)}" if name else kind
+
+
+def _thickness(who: tuple, thickness) -> float:
     """A layer thickness [m]: greater than zero and within the physical limit."""
     if type(thickness) is float and _THICKNESS.low <= thickness <= _THICKNESS.high:
         return thickness  # the common case, without building the message
+    label = _label(who)
     return within(f"{label} thickness", positive(f"{label} thickness", thickness, "m"),
                   "thickness")
 
 
-def _vapour(label: str, thickness: float, mu, sd, material=None) -> tuple:
+def _vapour(who: tuple, thickness: float, mu, sd, material=None) -> tuple:
     """``(mu, sd)`` of a layer: a stated mu [-] or sd [m] (not both), else the material's mu;
     ``sd = mu d``; ``(None, None)`` when nothing is known. ``inf`` marks a vapour-tight
     layer. [source: iso13788-glaser, 6.2 (s_d = mu d)]."""
@@ -67,6 +77,7 @@ def _vapour(label: str, thickness: float, mu, sd, material=None) -> tuple:
             return None, None
         # library and project materials are checked when they are read
         return mu, math.inf if mu == math.inf else mu * thickness
+    label = _label(who)
     if mu is not None and sd is not None:
         raise HeatLedgerError(f"{label}: give either vapour_resistance_factor or sd, not both")
     if sd is not None:
@@ -93,10 +104,12 @@ def _positive_or_tight(name: str, value, kind: str) -> float:
     return within(name, positive(name, value), kind)
 
 
-def _conductivity(name: str, conductivity) -> float:
-    """A conductivity [W/(m K)]: greater than zero and within the physical limits."""
+def _conductivity(who: tuple, what: str, conductivity) -> float:
+    """A conductivity [W/(m K)]: greater than zero and within the physical limits (``what``
+    follows the layer's label in a message, as "conductivity")."""
     if type(conductivity) is float and _CONDUCTIVITY.low <= conductivity <= _CONDUCTIVITY.high:
         return conductivity
+    name = f"{_label(who)} {what}"
     return within(name, positive(name, conductivity, "W/(m K)"), "conductivity")
 
 
@@ -144,23 +157,26 @@ class Layer:
 
     def __init__(self, thickness, conductivity=None, *, resistance=None, name: str = "",
                  material=None, vapour_resistance_factor=None, sd=None) -> None:
-        label = f"layer {quote(name)}" if name else "layer"
-        self.thickness = _thickness(label, thickness)
+        who = ("layer", name)
+        self.thickness = _thickness(who, thickness)
         if isinstance(material, str):
             material = _load_default().get(material)  # cached library, read only
         if material is not None and not isinstance(material, Material):
-            raise HeatLedgerError(f"{label} material must be a Material or a material name")
+            raise HeatLedgerError(f"{_label(who)} material must be a Material or a material "
+                                  "name")
         self.material = material
         if conductivity is None and material is not None and resistance is None:
             conductivity = material.conductivity
         if conductivity is not None and resistance is not None:
             raise HeatLedgerError(
-                f"{label}: give either conductivity or a declared resistance, not both"
+                f"{_label(who)}: give either conductivity or a declared resistance, not both"
             )
         if conductivity is None and resistance is None:
-            raise HeatLedgerError(f"{label}: give a conductivity, a material or a resistance")
+            raise HeatLedgerError(f"{_label(who)}: give a conductivity, a material or a "
+                                  "resistance")
         self.name = str(name) or (material.name if material is not None else "")
         if resistance is not None:
+            label = _label(who)
             self.conductivity = None
             self.declared_resistance = within(
                 f"{label} resistance", positive(f"{label} resistance", resistance, "m2 K/W"),
@@ -168,14 +184,14 @@ class Layer:
             self.resistance_value = self.declared_resistance
             self.kind = "declared"
         else:
-            self.conductivity = _conductivity(f"{label} conductivity", conductivity)
+            self.conductivity = _conductivity(who, "conductivity", conductivity)
             self.declared_resistance = None
             r = self.thickness / self.conductivity
             self.resistance_value = r if _LAYER_R.low <= r <= _LAYER_R.high else within(
-                f"{label} resistance thickness/conductivity", r, "layer_resistance")
+                f"{_label(who)} resistance thickness/conductivity", r, "layer_resistance")
             self.kind = "material"
         self.vapour_resistance_factor, self.sd = _vapour(
-            label, self.thickness, vapour_resistance_factor, sd, material)
+            who, self.thickness, vapour_resistance_factor, sd, material)
 
     def with_thickness(self, thickness) -> Layer:
         """The same layer with another thickness (a declared resistance scales with it, the
@@ -238,19 +254,32 @@ class AirLayer:
 
     def __init__(self, thickness, *, ventilation: str = "unventilated", emissivity_1=0.9,
                  emissivity_2=0.9, vent_area=None, name: str = "", sd=None) -> None:
-        label = f"air layer {quote(name)}" if name else "air layer"
-        self.thickness = positive(f"{label} thickness", thickness, "m")
-        self.vapour_resistance_factor, self.sd = _vapour(
-            label, self.thickness, 1.0 if sd is None else None, sd)
+        who = ("air layer", name)
+        d = thickness
+        if not (type(d) is float and 0.0 < d <= MAX_AIR_LAYER_THICKNESS):
+            d = positive(f"{_label(who)} thickness", d, "m")  # the common case skips this
+        self.thickness = d
+        if sd is None and type(d) is float and _SD.low <= d <= _SD.high:
+            self.vapour_resistance_factor, self.sd = 1.0, d  # still air: mu = 1, s_d = d
+        else:
+            self.vapour_resistance_factor, self.sd = _vapour(
+                who, d, 1.0 if sd is None else None, sd)
         if self.thickness > MAX_AIR_LAYER_THICKNESS + 1e-12:
             raise HeatLedgerError(
-                f"{label} is {self.thickness * 1000.0:g} mm thick; the ISO 6946 Annex D "
+                f"{_label(who)} is {self.thickness * 1000.0:g} mm thick; the ISO 6946 Annex D "
                 f"method covers air layers up to {MAX_AIR_LAYER_THICKNESS * 1000.0:g} mm: "
                 "treat a larger space as an unheated space or a room (ISO 13789)")
-        self.ventilation = choice(f"{label} ventilation", ventilation, VENTILATION_CLASSES)
-        self.emissivity_1 = fraction(f"{label} emissivity_1", emissivity_1, allow_zero=False)
-        self.emissivity_2 = fraction(f"{label} emissivity_2", emissivity_2, allow_zero=False)
+        self.ventilation = (ventilation if ventilation == "unventilated" else
+                            choice(f"{_label(who)} ventilation", ventilation,
+                                   VENTILATION_CLASSES))
+        self.emissivity_1, self.emissivity_2 = (
+            (emissivity_1, emissivity_2) if emissivity_1 == emissivity_2 == _EMISSIVITY_DEFAULT
+            and type(emissivity_1) is float and type(emissivity_2) is float else
+            (fraction(f"{_label(who)} emissivity_1", emissivity_1, allow_zero=False),
+             fraction(f"{_label(who)} emissivity_2", emissivity_2, allow_zero=False)))
         self.name = str(name) or "air layer"
+        label = _label(who) if vent_area is not None or self.ventilation != "unventilated" \
+            else ""  # messages below only where a vent area or a ventilation is given
         self.vent_area = None if vent_area is None else non_negative(
             f"{label} vent_area", vent_area, "mm2")
         a = self.vent_area
@@ -334,41 +363,43 @@ class BridgedLayer:
 
     def __init__(self, thickness, parts, *, name: str = "", vapour_resistance_factor=None,
                  sd=None) -> None:
-        label = f"bridged layer {quote(name)}" if name else "bridged layer"
-        self.thickness = _thickness(label, thickness)
-        self.vapour_resistance_factor, self.sd = _vapour(label, self.thickness,
+        who = ("bridged layer", name)
+        self.thickness = _thickness(who, thickness)
+        self.vapour_resistance_factor, self.sd = _vapour(who, self.thickness,
                                                          vapour_resistance_factor, sd)
         self.name = str(name) or "bridged layer"
         cleaned = []
         try:
             items = list(parts)
         except TypeError:
-            raise HeatLedgerError(f"{label}: parts must be a list of (conductivity, "
+            raise HeatLedgerError(f"{_label(who)}: parts must be a list of (conductivity, "
                                   "area_fraction) pairs") from None
         if len(items) < 2:
-            raise HeatLedgerError(f"{label}: parts must list at least two materials")
+            raise HeatLedgerError(f"{_label(who)}: parts must list at least two materials")
         for i, item in enumerate(items, 1):
             try:
                 lam, frac = item
             except (TypeError, ValueError):
-                raise HeatLedgerError(f"{label}: part {i} must be a (conductivity, "
+                raise HeatLedgerError(f"{_label(who)}: part {i} must be a (conductivity, "
                                       "area_fraction) pair") from None
             if isinstance(lam, Material):
                 lam = lam.conductivity
-            lam = _conductivity(f"{label} part {i} conductivity", lam)
-            frac = finite(f"{label} part {i} area_fraction", frac)
-            if not 0.0 < frac <= 1.0:
-                raise HeatLedgerError(
-                    f"{label} part {i} area_fraction must be above 0 and at most 1; got {frac:g}")
+            lam = _conductivity(who, f"part {i} conductivity", lam)
+            if not (type(frac) is float and 0.0 < frac <= 1.0):  # the common case passes
+                frac = finite(f"{_label(who)} part {i} area_fraction", frac)
+                if not 0.0 < frac <= 1.0:
+                    raise HeatLedgerError(f"{_label(who)} part {i} area_fraction must be above "
+                                          f"0 and at most 1; got {frac:g}")
             cleaned.append((lam, frac))
-        total = math.fsum(f for _, f in cleaned)
+        total = math.fsum([f for _, f in cleaned])
         if abs(total - 1.0) > 1e-6:
             raise HeatLedgerError(
-                f"{label}: area fractions must sum to 1; they sum to {total:.6g}")
+                f"{_label(who)}: area fractions must sum to 1; they sum to {total:.6g}")
         self.parts = tuple(cleaned)
-        self._lower = within(
-            f"{label} lower-limit resistance thickness/(sum of fraction x conductivity)",
-            self.thickness / math.fsum(lam * f for lam, f in self.parts), "layer_resistance")
+        r = self.thickness / math.fsum([lam * f for lam, f in cleaned])
+        self._lower = r if _LAYER_R.low < r <= _LAYER_R.high else within(
+            f"{_label(who)} lower-limit resistance thickness/(sum of fraction x conductivity)",
+            r, "layer_resistance")
 
     @property
     def lower_limit_resistance(self) -> float:

@@ -181,12 +181,14 @@ class FinFVResult:
     linear_residual : float
         Energy residual of the last linear solve as reported by the 1-D solver. [-]
     mesh_estimate : MeshEstimate or None
-        Heat rate on this mesh and on a mesh of twice the cells, with Richardson
-        extrapolation.
+        Heat rate on this mesh and on two more (see ``mesh_estimate`` of
+        :func:`solve_fin_fv`), with the observed order.
     mesh_estimate_tip : MeshEstimate or None
         The same for the tip temperature.
     iterations : int
-        Linear solves used by the non-linear iteration (1 for a linear problem).
+        Linear solves used by the non-linear iteration on this mesh (1 for a linear problem;
+        from 4096 cells with a mesh estimate the iteration starts from the solution on the
+        coarser mesh, so it may need only one or two).
     converged_change : float
         Largest temperature change in the last iteration. [K]
     solution : FVSolution

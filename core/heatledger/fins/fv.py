@@ -138,7 +138,10 @@ def solve_fin_fv(
     max_iterations : int
         Largest number of linear solves before :class:`HeatLedgerError`. [-]
     mesh_estimate : bool
-        Also solve on twice the cells and give a Richardson estimate. [-]
+        Also solve on two more meshes and give the three-mesh estimate with the observed
+        order: on 2 and 4 times the cells, or from 4096 cells on coarser meshes (n/16 and
+        n/4 of them, or n/4 and n/2), solved coarse to fine, each started from the solution
+        of the mesh before it. [-]
     x_offset : float
         Added to the reported positions and passed to nothing else (annular fins report
         radius). [m]
@@ -204,10 +207,10 @@ def solve_fin_fv(
                       t_tip_fixed if tip == "temperature" else None, tip_area, eps, t_sur,
                       linearisation, tolerance, max_iterations, initial)
 
-    out = run(nodes)
-    mesh_q = mesh_tip = None
     if mesh_estimate:
-        mesh_q, mesh_tip = _fin_mesh_estimates(run, nodes, out)
+        out, mesh_q, mesh_tip = _fin_mesh_estimates(run, nodes, length)
+    else:
+        out, mesh_q, mesh_tip = run(nodes), None, None
     sol = out["sol"]
     x = np.concatenate(([0.0], sol.x, [length])) + float(x_offset)
     temp = np.concatenate(([sol.face_temperature[0]], sol.temperature,
@@ -251,8 +254,8 @@ def _settings(nodes, tip, law, eps, t_sur, linearisation, tolerance, max_iterati
         "linearisation": linearisation,
         "tolerance_K": tolerance,
         "max_iterations": max_iterations,
-        "mesh_refinement": (f"three meshes {mesh_q.meshes}, {mesh_q.basis}" if mesh_q
-                            else "none"),
+        "mesh_refinement": (f"three meshes {mesh_q.meshes}{_order_note(mesh_q, nodes)}, "
+                            f"{mesh_q.basis}" if mesh_q else "none"),
         "temp_base": t_b,
         "temp_fluid": t_inf,
         "tip_temperature": t_tip,
@@ -263,6 +266,13 @@ def _settings(nodes, tip, law, eps, t_sur, linearisation, tolerance, max_iterati
 
 
 # ----------------------------------------------------------------------------- internals
+
+
+def _order_note(mesh_q, nodes: int) -> str:
+    """How the meshes of an estimate were solved, when the reported mesh is the finest."""
+    if mesh_q.meshes and mesh_q.meshes[-1] == nodes:
+        return " solved coarse to fine, each iteration started from the coarser solution"
+    return ""
 
 
 def _count(name: str, value, low: int) -> int:
@@ -334,9 +344,11 @@ def _flux_and_slope(law, eps, x, temp, t_inf, t_sur):
     obj = law[1]
     if isinstance(obj, PowerLawCoefficient):
         theta = temp - t_inf
-        h_c = obj.h_coefficient * np.abs(theta) ** obj.h_exponent
-        g0 = h_c * theta
-        g1 = (obj.h_exponent + 1.0) * h_c
+        h_c = np.abs(theta)
+        np.power(h_c, obj.h_exponent, out=h_c)
+        h_c *= obj.h_coefficient
+        g0 = np.multiply(h_c, theta, out=theta)
+        g1 = np.multiply(h_c, obj.h_exponent + 1.0, out=h_c)
         if eps > 0.0:
             tk = temp + zero_Celsius
             tk3 = tk * tk * tk
@@ -375,23 +387,46 @@ STALL_FACTOR = 10.0
 COARSEN_FROM = 4096
 
 
-def _fin_mesh_estimates(run, nodes: int, out: dict):
-    """Three-mesh estimates of the heat rate [W] and the tip temperature [degC]; the other
-    meshes start their iteration from the solution already found."""
+def _fin_mesh_estimates(run, nodes: int, length: float):
+    """The solution on ``nodes`` cells with three-mesh estimates of its heat rate [W] and tip
+    temperature [degC].
+
+    From ``COARSEN_FROM`` cells the meshes are coarser (n/16, n/4, n or n/4, n/2, n) and are
+    solved coarse to fine, each iteration started from the solution of the mesh before it
+    (interpolated, boundary faces included); below, the finer meshes (2n, 4n) start from the
+    solution on ``nodes`` cells. Every mesh iterates to the same tolerance."""
     if nodes >= COARSEN_FROM and nodes % 16 == 0:  # cells cut by 4: 0.31 of a solve
         meshes, used, ratio = (nodes // 16, nodes // 4, nodes), 2, 4.0
     elif nodes >= COARSEN_FROM and nodes % 4 == 0:
         meshes, used, ratio = (nodes // 4, nodes // 2, nodes), 2, 2.0
     else:
         meshes, used, ratio = (nodes, 2 * nodes, 4 * nodes), 0, 2.0
-    sol = out["sol"]
-    start = (sol.x, sol.temperature, out["t_tip"])
-    runs = [out if m == nodes else run(m, start) for m in meshes]
+    if used == 0:
+        out = run(nodes)
+        sol = out["sol"]
+        start = (sol.x, sol.temperature, out["t_tip"])
+        runs = [out] + [run(m, start) for m in meshes[1:]]
+    else:  # coarse to fine: the converged coarser solution is the finer mesh's start
+        runs = []
+        for m in meshes:
+            runs.append(run(m, _start_from(runs[-1], length) if runs else None))
+        out = runs[used]
     mesh_q = three_mesh_estimate("heat_rate", meshes, [r["q"] for r in runs], reported=used,
                                  ratio=ratio)
     mesh_tip = three_mesh_estimate("tip_temperature", meshes, [r["t_tip"] for r in runs],
                                    reported=used, ratio=ratio)
-    return mesh_q, mesh_tip
+    return out, mesh_q, mesh_tip
+
+
+def _start_from(out: dict, length: float):
+    """A converged solution as the start of a finer mesh: positions [m] and temperatures
+    [degC] of the cell centres with both boundary faces (so the ends are interpolated, not
+    held), the tip-face temperature [degC], and a flag that the start is close."""
+    sol = out["sol"]
+    faces = sol.face_temperature
+    x = np.concatenate(([0.0], sol.x, [length]))
+    temp = np.concatenate(([faces[0]], sol.temperature, [faces[-1]]))
+    return (x, temp, out["t_tip"], True)
 
 
 def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip_area, eps,
@@ -436,20 +471,25 @@ def _solve(length, k, law, area, perimeter, t_b, t_inf, n, tip, t_tip_fixed, tip
         temp, t_tip = np.interp(x, initial[0], initial[1]), initial[2]
     iterations = 0
     change = math.inf
+    # a start interpolated from a converged coarser mesh is close: refine from the first solve
+    close = initial is not None and len(initial) > 3 and initial[3]
     while True:
         sc, sp = _cell_sources(law, eps, x, temp, t_inf, t_sur, p_dx,
                                "linear" if not nonlinear else linearisation)
         system = (right_bc(t_tip), sc, sp)
         # refinement only near convergence: the iterates before are replaced anyway
-        near = not nonlinear or change < REFINE_NEAR_K
+        near = not nonlinear or change < REFINE_NEAR_K or close
         sol = solve_on_mesh(mesh, left, system[0], source=sc, source_slope=sp,
                             refine="auto" if near else False)
         iterations += 1
         previous = change
-        change = float(np.max(np.abs(sol.temperature - temp)))
-        change = max(change, abs(float(sol.face_temperature[-1]) - t_tip))
+        step = np.subtract(sol.temperature, temp)
+        change = float(np.abs(step, out=step).max())
+        # the tip face: T_N - Q_out R_N (FVSolution.face_temperature[-1], without the arrays)
+        tip_face = float(sol.temperature[-1] - sol.heat_out * mesh.half_resistance[-1])
+        change = max(change, abs(tip_face - t_tip))
         temp = sol.temperature
-        t_tip = float(sol.face_temperature[-1])
+        t_tip = tip_face
         if not nonlinear or change < tolerance:
             break
         if change < STALL_FACTOR * tolerance and change >= previous:
@@ -489,7 +529,12 @@ def _cell_sources(law, eps, x, temp, t_inf, t_sur, p_dx, linearisation) -> tuple
             sc, sp = sc + h_r * p_dx * t_sur, sp - h_r * p_dx
         return sc, sp
     g0, g1 = _flux_and_slope(law, eps, x, temp, t_inf, t_sur)
-    return -p_dx * (g0 - g1 * temp), -p_dx * g1
+    sc = np.multiply(g1, temp)  # S_c = -P dx (g* - g'* T*), in one array
+    np.subtract(g0, sc, out=sc)
+    sc *= p_dx
+    np.negative(sc, out=sc)
+    g1 *= p_dx  # S_p = -P dx g'*, in g'*'s own array
+    return sc, np.negative(g1, out=g1)
 
 
 def _fin_balance(sol, law, eps, x, temp, t_b, t_inf, t_sur, t_tip, p_dx, tip, a_tip, length,
@@ -500,7 +545,11 @@ def _fin_balance(sol, law, eps, x, temp, t_b, t_inf, t_sur, t_tip, p_dx, tip, a_
     # numpy's pairwise sum, not np.dot: the reported heat rates must not depend on the BLAS
     # kernel's summation order (math.fsum would cost a linear solve at 100,000 cells)
     loss_side = float(np.sum(_flux(law, eps, x, temp, t_inf, t_sur) * p_dx))
-    ideal_side = float(np.sum(_flux(law, eps, x, np.full(n, t_b), t_inf, t_sur) * p_dx))
+    if law[0] == "constant" or isinstance(law[1], PowerLawCoefficient):  # one flux for all
+        ideal = _flux(law, eps, x[:1], np.array([t_b]), t_inf, t_sur)[0]
+    else:
+        ideal = _flux(law, eps, x, np.full(n, t_b), t_inf, t_sur)
+    ideal_side = float(np.sum(ideal * p_dx))
     if tip == "convective":
         loss_tip = float(_flux(law, eps, np.array([length]), np.array([t_tip]), t_inf,
                                t_sur)[0]) * a_tip

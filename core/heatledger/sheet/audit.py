@@ -15,6 +15,7 @@ from types import SimpleNamespace
 from .. import cautions as _cautions
 from ..families import FAMILIES
 from .blocks_construction import DEFAULT_CHECK_TOLERANCE
+from .pages import LABEL_COLUMN_CAP, contain_overflow, paginate
 from .plan import (
     PrintSetup,
     WorkbookPlan,
@@ -53,6 +54,9 @@ class AuditContext:
         Sheets that list check cells sheet by sheet, for the cover. [-]
     answers : list of Answer
         The results the cover shows first, each a live reference to its sheet. [-]
+    appendices : list of tuple
+        ``(sheet name, what it holds)`` of every appendix sheet; they print at the back
+        and the cover lists them. [-]
     """
 
     title: str
@@ -64,6 +68,7 @@ class AuditContext:
     counts: list = field(default_factory=list)
     check_lists: list = field(default_factory=list)
     answers: list = field(default_factory=list)
+    appendices: list = field(default_factory=list)
 
 
 @dataclass(frozen=True)
@@ -150,11 +155,15 @@ def audit_plan(project, *, progress: Callable[[int, int, str], None] | None = No
     for fam in FAMILIES:
         if fam.present(project) or fam is FAMILIES[0]:  # the Summary is always filled
             fam.load("sheets")(plan, project, audit)
+    appendix = {name for name, _ in audit.appendices}  # the appendices print at the back
+    plan.sheets.sort(key=lambda sheet: sheet.name in appendix)
     summary_cells = {k: "+".join(c[k] for c in audit.counts) for k in ("count", "ok")}
     summary_cells["changed"] = add_record_sheet(plan, title)
     _cover(cover, project, summary_cells, audit)
     for sheet in plan.sheets:
-        fit_text_columns(sheet)
+        fit_text_columns(sheet, cap=LABEL_COLUMN_CAP)
+        paginate(sheet, title_columns=2)
+        contain_overflow(sheet)
         fit_wrapped_rows(sheet)
     return plan
 
@@ -278,6 +287,7 @@ def _cover(sheet, project, summary_cells, audit) -> None:
     _cover_checks(st)
     _cover_methods(st)
     _cover_how_to_read(st)
+    _cover_appendices(st)
 
 
 def _cover_setup(st) -> None:
@@ -446,6 +456,23 @@ def _cover_how_to_read(st) -> None:
         b.put(f"C{r}", text, style="hl paragraph")
         sheet.row_heights[r] = _height(text)
         r += 1
+    st.r = r
+
+
+def _cover_appendices(st) -> None:
+    """The appendix sheets, each a link, with what it holds."""
+    b, sheet, r = st.b, st.sheet, st.r + 1
+    if not st.audit.appendices:
+        return
+    b.put(f"B{r}", "Appendices (at the back of the workbook)", style="hl subtitle")
+    sheet.merges.append(f"B{r}:D{r}")
+    r += 1
+    for name, what in st.audit.appendices:
+        link = name.replace("'", "''").replace('"', '""')
+        b.put(f"B{r}", formula=f'=HYPERLINK("#\'{link}\'!A1","{link}")', style="hl text")
+        b.put(f"C{r}", what, style="hl text wrap")
+        r += 1
+    st.r = r
 
 
 def _input_warnings(b, sheet, project, r: int) -> int:

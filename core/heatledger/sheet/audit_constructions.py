@@ -76,6 +76,8 @@ def add_sheets(plan, project, audit) -> None:
         plan.index[entry.name] = refs[-1]
         audit.construction_refs[entry.name] = refs[-1]
         audit.answers.append(_answer(entry, refs[-1]))
+        audit.appendices.append((refs[-1].extras["fv_sheet"],
+                                 f"finite-volume temperatures of {entry.name}"))
         if audit.progress is not None:
             audit.progress(i, total, entry.name)
     audit.counts.append(_summary(audit.summary, project, refs))

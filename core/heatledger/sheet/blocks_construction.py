@@ -59,8 +59,12 @@ FV_COLUMNS = [
 #: Rows 1 to HEADER_ROWS hold the title, the design data and the sheet's check count.
 HEADER_ROWS = 10
 #: Width of every column of a construction sheet (A, B, ...), in characters.
-COLUMN_WIDTHS = [5, 30, 11, 22, 10, 11, 11, 11, 11, 11, 12, 11, 11, 11, 11, 11, 11, 12, 11,
-                 13, 10]
+COLUMN_WIDTHS = [5, 30, 10, 24, 9, 9, 9, 9, 9, 9, 9, 9, 9, 24]
+#: Width of every column of a construction's finite-volume appendix, in characters.
+FV_WIDTHS = [5, 24, 10, 10, 9, 10, 10, 10, 10, 10, 10, 10, 10, 10, 10, 10, 10, 10, 10, 12, 10]
+#: The appendix prints the sheet's own solve (node to T) on one page, the engine's values
+#: and the checks on the next.
+FV_PAGE_BREAK = 13
 
 
 @dataclass

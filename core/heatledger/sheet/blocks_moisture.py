@@ -88,7 +88,7 @@ def add_sheets(plan: WorkbookPlan, project, audit) -> None:
     """
     overview = plan.add_sheet(
         "Moisture", column_widths={col_letter(i + 1): w for i, w in enumerate(
-            [5, 40, 26, 12, 34, 40, 12, 12, 16])},
+            [5, 40, 26, 12, 22, 26, 12, 12, 16])},
         freeze="A6", print_setup=PrintSetup(orientation="landscape",
                                             header=f"{audit.title} | {{sheet}}",
                                             footer_left="heatledger audit {sheet}",

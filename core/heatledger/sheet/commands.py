@@ -136,6 +136,10 @@ def _write(project, out: Path, *, force: bool, quiet: bool) -> int:
             raise HeatLedgerError(INSTALL_HINT)
         path = workbook_to_pdf(workbook_bytes(audit_plan(project, progress=progress)), out,
                                force=force)
+        from .pdf import FONT_HINT, layout_font_missing
+
+        if layout_font_missing():
+            print(f"heatledger: {FONT_HINT}", file=sys.stderr)
         what, hint = "record (PDF, recalculated and printed by LibreOffice)", (
             "the cover says whether all checks are OK")
     elif suffix in (".xlsx", ""):

@@ -32,12 +32,12 @@ from .blocks_construction import (
     _product,
     add_calculation_sheet,
 )
+from .construction_fv_sheet import add_fv_appendix
 from .construction_sheet_steps import (  # noqa: F401
     _chart_space,
     _check_count,
     _corrections,
     _ladder_temperatures,
-    _nodal_table,
     _temperature_chart,
 )
 from .plan import WorkbookPlan
@@ -108,7 +108,8 @@ def add_construction_sheet(plan: WorkbookPlan, sheet_name: str, construction: Co
     _corrections(st)
     _ladder_temperatures(st)
     _chart_space(st)
-    _nodal_table(st)
+    add_fv_appendix(st)
+    st.last_row = st.w.row
     _temperature_chart(st)
     return _check_count(st)
 
@@ -158,10 +159,10 @@ def _header(st) -> None:
     w.put(2, "Heat-flow direction")
     w.put(3, con.heat_flow, role="input")
     w.row = 5
-    w.put(2, "Inside design air temperature θi [degC]")
+    w.put(2, "Design θi, inside air [degC]")
     ti = w.put(3, float(temp_inside), role="input", fmt="0.0")
     w.row = 6
-    w.put(2, "Outside design air temperature θe [degC]")
+    w.put(2, "Design θe, outside air [degC]")
     te = w.put(3, float(temp_outside), role="input", fmt="0.0")
     w.row = 7
     w.put(2, "Element area A [m2]")
@@ -175,7 +176,7 @@ def _header(st) -> None:
     target_ref = w.put(3, None if target_u is None else float(target_u), role="input",
                        fmt="0.000")
     w.row = 4
-    w.put(6, "Check cells on this sheet")
+    w.put(6, "Check cells here and in the appendix")
     count_cell = w.a1(10)  # filled at the end, once the number is known
     w.row = 5
     w.put(6, "Check cells that say OK")

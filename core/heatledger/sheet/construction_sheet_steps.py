@@ -11,17 +11,12 @@ from ..constructions import (
     InvertedRoofCorrection,
 )
 from .blocks_construction import (
-    FMT_COEF,
-    FMT_LAMBDA,
     FMT_MM,
     FMT_T,
     FMT_U,
     FMT_U_2SF,
-    FV_COLUMNS,
     HEADER_ROWS,
     ConstructionRefs,
-    _solution_record,
-    put_warning,
 )
 from .plan import Chart, ChartSeries, sheet_ref
 
@@ -218,171 +213,8 @@ def _chart_space(st) -> None:
     # ---- chart placeholder rows ----------------------------------------------------------
     chart_row = w.row + 1
     w.row += 21
-    sheet.row_breaks.append(w.row)  # the nodal table starts a printed page
+    del sheet
     st.chart_row = chart_row
-
-
-def _nodal_table(st) -> None:
-    """The finite-volume nodal table: coefficients, Thomas algorithm, engine check."""
-    _nodal_setup(st)
-    _nodal_heading(st)
-    _nodal_rows(st)
-    _nodal_checks(st)
-
-
-def _nodal_setup(st) -> None:
-    """The inputs and first rows of this part of the sheet."""
-    con = st.con
-    layer_row = st.layer_row
-    r_total = st.r_total
-    rse_used_ref = st.rse_used_ref
-    rsi = st.rsi
-    te = st.te
-    temps = st.temps
-    ti = st.ti
-    w = st.w
-    st.con = con
-    st.layer_row = layer_row
-    st.r_total = r_total
-    st.rse_used_ref = rse_used_ref
-    st.rsi = rsi
-    st.te = te
-    st.temps = temps
-    st.ti = ti
-    st.w = w
-
-
-def _nodal_heading(st) -> None:
-    """Finite volume nodal table."""
-    layer_row = st.layer_row
-    rse_used_ref = st.rse_used_ref
-    rsi = st.rsi
-    temps = st.temps
-    w = st.w
-    # ---- finite-volume nodal table -------------------------------------------------------
-    w.start("fv", "Finite-volume nodal temperatures (cell-centred, Patankar 1980 ch. 4)")
-    fv = temps.fv
-    w.put(2, "Cell-centred finite volumes; face conductance G = 1/(w_i/(2k_i) + w_(i+1)/(2k_("
-             "i+1))); a_P T_i = a_W T_(i−1) + a_E T_(i+1) + b. Solved here by the Thomas "
-             "algorithm (P_i = a_E/(a_P − a_W P_(i−1)), Q_i = (b + a_W Q_(i−1))/(a_P − a_W "
-             "P_(i−1)), T_i = P_i T_(i+1) + Q_i); by the engine with LAPACK pttrf/pttrs.",
-          role="note")
-    w.row += 1
-    n = fv.temperature.size
-    node0 = w.row + 3  # two boundary rows and the header row come first
-    nodeN = node0 + n - 1
-    g_left = w.value_row(
-        "boundary conductance inside G_i = 1/(w_1/(2k_1) + Rsi) [W/(m2 K)]",
-        formula=f"=1/(C{node0}/(2*D{node0})+{rsi})",
-        engine=fv.a_centre[0] - fv.a_east[0] - fv.a_west[0] if n > 1 else None,
-        fmt=FMT_COEF)
-    g_right = w.value_row(
-        "boundary conductance outside G_e = 1/(w_N/(2k_N) + Rse used) [W/(m2 K)]",
-        formula=f"=1/(C{nodeN}/(2*D{nodeN})+{rse_used_ref})",
-        engine=fv.a_centre[-1] - fv.a_west[-1] - fv.a_east[-1] if n > 1 else None,
-        fmt=FMT_COEF)
-    w.headers(FV_COLUMNS)
-    assert w.row == node0, (w.row, node0)
-    layer_rows_of_nodes = [layer_row[int(i)] for i in temps.layer_of_node]
-    st.fv = fv
-    st.g_left = g_left
-    st.g_right = g_right
-    st.layer_rows_of_nodes = layer_rows_of_nodes
-    st.n = n
-    st.node0 = node0
-    st.nodeN = nodeN
-
-
-def _nodal_rows(st) -> None:
-    """One row per cell: coefficients, the Thomas algorithm and the checks."""
-    fv = st.fv
-    g_left = st.g_left
-    g_right = st.g_right
-    layer_rows_of_nodes = st.layer_rows_of_nodes
-    n = st.n
-    node0 = st.node0
-    nodeN = st.nodeN
-    te = st.te
-    temps = st.temps
-    ti = st.ti
-    w = st.w
-    # ---- nodal rows ----------------------------------------------------------------------
-    for i in range(n):
-        rr = w.row
-        lr = layer_rows_of_nodes[i]
-        first, last = i == 0, i == n - 1
-        w.put(1, i + 1)
-        w.put(2, formula=f"=B{lr}", style="hl label")
-        w.put(3, formula=f"=E{lr}/1000/M{lr}", fmt="0.000000")
-        w.put(4, formula=f"=E{lr}/1000/J{lr}", fmt=FMT_LAMBDA)
-        w.put(5, formula=f"=C{rr}*1000/2" if first else f"=E{rr - 1}+(C{rr - 1}+C{rr})*1000/2",
-              fmt="0.00")
-        if not last:
-            w.put(6, formula=f"=1/(C{rr}/(2*D{rr})+C{rr + 1}/(2*D{rr + 1}))", fmt=FMT_COEF)
-        w.put(7, 0.0 if first else None, formula=None if first else f"=F{rr - 1}",
-              role="engine" if first else "formula", fmt=FMT_COEF)
-        w.put(8, 0.0 if last else None, formula=None if last else f"=F{rr}",
-              role="engine" if last else "formula", fmt=FMT_COEF)
-        ap = f"=G{rr}+H{rr}" + (f"+{g_left}" if first else "") + (f"+{g_right}" if last else "")
-        w.put(9, formula=ap, fmt=FMT_COEF)
-        b_terms = ([f"{g_left}*{ti}"] if first else []) + ([f"{g_right}*{te}"] if last else [])
-        w.put(10, formula="=" + "+".join(b_terms) if b_terms else None,
-              value=None if b_terms else 0.0, role="formula" if b_terms else "engine",
-              fmt=FMT_COEF)
-        if first:
-            w.put(11, formula=f"=H{rr}/I{rr}", fmt="0.000000")
-            w.put(12, formula=f"=J{rr}/I{rr}", fmt="0.000000")
-        else:
-            den = f"(I{rr}-G{rr}*K{rr - 1})"
-            w.put(11, formula=f"=H{rr}/{den}", fmt="0.000000")
-            w.put(12, formula=f"=(J{rr}+G{rr}*L{rr - 1})/{den}", fmt="0.000000")
-        w.put(13, formula=f"=L{rr}" if last else f"=K{rr}*M{rr + 1}+L{rr}", fmt=FMT_T)
-        for col, arr in zip((14, 15, 16, 17, 18, 19),
-                            (fv.a_west, fv.a_east, fv.a_centre, fv.b, fv.temperature,
-                             fv.x * 1000.0),
-                            strict=True):
-            w.put(col, float(arr[i]), role="engine",
-                  fmt={18: FMT_T, 19: "0.00"}.get(col, FMT_COEF))
-        t = w.tol
-        conds = ",".join(f"ABS({a}{rr}-{e}{rr})<={t}*MAX(1,ABS({e}{rr}))"
-                         for a, e in (("G", "N"), ("H", "O"), ("I", "P"), ("J", "Q"),
-                                      ("E", "S")))
-        w.checks += 1
-        w.put(20, formula=f'=IF(AND({conds}),"OK","MISMATCH: x or a coefficient differs")',
-              role="check")
-        w.check(21, f"M{rr}", f"R{rr}")
-        w.row += 1
-    w.row += 1
-    w.value_row("heat flux through the inside surface q = G_i (θi − T_1) [W/m2]",
-                formula=f"={g_left}*({ti}-M{node0})", engine=temps.heat_flux, fmt="0.0000")
-    w.value_row("heat flux through the outside surface q = G_e (T_N − θe) [W/m2]",
-                formula=f"={g_right}*(M{nodeN}-{te})", engine=temps.heat_flux_outside,
-                fmt="0.0000")
-
-
-def _nodal_checks(st) -> None:
-    """The solution record and the sheet's warnings."""
-    con = st.con
-    node0 = st.node0
-    nodeN = st.nodeN
-    r_total = st.r_total
-    te = st.te
-    temps = st.temps
-    ti = st.ti
-    w = st.w
-    # ---- nodal checks --------------------------------------------------------------------
-    if temps.ladder_heat_flux is not None:
-        w.value_row("independent check: ladder heat flux q = (θi − θe)/R_T [W/m2]",
-                    formula=f"=({ti}-{te})/{r_total}", engine=temps.heat_flux, fmt="0.0000",
-                    note="the closed form (6.7.1) against the finite-volume flux: they agree "
-                         "only if every coefficient of the solve is right")
-    _solution_record(w, temps)
-    for text in con.warnings:
-        put_warning(w, f"Warning: {text}")
-    last_row = w.row
-    st.last_row = last_row
-    st.node0 = node0
-    st.nodeN = nodeN
 
 
 def _temperature_chart(st) -> None:
@@ -398,8 +230,8 @@ def _temperature_chart(st) -> None:
     # ---- chart ---------------------------------------------------------------------------
     sheet.charts.append(Chart(
         "scatter", f"Temperature through {name}", f"B{chart_row}",
-        (ChartSeries("nodal temperature (finite volumes)", sheet_ref(sheet_name,
-                     f"M{node0}:M{nodeN}"), sheet_ref(sheet_name, f"E{node0}:E{nodeN}"),
+        (ChartSeries("nodal temperature (finite volumes)", sheet_ref(st.fv_sheet,
+                     f"M{node0}:M{nodeN}"), sheet_ref(st.fv_sheet, f"E{node0}:E{nodeN}"),
                      line=True, marker="circle", color="2E5A6B"),
          ChartSeries("surfaces and layer interfaces", sheet_ref(sheet_name,
                      f"G{first_if}:G{last_if}"), sheet_ref(sheet_name, f"E{first_if}:E{last_if}"),
@@ -430,18 +262,20 @@ def _check_count(st) -> object:
     w = st.w
     # ---- sheet check count ---------------------------------------------------------------
     w.block = sheet.block("header")
-    w.put(10, w.checks, role="engine", fmt="0", row=int(count_cell[1:]))
+    checks = w.checks + st.fv_w.checks  # this sheet's and its appendix's
+    w.put(10, checks, role="engine", fmt="0", row=int(count_cell[1:]))
     # the count starts below the header so that it never includes itself
-    w.put(10, formula=f'=COUNTIF(A{HEADER_ROWS + 1}:U{last_row},"OK")', fmt="0",
+    w.put(10, formula=f'=COUNTIF(A{HEADER_ROWS + 1}:U{last_row},"OK")+{st.fv_ok}', fmt="0",
           row=int(ok_ref[1:]))
     w.put(10, formula=f'=IF({ok_ref}={count_cell},"ALL CHECKS OK","NOT ALL OK")',
           style="hl check", role="formula", row=int(state_cell[1:]))
     return ConstructionRefs(
         sheet=sheet_name, name=name, r_total=sheet_ref(sheet_name, r_total),
         u_value=sheet_ref(sheet_name, u_val), u_reported=sheet_ref(sheet_name, u_rep),
-        checks_ok=sheet_ref(sheet_name, ok_ref), check_count=w.checks,
+        checks_ok=sheet_ref(sheet_name, ok_ref), check_count=checks,
         heat_flux=sheet_ref(sheet_name, q_ref),
         extras={"area": sheet_ref(sheet_name, area_ref),
                 "target": sheet_ref(sheet_name, target_ref),
-                "nodes": (node0, nodeN), "interfaces": (first_if, last_if)},
+                "nodes": (node0, nodeN), "fv_sheet": st.fv_sheet,
+                "interfaces": (first_if, last_if)},
     )

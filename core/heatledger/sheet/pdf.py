@@ -16,7 +16,8 @@ from pathlib import Path
 from ..errors import HeatLedgerError
 from ..fileio import write_bytes_atomic
 
-__all__ = ["spreadsheet_program", "workbook_to_pdf", "INSTALL_HINT", "CONVERT_TIMEOUT"]
+__all__ = ["spreadsheet_program", "workbook_to_pdf", "INSTALL_HINT", "CONVERT_TIMEOUT",
+           "layout_font_missing", "FONT_HINT"]
 
 #: How long a conversion may take. [s]
 CONVERT_TIMEOUT = 600.0
@@ -35,6 +36,26 @@ _PROFILE = """<?xml version="1.0" encoding="UTF-8"?>
 <prop oor:name="ODFRecalcMode" oor:op="fuse"><value>0</value></prop></item>
 </oor:items>
 """
+
+
+FONT_HINT = ("note: neither Calibri nor Carlito (its metric-compatible stand-in) is installed, "
+             "so LibreOffice printed with a wider font and some sheets take more pages "
+             "across (the text size is unchanged); for the pages as designed install Carlito "
+             "(Debian/Ubuntu: apt-get install fonts-crosextra-carlito)")
+
+
+def layout_font_missing() -> bool:
+    """True when the font system answers Calibri with neither Calibri nor Carlito (the
+    workbook's font and its metric-compatible stand-in); False when it cannot tell. [-]"""
+    exe = shutil.which("fc-match")
+    if exe is None:
+        return False
+    try:
+        found = subprocess.run([exe, "Calibri"], capture_output=True, text=True, timeout=30,
+                               check=False).stdout
+    except (OSError, subprocess.TimeoutExpired):
+        return False
+    return not any(name in found for name in ("Calibri", "Carlito"))
 
 
 def spreadsheet_program() -> str | None:

@@ -304,6 +304,10 @@ class PrintSetup:
         Footer texts.
     title_rows : str or None
         Rows repeated on every printed page, ``"1:4"``.
+    scale : int or None
+        Print scale in per cent; None fits ``fit_width`` pages across instead.
+    title_columns : str or None
+        Columns repeated at the left of every printed page, ``"A:B"``.
     """
 
     orientation: str = "portrait"
@@ -314,6 +318,8 @@ class PrintSetup:
     footer_left: str = ""
     footer_right: str = "page {page} of {pages}"
     title_rows: str | None = None
+    scale: int | None = None
+    title_columns: str | None = None
 
 
 @dataclass(frozen=True)
@@ -371,6 +377,8 @@ class Sheet:
         Row number -> height in points (header rows with wrapped text).
     row_breaks : list of int
         Rows after which a printed page ends.
+    col_breaks : list of int
+        Columns (1-based count) after which a printed page ends.
     """
 
     name: str
@@ -385,6 +393,7 @@ class Sheet:
     tab_color: str | None = None
     row_heights: dict[int, float] = field(default_factory=dict)
     row_breaks: list[int] = field(default_factory=list)
+    col_breaks: list[int] = field(default_factory=list)
 
     def __post_init__(self) -> None:
         bad = _SHEET_NAME_BAD.search(self.name)

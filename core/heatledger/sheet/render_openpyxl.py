@@ -27,13 +27,14 @@ from openpyxl.chart.shapes import GraphicalProperties
 from openpyxl.styles import Alignment, Border, Font, NamedStyle, PatternFill, Side
 from openpyxl.styles.cell_style import StyleArray
 from openpyxl.styles.numbers import BUILTIN_FORMATS_MAX_SIZE, BUILTIN_FORMATS_REVERSE
+from openpyxl.utils.cell import get_column_letter
 from openpyxl.workbook.defined_name import DefinedName
 from openpyxl.worksheet.datavalidation import DataValidation as XLDataValidation
 from openpyxl.worksheet.merge import MergedCellRange
 from openpyxl.worksheet.pagebreak import Break
-from openpyxl.writer.excel import ExcelWriter
 
 from ..errors import HeatLedgerError
+from .cell_xml import writer_class
 from .files import ZIP_EPOCH, write_bytes_atomic
 from .plan import STYLES, Chart, Style, WorkbookPlan, is_formula_like, split_ref
 
@@ -67,36 +68,11 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
 
     style_cache = _StyleCache(wb)
     charts = _ChartCache(wb)
-    for sheet in plan.sheets:
-        ws = wb.create_sheet(sheet.name)
-        cells = ws._cells
-        for cell in sheet.cells():
-            row, col = split_ref(cell.ref)
-            xc = _new_cell(ws, row, col)
-            quote = False
-            if cell.formula is not None:
-                xc._value = cell.formula
-                xc.data_type = "f"
-            else:
-                value = cell.value
-                kind = type(value)
-                if value is None:
-                    pass
-                elif kind is str:
-                    # always text: never a formula, never an error code such as '#N/A'
-                    value = ILLEGAL_CHARACTERS_RE.sub("", value)[:32767]
-                    xc._value = value
-                    xc.data_type = "s"
-                    quote = is_formula_like(value)
-                elif kind is float or kind is int:
-                    xc._value = value
-                elif kind is bool:
-                    xc._value = value
-                    xc.data_type = "b"
-                else:
-                    xc.value = value
-            xc._style, xc.style_id = style_cache.get(cell.style, cell.number_format, quote)
-            cells[(row, col)] = xc
+    places: dict[str, tuple] = {}  # reference -> (row, column, coordinate), across sheets
+    # every sheet exists before any is filled: a chart may show data of a later sheet
+    worksheets = [wb.create_sheet(sheet.name) for sheet in plan.sheets]
+    for sheet, ws in zip(plan.sheets, worksheets, strict=True):
+        _write_cells(ws, sheet, style_cache, places)
         for rng in sheet.merges:
             _merge(ws, rng)
         for letters, width in sheet.column_widths.items():
@@ -105,6 +81,8 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
             ws.row_dimensions[row].height = height
         for row in sheet.row_breaks:
             ws.row_breaks.append(Break(id=row))
+        for col in sheet.col_breaks:
+            ws.col_breaks.append(Break(id=col))
         if sheet.freeze:
             ws.freeze_panes = sheet.freeze
         if sheet.tab_color:
@@ -135,6 +113,46 @@ def render_workbook(plan: WorkbookPlan) -> Workbook:
     return wb
 
 
+def _write_cells(ws, sheet, style_cache, places: dict) -> None:
+    """The plan's cells of ``sheet`` as openpyxl cells of ``ws``, each value as its type
+    (text always as text) with its shared style."""
+    cells = ws._cells
+    for cell in sheet.cells():
+        place = places.get(cell.ref)
+        if place is None:
+            place = places[cell.ref] = _place(cell.ref)
+        row, col, _ = place
+        xc = _new_cell(ws, place)
+        quote = False
+        if cell.formula is not None:
+            xc._value = cell.formula
+            xc.data_type = "f"
+        else:
+            value = cell.value
+            kind = type(value)
+            if value is None:
+                pass
+            elif kind is str:
+                # always text: never a formula, never an error code such as '#N/A'
+                if not value.isprintable():  # control characters: none in printable text
+                    value = ILLEGAL_CHARACTERS_RE.sub("", value)
+                if len(value) > 32767:
+                    value = value[:32767]
+                xc._value = value
+                xc.data_type = "s"
+                quote = is_formula_like(value)
+            elif kind is float or kind is int:
+                xc._value = value
+            elif kind is bool:
+                xc._value = value
+                xc.data_type = "b"
+            else:
+                xc.value = value
+        xc._style, xc.style_id, xc.has_style = style_cache.get(cell.style,
+                                                               cell.number_format, quote)
+        cells[(row, col)] = xc
+
+
 def _image(pic):
     """An openpyxl image of a plan's picture, sized on the page (96 pixels per inch)."""
     from openpyxl.drawing.image import Image  # needs Pillow, as the pictures' maker does
@@ -161,8 +179,9 @@ def workbook_bytes(plan: WorkbookPlan) -> bytes:
     buf = io.BytesIO()
     archive = _FixedTimeZipFile(buf, "w", ZIP_DEFLATED, allowZip64=True)
     # ExcelWriter keeps the modified time we set; openpyxl's save_workbook would stamp now.
+    # Its plain cells are written as text, as openpyxl writes them (sheet/cell_xml.py).
     wb.properties.modified = plan.timestamp
-    ExcelWriter(wb, archive).save()
+    writer_class()(wb, archive).save()
     return buf.getvalue()
 
 
@@ -219,23 +238,38 @@ class _FixedTimeZipFile(ZipFile):
 
 
 class _PlanCell(Cell):
-    """An openpyxl cell whose style index is fixed when it is rendered.
+    """An openpyxl cell whose style index and coordinate are fixed when it is rendered.
 
     openpyxl looks a cell's style up in the workbook's style list every time it writes the
-    cell (``style_id``); a rendered cell's style never changes, so the index is looked up
-    once per style (:class:`_StyleCache`) and kept in the slot that hides the property.
+    cell (``style_id``), tests its style array for any non-zero entry (``has_style``) and
+    writes its coordinate from the row and column (``coordinate``); a rendered cell never
+    moves and its style never changes, so each is worked out once (per style in
+    :class:`_StyleCache`, per reference in :func:`render_workbook`) and kept in the slot
+    that hides the property.
     """
 
-    __slots__ = ("style_id",)
+    __slots__ = ("style_id", "has_style", "coordinate")
 
 
-def _new_cell(ws, row: int, col: int) -> Cell:
+class _PlanMergedCell(MergedCell):
+    """A cell covered by a merged range, with the style index, the style flag and the
+    coordinate fixed like a :class:`_PlanCell`'s (it shares the top-left cell's style)."""
+
+    __slots__ = ("style_id", "has_style", "coordinate")
+
+
+def _place(a1: str) -> tuple:
+    """Row, column and openpyxl's coordinate text of a plan reference. [-]"""
+    row, col = split_ref(a1)
+    return row, col, f"{get_column_letter(col)}{row}"
+
+
+def _new_cell(ws, place: tuple) -> Cell:
     """An empty openpyxl cell with its slots set directly: what ``Cell(ws, row, col)`` does,
     without the descriptor and argument handling that cost a fifth of rendering."""
     xc = _PlanCell.__new__(_PlanCell)
     xc.parent = ws
-    xc.row = row
-    xc.column = col
+    xc.row, xc.column, xc.coordinate = place
     xc._value = None
     xc._hyperlink = None
     xc._comment = None
@@ -293,7 +327,7 @@ class _StyleCache:
                 arr.numFmtId = self.wb._number_formats.add(fmt) + BUILTIN_FORMATS_MAX_SIZE
             if quote:
                 arr.quotePrefix = 1
-            arr = (arr, self.wb._cell_styles.add(arr))
+            arr = (arr, self.wb._cell_styles.add(arr), any(arr))
             self.arrays[key] = arr
         # one shared array per style, with its index in the workbook's style list: nothing
         # mutates a cell's style after rendering
@@ -313,6 +347,16 @@ def _merge(ws, rng: str) -> None:
     style = top._style if top is not None else None
     cells = mcr.cells
     next(cells)
+    if isinstance(top, _PlanCell):  # the top-left cell's shared style, index and flag
+        fixed = (top._style, top.style_id, top.has_style)
+        for row, col in cells:
+            mc = _PlanMergedCell.__new__(_PlanMergedCell)
+            mc.parent = ws
+            mc.row, mc.column = row, col
+            mc.coordinate = f"{get_column_letter(col)}{row}"
+            mc._style, mc.style_id, mc.has_style = fixed
+            ws._cells[row, col] = mc
+        return
     for row, col in cells:
         mc = MergedCell(ws, row, col)
         if style is not None:
@@ -482,9 +526,12 @@ def _hf(text: str) -> str:
 def _print_setup(ws, setup) -> None:
     ws.page_setup.paperSize = ws.PAPERSIZE_A4
     ws.page_setup.orientation = setup.orientation
-    ws.sheet_properties.pageSetUpPr.fitToPage = True
-    ws.page_setup.fitToWidth = setup.fit_width
-    ws.page_setup.fitToHeight = setup.fit_height
+    if setup.scale is None:
+        ws.sheet_properties.pageSetUpPr.fitToPage = True
+        ws.page_setup.fitToWidth = setup.fit_width
+        ws.page_setup.fitToHeight = setup.fit_height
+    else:
+        ws.page_setup.scale = setup.scale
     ws.print_options.horizontalCentered = True
     ws.page_margins.left = ws.page_margins.right = 0.5
     ws.page_margins.top = ws.page_margins.bottom = 0.7
@@ -493,9 +540,11 @@ def _print_setup(ws, setup) -> None:
         ws.oddHeader.center.size = 9
     if setup.footer_left:
         ws.oddFooter.left.text = _hf(setup.footer_left)
-        ws.oddFooter.left.size = 8
+        ws.oddFooter.left.size = 9
     if setup.footer_right:
         ws.oddFooter.right.text = _hf(setup.footer_right)
-        ws.oddFooter.right.size = 8
+        ws.oddFooter.right.size = 9
     if setup.title_rows:
         ws.print_title_rows = setup.title_rows
+    if setup.title_columns:
+        ws.print_title_cols = setup.title_columns
