@@ -9,8 +9,8 @@ One function table (:func:`function_table`) is read from
   wizard marks it required), an optional one ``any`` (Calc treats only ``any`` arguments as
   optional, and passes nothing for one left out). A function whose result is a table returns
   ``sequence< sequence< any > >``, the others ``any`` (a number or a text);
-- :func:`xcu_text` - ``CalcAddIns.xcu``: display name, description, category and compatibility
-  name of each function and the display name and description of each argument, as the
+- :func:`xcu_text` - ``CalcAddIns.xcu``: display name, description and category of each
+  function and the display name and description of each argument, as the
   function wizard shows them;
 - :func:`components_text`, :func:`manifest_text`, :func:`description_text` - the component
   registration (Python loader), the package manifest and the extension's identity.
@@ -174,7 +174,6 @@ def xcu_text(table: dict) -> str:
         out.append(f'<prop oor:name="Category"><value>{CATEGORY}</value></prop>')
         out.append('<prop oor:name="CategoryDisplayName">'
                    f'{_value("heatledger " + f["family"])}</prop>')
-        out.append(f'<prop oor:name="CompatibilityName">{_value(f["name"])}</prop>')
         out.append('<node oor:name="Parameters">')
         for a in f["args"]:
             out.append(f'<node oor:name={quoteattr(a["idl"])} oor:op="replace">')

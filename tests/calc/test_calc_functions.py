@@ -302,8 +302,9 @@ def test_same_inputs_same_results_in_python_xlwings_server_and_calc(calc, xl):  
             assert_same(server, cell)
 
 
-def test_a_saved_document_reopens_and_recalculates(calc, tmp_path):
-    path = tmp_path / "wall.ods"
+@pytest.mark.parametrize("suffix", ["ods", "xlsx"])
+def test_a_saved_document_reopens_and_recalculates(calc, tmp_path, suffix):
+    path = tmp_path / f"wall.{suffix}"
     cells = cells_of(WALL)
     cells["E1"] = f"={U_FUNCTION}({WALL_RANGE})"
     first = evaluate(calc, cells, ["E1"], save_as=str(path))
@@ -312,3 +313,18 @@ def test_a_saved_document_reopens_and_recalculates(calc, tmp_path):
     again = shown(answer["read"]["E1"][0][0])
     assert again == first["E1"][0][0] == pytest.approx(python(U_FUNCTION, as_passed(WALL)),
                                                        rel=RTOL_ULP)
+
+
+def test_an_excel_workbook_calling_the_functions_shows_name_errors_in_calc(calc, tmp_path):
+    # README: Calc 7.4's Excel import does not hand unknown function names to add-ins
+    import openpyxl
+
+    book = openpyxl.Workbook()
+    sheet = book.active
+    for row in WALL:
+        sheet.append(row)
+    sheet["E1"] = f"={U_FUNCTION}({WALL_RANGE.replace(';', ',')})"
+    path = tmp_path / "from_excel.xlsx"
+    book.save(path)
+    answer = calc.request({"op": "load", "path": str(path), "read": ["E1"]})
+    assert shown(answer["read"]["E1"][0][0]) == ("error", "#NAME?")

@@ -17,7 +17,7 @@ import sys
 
 import unohelper
 from com.sun.star.lang import Locale, XServiceInfo, XServiceName
-from com.sun.star.sheet import LocalizedName, XAddIn, XCompatibilityNames
+from com.sun.star.sheet import XAddIn
 
 with open(os.path.join(os.path.dirname(os.path.abspath(__file__)), "heatledger_functions.json"),
           encoding="utf-8") as _file:
@@ -74,8 +74,7 @@ def _method(name):
     return method
 
 
-class HeatLedgerFunctions(unohelper.Base, _interface(), XAddIn, XCompatibilityNames,
-                          XServiceName, XServiceInfo):
+class HeatLedgerFunctions(unohelper.Base, _interface(), XAddIn, XServiceName, XServiceInfo):
     """The add-in object: one method per function (added below), and its descriptions."""
 
     def __init__(self, ctx):
@@ -111,10 +110,6 @@ class HeatLedgerFunctions(unohelper.Base, _interface(), XAddIn, XCompatibilityNa
 
     def getLocale(self):
         return self.locale
-
-    # XCompatibilityNames: the same name in Excel files, so .xlsx files keep HL_ calls
-    def getCompatibilityNames(self, name):
-        return (LocalizedName(Locale("en", "US", ""), name),) if name in FUNCTIONS else ()
 
     # XServiceName, XServiceInfo
     def getServiceName(self):

@@ -10,7 +10,7 @@ request per input line with one JSON line:
   calculation off, the cells set (a text starting with ``=`` is a formula; ``data`` sets
   numbers and texts a range at a time, ``arrays`` are array formulas over a range, ``blocks``
   formulas a range at a time), one full recalculation, a copy saved to ``save_as`` (an
-  .ods, by its extension) if given, then each ``read``
+  .ods or .xlsx, by its extension) if given, then each ``read``
   range cell by cell (``["number", x]``, ``["text", s]``, ``["empty"]``, ``["error", code,
   shown]``) and each ``bulk`` range as its data array with the addresses of error cells;
 - ``{"op": "load", "path": "/abs/book.xlsx", "read": [...], "bulk": [...]}`` - the same on
@@ -28,6 +28,7 @@ import sys
 import time
 
 _FORMULA_VALUE, _FORMULA_TEXT = 1, 2
+_FILTERS = {"ods": "calc8", "xlsx": "Calc MS Excel 2007 XML"}
 
 
 def _connect(uno, pipe, wait_s=120.0):
@@ -116,7 +117,10 @@ def _evaluate(uno, desktop, req):
         out = {"read": {n: _read(sheet, n) for n in req.get("read", [])}, "bulk": {},
                "seconds": seconds}
         if req.get("save_as"):
-            doc.storeToURL(uno.systemPathToFileUrl(req["save_as"]), ())
+            kind = uno.createUnoStruct("com.sun.star.beans.PropertyValue")
+            kind.Name = "FilterName"
+            kind.Value = _FILTERS[req["save_as"].rpartition(".")[2].lower()]
+            doc.storeToURL(uno.systemPathToFileUrl(req["save_as"]), (kind,))
         for name in req.get("bulk", []):
             rng = sheet.getCellRangeByName(name)
             errors = rng.queryFormulaCells(ERROR).getRangeAddressesAsString()
