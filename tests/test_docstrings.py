@@ -13,7 +13,7 @@ import pytest
 
 import heatledger
 
-PACKAGES = ["heatledger", "heatledger_xl"]
+PACKAGES = ["heatledger", "heatledger_xl", "heatledger_calc"]
 UNIT_AT_END = re.compile(r"\[[^\[\]]+\]\s*$")
 PARAM_LINE = re.compile(r"^(\*{0,2}[A-Za-z_][\w]*(?:\s*,\s*\*{0,2}[A-Za-z_][\w]*)*)(\s*:.*)?$")
 

@@ -3,6 +3,7 @@
     heatledger demo                 results of the (invented) demo project as a table
     heatledger calc FILE [--json]   results of a TOML project file
     heatledger materials [--json]   the material library
+    heatledger calc-addin build|install|remove   the functions as a LibreOffice Calc extension
 
 Exit codes: 0 success, 1 input problem (message on stderr), 2 usage error, 3 a defect of
 heatledger (one line on stderr; HEATLEDGER_TRACEBACK=1 shows the traceback).
@@ -288,4 +289,57 @@ def _parser() -> argparse.ArgumentParser:
     m = sub.add_parser("materials", help="list the material library")
     m.add_argument("--json", action="store_true", help="machine-readable output")
     m.set_defaults(handler=_cmd_materials)
+    _calc_addin_parser(sub)
     return p
+
+
+def _calc_addin_parser(sub) -> None:
+    x = sub.add_parser("calc-addin", help="the spreadsheet functions as a LibreOffice Calc "
+                       "extension: build, install, remove")
+    xs = x.add_subparsers(dest="action", metavar="ACTION", required=True)
+    b = xs.add_parser("build", help="write the extension (.oxt) built from this environment")
+    b.add_argument("-o", "--output", metavar="OXT", required=True, help="output file (.oxt)")
+    b.add_argument("--force", action="store_true", help="replace an existing output file")
+    i = xs.add_parser("install", help="build the extension and install it with unopkg add "
+                      "(close LibreOffice first)")
+    i.add_argument("--oxt", metavar="OXT", help="install this extension file instead of "
+                   "building one")
+    i.add_argument("--shared", action="store_true",
+                   help="install for every user of this machine (unopkg --shared)")
+    r = xs.add_parser("remove", help="uninstall the extension (unopkg remove)")
+    r.add_argument("--shared", action="store_true", help="remove the copy for every user")
+    x.set_defaults(handler=_cmd_calc_addin)
+
+
+def _cmd_calc_addin(args) -> int:
+    try:
+        from heatledger_calc import build, install
+    except ImportError:
+        raise HeatLedgerError("heatledger_calc is not installed in this environment; "
+                              "reinstall heatledger (pip install heatledger)") from None
+    if args.action == "build":
+        path = build.build_extension(args.output, force=args.force)
+        sys.stderr.write(f"heatledger: Calc extension written to {path}; install it with "
+                         f"`unopkg add {path}` or `heatledger calc-addin install --oxt "
+                         f"{path}`\n")
+        return 0
+    if args.action == "remove":
+        install.remove_extension(shared=args.shared)
+        sys.stderr.write("heatledger: Calc extension removed\n")
+        return 0
+    return _install_calc_addin(args, build, install)
+
+
+def _install_calc_addin(args, build, install) -> int:
+    import tempfile
+    from pathlib import Path
+
+    install.check_scope(args.shared)
+    with tempfile.TemporaryDirectory(prefix="heatledger-oxt-") as tmp:
+        oxt = Path(args.oxt) if args.oxt else build.build_extension(Path(tmp) / "heatledger.oxt")
+        install.install_extension(oxt, shared=args.shared)
+    where = "every user of this machine" if args.shared else "you"
+    sys.stderr.write(f"heatledger: Calc extension installed for {where}; start LibreOffice "
+                     "Calc and type =HL_VERSION() in a cell (the functions are in the "
+                     "Add-In category of the function wizard)\n")
+    return 0
