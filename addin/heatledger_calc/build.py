@@ -27,8 +27,25 @@ from heatledger.errors import HeatLedgerError
 
 from . import extension as ext
 
-__all__ = ["soffice_path", "program_dir", "unoidl_write_path", "site_dirs",
+__all__ = ["soffice_path", "program_dir", "unoidl_write_path", "site_dirs", "office_env",
            "extension_files", "extension_bytes", "build_extension"]
+
+def office_env() -> dict[str, str]:
+    """The environment for LibreOffice's programs: this one without an active virtual
+    environment (``VIRTUAL_ENV``, its ``bin`` on ``PATH``) and without ``PYTHONHOME`` or
+    ``PYTHONPATH``. LibreOffice's Python is the system's; started from an activated virtual
+    environment of another Python build, its UNO bridge failed (``std::bad_alloc`` on the
+    first call), seen on this machine. [-]"""
+    env = dict(os.environ)
+    venv = env.pop("VIRTUAL_ENV", None)
+    for key in ("PYTHONHOME", "PYTHONPATH", "VIRTUAL_ENV_PROMPT"):
+        env.pop(key, None)
+    if venv:
+        own = os.path.join(venv, "bin")
+        env["PATH"] = os.pathsep.join(p for p in env.get("PATH", "").split(os.pathsep)
+                                      if p and os.path.normpath(p) != os.path.normpath(own))
+    return env
+
 
 #: Where Debian/Ubuntu and the LibreOffice packages put their programs and SDK tools.
 _PROGRAM_DIRS = ("/usr/lib/libreoffice/program", "/opt/libreoffice/program")
@@ -93,8 +110,8 @@ def _type_library(idl: str) -> bytes:
         src = Path(tmp) / "heatledger.idl"
         out = Path(tmp) / ext.TYPES_FILE
         src.write_text(idl, encoding="utf-8")
-        proc = subprocess.run([tool, str(types), str(src), str(out)], capture_output=True,
-                              text=True, timeout=120, check=False)
+        proc = subprocess.run([tool, str(types), str(src), str(out)], env=office_env(),
+                              capture_output=True, text=True, timeout=120, check=False)
         if proc.returncode != 0 or not out.is_file():
             detail = " ".join((proc.stderr or proc.stdout).split())[:300]
             raise HeatLedgerError(f"unoidl-write could not compile the extension's interface "

@@ -15,7 +15,7 @@ from pathlib import Path
 
 from heatledger.errors import HeatLedgerError
 
-from .build import program_dir
+from .build import office_env, program_dir
 from .extension import EXTENSION_ID
 
 __all__ = ["unopkg_path", "location_args", "check_scope", "install_extension",
@@ -68,7 +68,7 @@ def check_scope(shared: bool) -> None:
 
 def _unopkg(args: list[str], what: str) -> str:
     proc = subprocess.run([unopkg_path(), *args], capture_output=True, text=True,
-                          timeout=300, check=False)
+                          timeout=300, env=office_env(), check=False)
     out = " ".join((proc.stdout + " " + proc.stderr).split())
     if proc.returncode != 0:
         raise HeatLedgerError(f"unopkg could not {what} (exit {proc.returncode}): "

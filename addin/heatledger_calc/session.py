@@ -18,7 +18,7 @@ from pathlib import Path
 
 from heatledger.errors import HeatLedgerError
 
-from .build import NO_LIBREOFFICE, program_dir, soffice_path
+from .build import NO_LIBREOFFICE, office_env, program_dir, soffice_path
 from .install import install_extension, location_args
 
 __all__ = ["NO_UNO", "uno_python", "CalcSession"]
@@ -40,7 +40,7 @@ def uno_python() -> str:
     for exe in filter(None, candidates):
         if os.access(exe, os.X_OK) and subprocess.run(
                 [exe, "-c", "import uno"], capture_output=True, timeout=60,
-                check=False).returncode == 0:
+                env=office_env(), check=False).returncode == 0:
             return exe
     raise HeatLedgerError(NO_UNO)
 
@@ -79,11 +79,12 @@ class CalcSession:
         self.soffice = subprocess.Popen(
             [exe, *location_args(self.profile, self.shared), "--headless", "--invisible",
              "--norestore", "--nologo", "--nodefault", "--nolockcheck",
-             f"--accept=pipe,name={self.pipe};urp;"], stdout=log, stderr=log)
+             f"--accept=pipe,name={self.pipe};urp;"], stdout=log, stderr=log,
+            env=office_env())
         self._log = log
         driver = resources.files("heatledger_calc").joinpath("uno/driver.py")
         self.driver = subprocess.Popen([python, str(driver), self.pipe], stdin=subprocess.PIPE,
-                                       stdout=subprocess.PIPE, text=True)
+                                       stdout=subprocess.PIPE, text=True, env=office_env())
         if json.loads(self.driver.stdout.readline() or "{}").get("ready") is not True:
             self.close()
             raise HeatLedgerError("the UNO driver could not connect to LibreOffice; see "

@@ -200,3 +200,15 @@ def test_built_extension_holds_the_generated_files(calc_oxt):
         assert stored["functions"] == TABLE["functions"]
         assert stored["site_dirs"] and stored["python"] == list(sys.version_info[:2])
         assert zf.read(ext.XCU_FILE).decode("utf-8") == ext.xcu_text(TABLE)
+
+
+def test_libreoffice_runs_without_the_active_virtual_environment(monkeypatch):
+    """LibreOffice's own Python must not see a virtual environment of another Python."""
+    from heatledger_calc.build import office_env
+
+    monkeypatch.setenv("VIRTUAL_ENV", "/somewhere/.venv")
+    monkeypatch.setenv("PATH", "/somewhere/.venv/bin:/usr/bin:/bin")
+    monkeypatch.setenv("PYTHONPATH", "/somewhere/lib")
+    env = office_env()
+    assert "VIRTUAL_ENV" not in env and "PYTHONPATH" not in env
+    assert env["PATH"] == "/usr/bin:/bin"
