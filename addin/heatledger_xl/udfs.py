@@ -69,8 +69,8 @@ __all__ = [
     "HL_RSURFACE",
     "HL_RSURFACE_CALC",
     "HL_RAIR",
-    "HL_TINTERFACES",
-    "HL_TNODES",
+    "HL_INTERFACE_TEMPS",
+    "HL_NODE_TEMPS",
     "HL_FVCHECK",
     "HL_HEATFLUX",
     "HL_THICKNESS",
@@ -277,7 +277,7 @@ _TEMP_ARGS = {"layers": _LAYERS, "temp_inside": _T_IN, "temp_outside": _T_OUT,
 
 @udf(FAMILY, returns="spill: interface, x [mm], temperature [degC]",
      args={**_TEMP_ARGS, "header": _HEADER}, ranges=("layers",), spills=True)
-def HL_TINTERFACES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=None,
+def HL_INTERFACE_TEMPS(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=None,
                    header=None):
     """Temperatures at the inside surface, every layer interface and the outside surface
     from the resistance ladder, as rows of interface, x from the inside, temperature.
@@ -303,7 +303,7 @@ def HL_TINTERFACES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, 
            "nodes_per_layer": "Finite-volume cells in each layer, 1 to 200; default 4. [-]",
            "header": _HEADER},
      ranges=("layers",), spills=True)
-def HL_TNODES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=None,
+def HL_NODE_TEMPS(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=None,
               nodes_per_layer=None, header=None):
     """Nodal temperatures through a layer table by the 1-D finite-volume solver, as rows of
     node, layer number, x of the cell centre from the inside, temperature. [mm, degC]"""
@@ -324,7 +324,7 @@ def HL_TNODES(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=N
      ranges=("layers",), spills=True)
 def HL_FVCHECK(layers, temp_inside, temp_outside, heat_flow=None, rsi=None, rse=None,
                nodes_per_layer=None, header=None):
-    """Checks of the finite-volume solution behind HL_TNODES: energy-balance residual, the
+    """Checks of the finite-volume solution behind HL_NODE_TEMPS: energy-balance residual, the
     heat flux against the closed-form resistance ladder, and the mesh estimate (exact for
     layers without heat sources). [-, W/m2, K]"""
     show_header = flag("header", header, False)
@@ -535,7 +535,7 @@ def _solving(c, layers, solve):
 def _nodal_solution(c, layers, t_i, t_e, n):
     """Layer numbers, cell centres [m] and temperatures [degC] of the 1-D finite-volume
     solution with ``n`` cells in each counted layer, checked against the ladder (one solve;
-    the engine computes a mesh estimate only when it is read, and HL_TNODES reads none)."""
+    the engine computes a mesh estimate only when it is read, and HL_NODE_TEMPS reads none)."""
     res = _solving(c, layers, lambda: c.temperatures(t_i, t_e, nodes_per_layer=n))
     temps = res.temperature.tolist()
     _check_fv(c, layers, t_i, t_e, res.interface_temperatures.tolist(), temps,

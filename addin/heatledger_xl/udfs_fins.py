@@ -9,14 +9,14 @@ Three groups, lengths in millimetres as on a data sheet, everything else SI:
 
 - **Straight fins** (plates and pins of rectangular, triangular or parabolic profile):
   ``HL_FIN_HEATRATE``, ``HL_FIN_EFFICIENCY``, ``HL_FIN_EFFECTIVENESS``,
-  ``HL_FIN_RESISTANCE``, ``HL_FIN_TIPTEMP``, ``HL_FIN_TEMPS`` (spill), ``HL_FIN_RESULTS``
+  ``HL_FIN_RESISTANCE``, ``HL_FIN_TIP_TEMP``, ``HL_FIN_TEMPS`` (spill), ``HL_FIN_RESULTS``
   (spill with warnings and the finite-volume cross-check). Arguments in one order:
   ``length_mm, size_mm, conductivity, h, temp_base, temp_fluid`` then the optional
   ``shape`` ("plate"/"pin"), ``tip`` ("convective", "adiabatic", "temperature",
   "infinite", or "corrected" = convective tip by the corrected length), ``width_mm``
   (plates; blank = 1000 mm, results per metre of base), ``tip_temperature``, ``profile``.
 - **Annular fins** on a tube: ``HL_ANNULAR_HEATRATE``, ``HL_ANNULAR_EFFICIENCY``,
-  ``HL_ANNULAR_EFFECTIVENESS``, ``HL_ANNULAR_TIPTEMP``, ``HL_ANNULAR_TEMPS`` (spill), with
+  ``HL_ANNULAR_EFFECTIVENESS``, ``HL_ANNULAR_TIP_TEMP``, ``HL_ANNULAR_TEMPS`` (spill), with
   ``tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h, temp_base,
   temp_fluid`` and the optional ``tip`` ("adiabatic", "convective", "corrected").
 - **Fin sets** described by a two-column range of keys and values, the keys of a
@@ -82,13 +82,13 @@ __all__ = [
     "HL_FIN_EFFICIENCY",
     "HL_FIN_EFFECTIVENESS",
     "HL_FIN_RESISTANCE",
-    "HL_FIN_TIPTEMP",
+    "HL_FIN_TIP_TEMP",
     "HL_FIN_TEMPS",
     "HL_FIN_RESULTS",
     "HL_ANNULAR_HEATRATE",
     "HL_ANNULAR_EFFICIENCY",
     "HL_ANNULAR_EFFECTIVENESS",
-    "HL_ANNULAR_TIPTEMP",
+    "HL_ANNULAR_TIP_TEMP",
     "HL_ANNULAR_TEMPS",
     "HL_FINSET",
     "HL_FINSET_VALUE",
@@ -175,7 +175,7 @@ def HL_FIN_RESISTANCE(length_mm, size_mm, conductivity, h, temp_base, temp_fluid
 
 
 @udf(FAMILY, returns="tip temperature [degC]", args=_STRAIGHT)
-def HL_FIN_TIPTEMP(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
+def HL_FIN_TIP_TEMP(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
                    tip=None, width_mm=None, tip_temperature=None, profile=None):
     """Temperature at the tip of a straight fin from the closed-form temperature
     distribution (Incropera & DeWitt Table 3.4). [degC]"""
@@ -246,7 +246,7 @@ def HL_ANNULAR_EFFECTIVENESS(tube_diameter_mm, fin_diameter_mm, thickness_mm, co
 
 
 @udf(FAMILY, returns="rim temperature [degC]", args=_ANNULAR)
-def HL_ANNULAR_TIPTEMP(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
+def HL_ANNULAR_TIP_TEMP(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
                        temp_base, temp_fluid, tip=None):
     """Temperature at the outer radius (rim) of an annular fin from the Bessel-function
     temperature distribution. [degC]"""

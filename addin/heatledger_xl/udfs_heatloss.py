@@ -8,12 +8,12 @@ text that starts with the function name and names the argument and the rule. Opt
 arguments are read first, so a bad optional value is named even while required cells are
 still blank.
 
-- ``HL_WINDOW_U``: whole-window U-value, EN ISO 10077-1 (glazing, frame, glazing edge,
+- ``HL_WINDOW_UVALUE``: whole-window U-value, EN ISO 10077-1 (glazing, frame, glazing edge,
   optional opaque panel).
-- ``HL_SLAB_U``, ``HL_SUSPENDED_FLOOR_U``, ``HL_BASEMENT_U``: ground-floor U-values,
+- ``HL_SLAB_UVALUE``, ``HL_SUSPENDED_FLOOR_UVALUE``, ``HL_BASEMENT_UVALUE``: ground-floor U-values,
   EN ISO 13370 (wall thickness in mm as on a drawing; everything else SI).
 - ``HL_SOIL_CONDUCTIVITY``: EN ISO 13370 Table 7 by soil type.
-- ``HL_VENTILATION_H``: ventilation heat-loss coefficient from an air flow in m3/h.
+- ``HL_VENTILATION_HV``: ventilation heat-loss coefficient from an air flow in m3/h.
 - ``HL_ROOM_HT`` and ``HL_ROOM_LOAD``: transmission coefficient and design heat load of a
   room from an element range (conventions below); ``HL_ROOM_SHARES`` spills the breakdown.
 - ``HL_ANNUAL_ENERGY``: degree-day annual heating energy (the base temperature is in the
@@ -33,7 +33,7 @@ col  heading (suggested)        rule
 4    temperature other side     [degC]; blank = outside air at ``temp_outside``; the text
                                 ``ground`` = the ground (EN 12831-1 factor f_g1 f_g2 G_w
                                 from ``annual_mean_external_temperature`` and
-                                ``groundwater``; U_equiv from ``HL_SLAB_U`` ...).
+                                ``groundwater``; U_equiv from ``HL_SLAB_UVALUE`` ...).
 5    adjustment factor b        [-], 0 to 1, instead of column 4 (unheated space of unknown
                                 temperature).
 6    Delta U_TB                 [W/(m2 K)], blanket thermal-bridge allowance (areas only).
@@ -91,12 +91,12 @@ from .ranges import check_blank_below
 from .registry import udf
 
 __all__ = [
-    "HL_WINDOW_U",
-    "HL_SLAB_U",
-    "HL_SUSPENDED_FLOOR_U",
-    "HL_BASEMENT_U",
+    "HL_WINDOW_UVALUE",
+    "HL_SLAB_UVALUE",
+    "HL_SUSPENDED_FLOOR_UVALUE",
+    "HL_BASEMENT_UVALUE",
     "HL_SOIL_CONDUCTIVITY",
-    "HL_VENTILATION_H",
+    "HL_VENTILATION_HV",
     "HL_ROOM_HT",
     "HL_ROOM_LOAD",
     "HL_ROOM_SHARES",
@@ -168,7 +168,7 @@ _D = {
                     "or \"shallow\" (G_w 1.15). [-]"),
     "temp_inside": "Design internal temperature of the room. [degC]",
     "temp_outside": "Design external temperature, below temp_inside. [degC]",
-    "ventilation_coefficient": "Ventilation heat-loss coefficient H_V (HL_VENTILATION_H); "
+    "ventilation_coefficient": "Ventilation heat-loss coefficient H_V (HL_VENTILATION_HV); "
                                "blank = 0. [W/K]",
     "reheat": "Heating-up allowance Phi_hu = f_RH A_floor; blank = 0. [W]",
     "heat_loss_coefficient": "Heat-loss coefficient H = H_T + H_V. [W/K]",
@@ -187,7 +187,7 @@ def _args(*names):
      args=_args("glazing_area", "frame_area", "glazing_u", "frame_u", "glazing_perimeter",
                 "psi_glazing", "panel_area", "panel_u", "panel_perimeter", "psi_panel",
                 "window_area"))
-def HL_WINDOW_U(glazing_area, frame_area, glazing_u, frame_u, glazing_perimeter, psi_glazing,
+def HL_WINDOW_UVALUE(glazing_area, frame_area, glazing_u, frame_u, glazing_perimeter, psi_glazing,
                 panel_area=None, panel_u=None, panel_perimeter=None, psi_panel=None,
                 window_area=None):
     """Whole-window U-value by EN ISO 10077-1: (A_g U_g + A_f U_f + l_g psi_g + A_p U_p +
@@ -217,7 +217,7 @@ def HL_WINDOW_U(glazing_area, frame_area, glazing_u, frame_u, glazing_perimeter,
      args=_args("area", "exposed_perimeter", "wall_thickness_mm", "floor_resistance",
                 "soil_conductivity", "edge_orientation", "edge_extent", "edge_resistance",
                 "edge_thickness_mm", "exposed_outline"))
-def HL_SLAB_U(area, exposed_perimeter, wall_thickness_mm, floor_resistance,
+def HL_SLAB_UVALUE(area, exposed_perimeter, wall_thickness_mm, floor_resistance,
               soil_conductivity=None, edge_orientation=None, edge_extent=None,
               edge_resistance=None, edge_thickness_mm=None, exposed_outline=None):
     """U-value of a slab-on-ground floor by EN ISO 13370 8.2 (both regimes by d_t against B'),
@@ -241,7 +241,7 @@ def HL_SLAB_U(area, exposed_perimeter, wall_thickness_mm, floor_resistance,
                 "underfloor_height", "underfloor_wall_u", "vent_area_per_perimeter",
                 "wind_speed", "wind_shielding", "ground_insulation_resistance",
                 "soil_conductivity", "exposed_outline"))
-def HL_SUSPENDED_FLOOR_U(area, exposed_perimeter, wall_thickness_mm, deck_resistance,
+def HL_SUSPENDED_FLOOR_UVALUE(area, exposed_perimeter, wall_thickness_mm, deck_resistance,
                          underfloor_height, underfloor_wall_u, vent_area_per_perimeter,
                          wind_speed, wind_shielding, ground_insulation_resistance=None,
                          soil_conductivity=None, exposed_outline=None):
@@ -269,7 +269,7 @@ def HL_SUSPENDED_FLOOR_U(area, exposed_perimeter, wall_thickness_mm, deck_resist
 @udf(FAMILY, returns="U' [W/(m2 K)]",
      args=_args("area", "exposed_perimeter", "wall_thickness_mm", "floor_resistance",
                 "wall_resistance", "depth", "soil_conductivity", "exposed_outline"))
-def HL_BASEMENT_U(area, exposed_perimeter, wall_thickness_mm, floor_resistance,
+def HL_BASEMENT_UVALUE(area, exposed_perimeter, wall_thickness_mm, floor_resistance,
                   wall_resistance, depth, soil_conductivity=None, exposed_outline=None):
     """Combined U-value U' = (A U_bf + z P U_bw)/(A + z P) of the floor and below-ground walls
     of a heated basement by EN ISO 13370 8.4; apply it to the area A + z P. [W/(m2 K)]"""
@@ -292,7 +292,7 @@ def HL_SOIL_CONDUCTIVITY(soil):
 
 # --------------------------------------------------------------------------- ventilation
 @udf(FAMILY, returns="H_V [W/K]", args=_args("air_flow_m3_per_h", "heat_recovery"))
-def HL_VENTILATION_H(air_flow_m3_per_h, heat_recovery=None):
+def HL_VENTILATION_HV(air_flow_m3_per_h, heat_recovery=None):
     """Ventilation heat-loss coefficient H_V = rho c_p V/3600 (1 - eta), dry air at 20 degC
     and 101325 Pa (rho c_p/3600 = 0.336 W h/(m3 K)). [W/K]"""
     eta = number("heat_recovery", heat_recovery, 0.0, low=0.0, high=1.0, low_inclusive=True)

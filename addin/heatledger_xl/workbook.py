@@ -181,11 +181,11 @@ def _single_results():
 def _spill_specs():
     t, ti, te, hf = TABLE, "$C$15", "$C$16", "$C$17"
     return [
-        ("Interface temperatures", "B", f"=HL_TINTERFACES({t},{ti},{te},{hf},,,TRUE)",
-         udfs.HL_TINTERFACES(DEMO_LAYERS, T_IN, T_OUT, HEAT_FLOW, None, None, True)),
+        ("Interface temperatures", "B", f"=HL_INTERFACE_TEMPS({t},{ti},{te},{hf},,,TRUE)",
+         udfs.HL_INTERFACE_TEMPS(DEMO_LAYERS, T_IN, T_OUT, HEAT_FLOW, None, None, True)),
         ("Nodal temperatures, 2 cells per layer", "F",
-         f"=HL_TNODES({t},{ti},{te},{hf},,,2,TRUE)",
-         udfs.HL_TNODES(DEMO_LAYERS, T_IN, T_OUT, HEAT_FLOW, None, None, 2, True)),
+         f"=HL_NODE_TEMPS({t},{ti},{te},{hf},,,2,TRUE)",
+         udfs.HL_NODE_TEMPS(DEMO_LAYERS, T_IN, T_OUT, HEAT_FLOW, None, None, 2, True)),
         ("Layer table as used", "K", f"=HL_LAYERS({t},{hf},,,TRUE)",
          udfs.HL_LAYERS(DEMO_LAYERS, HEAT_FLOW, None, None, True)),
         ("Bridged layer: upper and lower limits", "S", f"=HL_RLIMITS({t},{hf},,,TRUE)",

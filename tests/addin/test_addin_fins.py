@@ -84,7 +84,7 @@ def test_efficiency_effectiveness_resistance_and_tip_temperature():
                                                                                rel=rtol_closed)
     # source: Incropera & DeWitt 6th ed., eq. 3.75: theta(L)/theta_b = 1/cosh(mL)
     m = math.sqrt(25.0 * 2 * 1.002 / (200.0 * 0.002))
-    assert uf.HL_FIN_TIPTEMP(*PLATE, "plate", "adiabatic") == pytest.approx(
+    assert uf.HL_FIN_TIP_TEMP(*PLATE, "plate", "adiabatic") == pytest.approx(
         20.0 + 60.0 / math.cosh(m * 0.050), rel=rtol_closed)
 
 
@@ -97,7 +97,7 @@ def test_pin_with_prescribed_tip_temperature():
     q = big_m * (60.0 * math.cosh(m * big_l) - 10.0) / math.sinh(m * big_l)
     assert uf.HL_FIN_HEATRATE(100, 10, 50, 25, 80, 20, "pin", "temperature", None, 30) == \
         pytest.approx(q, rel=rtol_closed)
-    assert uf.HL_FIN_TIPTEMP(100, 10, 50, 25, 80, 20, "pin", "temperature", None, 30) == \
+    assert uf.HL_FIN_TIP_TEMP(100, 10, 50, 25, 80, 20, "pin", "temperature", None, 30) == \
         pytest.approx(30.0, abs=ATOL_ROUND_OFF)
 
 
@@ -130,7 +130,7 @@ def test_annular_temperatures_and_rim():
     radii = [r[0] for r in rows[1:]]
     assert radii == pytest.approx(np.linspace(12.7, 28.575, 5), rel=RTOL_ROUND_OFF)
     assert rows[1][1] == pytest.approx(80.0, abs=ATOL_ROUND_OFF)
-    assert rows[-1][1] == pytest.approx(uf.HL_ANNULAR_TIPTEMP(25.4, 57.15, 0.38, 200, 58, 80,
+    assert rows[-1][1] == pytest.approx(uf.HL_ANNULAR_TIP_TEMP(25.4, 57.15, 0.38, 200, 58, 80,
                                                               20), rel=RTOL_ROUND_OFF)
     temps = [r[1] for r in rows[1:]]
     assert all(a > b for a, b in zip(temps, temps[1:], strict=False))

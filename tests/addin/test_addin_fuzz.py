@@ -284,11 +284,11 @@ def test_realistic_tables_give_the_engines_own_numbers(wall, t_in, t_out):
     assert udfs.HL_UVALUE_REPORTED(cells, *args) == con.u_value_reported
     flux = _number("HL_HEATFLUX", udfs.HL_HEATFLUX(cells, t_in, t_out, *args))
     assert flux == pytest.approx((t_in - t_out) / con.total_resistance, rel=RTOL_SAME)
-    ladder = udfs.HL_TINTERFACES(cells, t_in, t_out, *args)
+    ladder = udfs.HL_INTERFACE_TEMPS(cells, t_in, t_out, *args)
     assert isinstance(ladder, list), ladder
     assert [r[2] for r in ladder] == pytest.approx(list(con.ladder_temperatures(t_in, t_out)),
                                                     abs=ATOL_FV_K)
-    nodes = udfs.HL_TNODES(cells, t_in, t_out, *args, 3)
+    nodes = udfs.HL_NODE_TEMPS(cells, t_in, t_out, *args, 3)
     assert isinstance(nodes, list), nodes
     fv = con.temperatures(t_in, t_out, nodes_per_layer=3)
     assert [r[3] for r in nodes] == pytest.approx(list(fv.temperature), abs=ATOL_FV_K)
@@ -393,9 +393,9 @@ def test_extreme_tables_give_a_sound_number_or_a_text(table, t_in, t_out):
         assert u.startswith("HL_UVALUE: layers"), u
     else:
         assert math.isfinite(u) and u > 0.0
-    ladder = udfs.HL_TINTERFACES(table, t_in, t_out)
-    nodes = udfs.HL_TNODES(table, t_in, t_out, None, None, None, 2)
-    for name, out in (("HL_TINTERFACES", ladder), ("HL_TNODES", nodes)):
+    ladder = udfs.HL_INTERFACE_TEMPS(table, t_in, t_out)
+    nodes = udfs.HL_NODE_TEMPS(table, t_in, t_out, None, None, None, 2)
+    for name, out in (("HL_INTERFACE_TEMPS", ladder), ("HL_NODE_TEMPS", nodes)):
         if isinstance(out, str):
             assert out.startswith(f"{name}: layers") and len(out) <= 250, out
             continue

@@ -28,8 +28,9 @@ rtol_same = RTOL_ROUND_OFF  # tests/tolerances.py
 
 
 def test_heat_loss_functions_are_registered_and_exported():
-    assert set(OURS) == {"HL_WINDOW_U", "HL_SLAB_U", "HL_SUSPENDED_FLOOR_U", "HL_BASEMENT_U",
-                         "HL_SOIL_CONDUCTIVITY", "HL_VENTILATION_H", "HL_ROOM_HT",
+    assert set(OURS) == {"HL_WINDOW_UVALUE", "HL_SLAB_UVALUE", "HL_SUSPENDED_FLOOR_UVALUE",
+                         "HL_BASEMENT_UVALUE",
+                         "HL_SOIL_CONDUCTIVITY", "HL_VENTILATION_HV", "HL_ROOM_HT",
                          "HL_ROOM_LOAD", "HL_ROOM_SHARES", "HL_ANNUAL_ENERGY"}
     assert set(OURS) <= set(udfs.__all__)
     for name in OURS:
@@ -47,9 +48,9 @@ def test_heat_loss_functions_are_registered_and_exported():
 def test_window_u_is_the_iso_10077_1_equation():
     # source: EN ISO 10077-1:2017 clause 6, U_w = (A_g U_g + A_f U_f + l_g psi_g)/(A_g + A_f)
     # [from memory; source: iso10077-1], evaluated by hand
-    assert udfs.HL_WINDOW_U(1.2, 0.4, 1.1, 1.4, 4.6, 0.08) == pytest.approx(
+    assert udfs.HL_WINDOW_UVALUE(1.2, 0.4, 1.1, 1.4, 4.6, 0.08) == pytest.approx(
         (1.2 * 1.1 + 0.4 * 1.4 + 4.6 * 0.08) / 1.6, rel=rtol_same)
-    with_panel = udfs.HL_WINDOW_U(0.5, 0.4, 1.2, 1.8, 3.0, 0.06, 1.1, 0.9, 4.4, 0.02, 2.0)
+    with_panel = udfs.HL_WINDOW_UVALUE(0.5, 0.4, 1.2, 1.8, 3.0, 0.06, 1.1, 0.9, 4.4, 0.02, 2.0)
     assert with_panel == pytest.approx(
         (0.5 * 1.2 + 0.4 * 1.8 + 3.0 * 0.06 + 1.1 * 0.9 + 4.4 * 0.02) / 2.0, rel=rtol_same)
 
@@ -58,8 +59,8 @@ def test_slab_on_ground_worked_values():
     # source: EN ISO 13370:2017 8.2 check values 10 m x 10 m, w 0.3 m, lambda 2.0: R_f = 0
     # gives 0.762 and R_f = 3.0 gives 0.222 W/(m2 K) [from memory; source: iso13370-slab]
     atol_U = 5e-4  # values printed to three decimals
-    assert udfs.HL_SLAB_U(100, 40, 300, 0.0) == pytest.approx(0.762, abs=atol_U)
-    assert udfs.HL_SLAB_U(100, 40, 300, 3.0, 2.0) == pytest.approx(0.222, abs=atol_U)
+    assert udfs.HL_SLAB_UVALUE(100, 40, 300, 0.0) == pytest.approx(0.762, abs=atol_U)
+    assert udfs.HL_SLAB_UVALUE(100, 40, 300, 3.0, 2.0) == pytest.approx(0.222, abs=atol_U)
 
 
 def test_slab_edge_insulation_is_annex_b():
@@ -70,7 +71,7 @@ def test_slab_edge_insulation_is_annex_b():
     # source: EN ISO 13370:2017 Annex B, psi_ge for vertical insulation of depth D [from memory]
     psi = -(lam / math.pi) * (math.log(2 * 0.6 / dt_ + 1) - math.log(2 * 0.6 / (dt_ + d_extra)
                                                                     + 1))
-    got = udfs.HL_SLAB_U(100, 40, 300, 0.0, None, "vertical", 0.6, 2.0, 60)
+    got = udfs.HL_SLAB_UVALUE(100, 40, 300, 0.0, None, "vertical", 0.6, 2.0, 60)
     assert got == pytest.approx(u0 + 2 * psi / b, rel=rtol_same)
     assert got < u0
 
@@ -83,7 +84,7 @@ def test_suspended_floor_and_basement_are_the_clause_8_equations():
     dg = w + lam * (0.17 + 0.0 + 0.04)
     ug = 2 * lam / (math.pi * b + dg) * math.log(math.pi * b / dg + 1)
     ux = 2 * 0.3 * 1.5 / b + 1450 * 0.003 * 4.0 * 0.05 / b
-    assert udfs.HL_SUSPENDED_FLOOR_U(a, p, 300, 2.5, 0.3, 1.5, 0.003, 4.0, "average") == \
+    assert udfs.HL_SUSPENDED_FLOOR_UVALUE(a, p, 300, 2.5, 0.3, 1.5, 0.003, 4.0, "average") == \
         pytest.approx(1 / (1 / uf + 1 / (ug + ux)), rel=rtol_same)
     # source: EN ISO 13370:2017 8.4 [from memory; source: iso13370-slab]
     z, rfl, rw = 2.0, 0.5, 1.0
@@ -94,7 +95,7 @@ def test_suspended_floor_and_basement_are_the_clause_8_equations():
     dw = lam * (0.13 + rw + 0.04)
     ds = dt_ if dw >= dt_ else dw
     ubw = 2 * lam / (math.pi * z) * (1 + 0.5 * ds / (ds + z)) * math.log(z / dw + 1)
-    assert udfs.HL_BASEMENT_U(a, p, 300, rfl, rw, z) == pytest.approx(
+    assert udfs.HL_BASEMENT_UVALUE(a, p, 300, rfl, rw, z) == pytest.approx(
         (a * ubf + z * p * ubw) / (a + z * p), rel=rtol_same)
 
 
@@ -110,10 +111,10 @@ def test_ventilation_coefficient_against_coolprop_air():
     rho = CP.PropsSI("D", "T", 293.15, "P", 101325.0, "Air")
     cp = CP.PropsSI("C", "T", 293.15, "P", 101325.0, "Air")
     rtol_props = 3e-3  # ideal dry air and a handbook c_p against a real-gas equation of state
-    assert udfs.HL_VENTILATION_H(250.0, 0.6) == pytest.approx(
+    assert udfs.HL_VENTILATION_HV(250.0, 0.6) == pytest.approx(
         rho * cp * 250.0 / 3600 * (1 - 0.6), rel=rtol_props)
     # source: EN 12831-1 conventional 0.34 W h/(m3 K) [from memory; source: en12831-1]
-    assert udfs.HL_VENTILATION_H(1.0) == pytest.approx(0.34, abs=ATOL_PRINTED_2DP)
+    assert udfs.HL_VENTILATION_HV(1.0) == pytest.approx(0.34, abs=ATOL_PRINTED_2DP)
 
 
 def test_room_load_and_transmission_by_hand():
@@ -131,7 +132,7 @@ def test_room_load_and_transmission_by_hand():
     h_t = (20 * 0.25 + 4 * 1.3 + 10 * 0.5 * (ti - 16.0) / (ti - te) + 40 * 0.15 * 0.45
            + 18 * 0.1 + 4 * 0.25)
     assert udfs.HL_ROOM_HT(table, ti, te) == pytest.approx(h_t, rel=rtol_same)
-    h_v = udfs.HL_VENTILATION_H(90.0)
+    h_v = udfs.HL_VENTILATION_HV(90.0)
     load = udfs.HL_ROOM_LOAD(table, ti, te, None, None, h_v, 150.0)
     assert load == pytest.approx((h_t + h_v) * (ti - te) + 150.0, rel=rtol_same)
     # an element below a blank row is not dropped from the load (it would undersize the
@@ -153,7 +154,7 @@ def test_shares_spill_adds_up_to_the_load():
 
 
 def test_ground_rows_use_the_ground_factors():
-    u_floor = udfs.HL_SLAB_U(100, 40, 300, 2.0, 1.5)
+    u_floor = udfs.HL_SLAB_UVALUE(100, 40, 300, 2.0, 1.5)
     table = [["floor", 100.0, u_floor, "ground"]]
     # source: EN 12831-1:2017 clause 6, H_T,ig = f_g1 f_g2 A U_equiv G_w with f_g1 = 1.45,
     # f_g2 = (theta_int - theta_m,e)/(theta_int - theta_e), G_w 1.15 shallow [from memory;
@@ -179,18 +180,18 @@ def test_annual_energy_is_the_degree_day_equation():
 
 
 @pytest.mark.parametrize(("call", "fragment"), [
-    (lambda: udfs.HL_WINDOW_U(1.0, 2.5, 1.1, 1.4, 4.0, 0.08, None, None, None, None, 3.0),
+    (lambda: udfs.HL_WINDOW_UVALUE(1.0, 2.5, 1.1, 1.4, 4.0, 0.08, None, None, None, None, 3.0),
      "frame_area"),
-    (lambda: udfs.HL_WINDOW_U(1.0, 0.4, 1.1, 1.4, 1.0, 0.08), "glazing_perimeter"),
-    (lambda: udfs.HL_WINDOW_U(-1.0, 0.4, 1.1, 1.4, 4.0, 0.08), "glazing_area"),
-    (lambda: udfs.HL_SLAB_U(100, 10, 300, 0.0), "exposed_perimeter"),
-    (lambda: udfs.HL_SLAB_U(100, 40, 300, 0.0, None, None, 0.6), "edge_orientation"),
-    (lambda: udfs.HL_SUSPENDED_FLOOR_U(100, 40, 300, 2.5, 0.8, 1.5, 0.003, 4, "average"),
+    (lambda: udfs.HL_WINDOW_UVALUE(1.0, 0.4, 1.1, 1.4, 1.0, 0.08), "glazing_perimeter"),
+    (lambda: udfs.HL_WINDOW_UVALUE(-1.0, 0.4, 1.1, 1.4, 4.0, 0.08), "glazing_area"),
+    (lambda: udfs.HL_SLAB_UVALUE(100, 10, 300, 0.0), "exposed_perimeter"),
+    (lambda: udfs.HL_SLAB_UVALUE(100, 40, 300, 0.0, None, None, 0.6), "edge_orientation"),
+    (lambda: udfs.HL_SUSPENDED_FLOOR_UVALUE(100, 40, 300, 2.5, 0.8, 1.5, 0.003, 4, "average"),
      "underfloor_height"),
-    (lambda: udfs.HL_SUSPENDED_FLOOR_U(100, 40, 300, 2.5, 0.3, 1.5, 0.003, 4, "windy"),
+    (lambda: udfs.HL_SUSPENDED_FLOOR_UVALUE(100, 40, 300, 2.5, 0.3, 1.5, 0.003, 4, "windy"),
      "wind_shielding"),
     (lambda: udfs.HL_SOIL_CONDUCTIVITY("peat"), "soil"),
-    (lambda: udfs.HL_VENTILATION_H(100, 1.5), "heat_recovery"),
+    (lambda: udfs.HL_VENTILATION_HV(100, 1.5), "heat_recovery"),
     (lambda: udfs.HL_ROOM_LOAD([["wal", 1, 1]], 20, -5), "elements row 1 kind"),
     (lambda: udfs.HL_ROOM_LOAD([["wall", -1, 1]], 20, -5), "elements row 1 quantity"),
     (lambda: udfs.HL_ROOM_LOAD([["wall", 1, 1, 5, 0.5]], 20, -5), "elements row 1"),
@@ -293,6 +294,6 @@ def test_huge_element_ranges_stop_at_the_row_limit():
 
 def test_a_window_of_vanishing_area_is_refused_naming_the_areas():
     # 2.2e-309 m2 of frame and no glazing: psi l / A overflowed into an unexpected problem
-    out = udfs.HL_WINDOW_U(0.0, 2.225073858507203e-309, 1.0, 1.0, 4.0, 0.125)
-    assert out.startswith("HL_WINDOW_U: glazing_area + frame_area + panel_area must be at "
+    out = udfs.HL_WINDOW_UVALUE(0.0, 2.225073858507203e-309, 1.0, 1.0, 4.0, 0.125)
+    assert out.startswith("HL_WINDOW_UVALUE: glazing_area + frame_area + panel_area must be at "
                           "least 0.0001 m2"), out

@@ -41,7 +41,7 @@ def test_reloading_a_function_module_replaces_its_functions(module):
     _consistent()
     assert udfs.HL_UVALUE(WALL) == u
     assert isinstance(udfs.HL_FIN_EFFICIENCY(50, 2, 200, 25, 80, 20), float)
-    assert isinstance(udfs.HL_VENTILATION_H(100), float)
+    assert isinstance(udfs.HL_VENTILATION_HV(100), float)
 
 
 def test_reloading_udfs_reloads_the_modules_it_is_built_on():
@@ -91,3 +91,35 @@ def test_a_non_finite_number_never_reaches_a_cell(value):
     assert out == ("HL_TEST_NONFINITE: no finite result for these arguments (x); please "
                    "report it with the arguments used")
     assert registry.error_text("HL_X", HeatLedgerError("a")) == "HL_X: a"
+
+
+# --------------------------------------------------------------------------- one vocabulary
+#: The naming scheme of the functions (DEVELOPERS.md, "Function names"): a result that is a
+#: U-value ends in UVALUE, temperatures in TEMP (one) or TEMPS (a table), each word of the
+#: name separated by an underscore.
+SUFFIX_RULES = (
+    (lambda n: not n.endswith("_U"), "a U-value result ends in _UVALUE, not _U"),
+    (lambda n: "TEMP" not in n or any(w in ("TEMP", "TEMPS") for w in n.split("_")),
+     "temperatures are the word TEMP or TEMPS"),
+    (lambda n: not (n.startswith("HL_T") and n.split("_")[1] not in
+                    ("THICKNESS", "TEMP", "TEMPS")),
+     "no T prefix glued to a word (HL_NODE_TEMPS, not HL_TNODES)"),
+)
+#: Layout options stand last, in this order, in every function that has them.
+LAYOUT_OPTIONS = ("points", "nodes", "nodes_per_layer", "header")
+
+
+@pytest.mark.parametrize("name", sorted(REGISTRY))
+def test_function_names_follow_one_scheme(name):
+    for rule, text in SUFFIX_RULES:
+        assert rule(name), f"{name}: {text}"
+
+
+@pytest.mark.parametrize("name", sorted(REGISTRY))
+def test_layout_options_stand_last_in_every_function(name):
+    args = [a.name for a in REGISTRY[name].args]
+    layout = [a for a in args if a in LAYOUT_OPTIONS]
+    assert args[len(args) - len(layout):] == layout, args
+    assert layout == sorted(layout, key=LAYOUT_OPTIONS.index), args
+    if "header" in args:
+        assert args[-1] == "header" and REGISTRY[name].args[-1].optional

@@ -165,7 +165,7 @@ def test_bridged_layer_upper_and_lower_limits_by_hand():
 
 def test_interface_temperatures_follow_the_resistance_ladder():
     t_in, t_out = 20.0, -5.0
-    out = udfs.HL_TINTERFACES(WALL, t_in, t_out, None, None, None, True)
+    out = udfs.HL_INTERFACE_TEMPS(WALL, t_in, t_out, None, None, None, True)
     assert out[0] == ["interface", "x [mm]", "temperature [degC]"]
     rows = out[1:]
     r_air = udfs.HL_RAIR(25)
@@ -184,8 +184,8 @@ def test_nodal_temperatures_lie_on_the_exact_piecewise_linear_profile():
     # Steady 1-D conduction without sources: T is linear in each layer (Incropera & DeWitt,
     # eq. 3.3), so the finite-volume cell-centre values lie on the ladder's straight lines.
     t_in, t_out = 21.0, -8.0
-    nodes = udfs.HL_TNODES(WALL, t_in, t_out, None, None, None, 3)
-    ladder = udfs.HL_TINTERFACES(WALL, t_in, t_out)
+    nodes = udfs.HL_NODE_TEMPS(WALL, t_in, t_out, None, None, None, 3)
+    ladder = udfs.HL_INTERFACE_TEMPS(WALL, t_in, t_out)
     xs = [r[1] for r in ladder]
     ts = [r[2] for r in ladder]
     assert len(nodes) == 5 * 3
@@ -194,7 +194,7 @@ def test_nodal_temperatures_lie_on_the_exact_piecewise_linear_profile():
     atol_K = 1e-8  # the scheme is exact for piecewise-linear profiles; round-off only
     for _, _, x, t in nodes:
         assert t == pytest.approx(float(np.interp(x, xs, ts)), abs=atol_K)
-    with_header = udfs.HL_TNODES(WALL, t_in, t_out, None, None, None, 3, True)
+    with_header = udfs.HL_NODE_TEMPS(WALL, t_in, t_out, None, None, None, 3, True)
     assert with_header[0] == ["node", "layer", "x [mm]", "temperature [degC]"]
     assert with_header[1:] == nodes
 
@@ -248,7 +248,7 @@ def test_a_blank_row_inside_the_table_is_an_error_naming_the_rows():
     # instead of the whole wall's. Each function gives the same one-line error instead.
     gap = [WALL[1], [None, None, None], WALL[2], WALL[3]]
     want = "layers row 2 is blank but row 3 below it is filled"
-    for out in (udfs.HL_UVALUE(gap), udfs.HL_TNODES(gap, 20, -5), udfs.HL_THICKNESS(gap, 1, 1),
+    for out in (udfs.HL_UVALUE(gap), udfs.HL_NODE_TEMPS(gap, 20, -5), udfs.HL_THICKNESS(gap, 1, 1),
                 udfs.HL_UVALUE_CORRECTED(gap, None)):
         assert isinstance(out, str) and want in out, out
     notes_below = WALL + [[None] * 3, ["notes", "text below the table"]]
@@ -319,12 +319,12 @@ def test_bad_scalar_arguments_name_the_argument():
     assert "heat_flow must be one of 'up', 'horizontal', 'down'; got 'sideways'" in (
         udfs.HL_UVALUE(WALL, "sideways"))
     assert udfs.HL_UVALUE(WALL, None, -0.1).startswith("HL_UVALUE: rsi must be at least 0")
-    assert "temp_inside is blank" in udfs.HL_TINTERFACES(WALL, None, 0)
+    assert "temp_inside is blank" in udfs.HL_INTERFACE_TEMPS(WALL, None, 0)
     assert "temp_outside must be greater than -273.15" in udfs.HL_HEATFLUX(WALL, 20, -300)
     assert "temp_inside must be a number" in udfs.HL_HEATFLUX(WALL, "warm", 0)
-    assert "nodes_per_layer must be a whole number" in udfs.HL_TNODES(WALL, 20, 0, None, None,
+    assert "nodes_per_layer must be a whole number" in udfs.HL_NODE_TEMPS(WALL, 20, 0, None, None,
                                                                       None, 2.5)
-    assert "header must be TRUE or FALSE" in udfs.HL_TNODES(WALL, 20, 0, None, None, None, 2,
+    assert "header must be TRUE or FALSE" in udfs.HL_NODE_TEMPS(WALL, 20, 0, None, None, None, 2,
                                                             "yes")
     assert "layer_number must be 1 to 5" in udfs.HL_THICKNESS(WALL, 9, 0.2)
     assert "layer_number 4: layer_number points to an air layer" in udfs.HL_THICKNESS(
@@ -467,8 +467,8 @@ def test_a_near_zero_declared_resistance_gives_a_text_not_impossible_temperature
     # function that reads the table answers with a text naming the row and the rule.
     table = [["gypsum plasterboard 900", 12.5], ["panel", 100, None, 1e-20],
              ["brick", 102, 0.77]]
-    calls = {"HL_TNODES": (table, 20.0, -5.0), "HL_FVCHECK": (table, 20.0, -5.0),
-             "HL_TINTERFACES": (table, 20.0, -5.0), "HL_RTOTAL": (table,),
+    calls = {"HL_NODE_TEMPS": (table, 20.0, -5.0), "HL_FVCHECK": (table, 20.0, -5.0),
+             "HL_INTERFACE_TEMPS": (table, 20.0, -5.0), "HL_RTOTAL": (table,),
              "HL_UVALUE": (table,)}
     for name, args in calls.items():
         out = REGISTRY[name].function(*args)
@@ -483,7 +483,7 @@ def test_a_layer_resistance_out_of_scale_is_refused_naming_the_row(row):
     # bound is the physical limit of a conductivity (heatledger._validate.LIMITS, common
     # practice), the same as in a project file
     table = [["gypsum plasterboard 900", 12.5], row]
-    for out in (udfs.HL_UVALUE(table), udfs.HL_TINTERFACES(table, 20, -5)):
+    for out in (udfs.HL_UVALUE(table), udfs.HL_INTERFACE_TEMPS(table, 20, -5)):
         assert isinstance(out, str) and "layers row 2" in out and "conductivity" in out, out
         assert "must be at least 0.001 W/(m K)" in out
 

@@ -121,7 +121,7 @@ def test_spilled_tables_are_array_formulas_of_the_right_size():
                               ref.split(":")]
         assert (len(value), len(value[0])) == (r2 - r1 + 1, c2 - c1 + 1)
         names.add(CALL.match(formula).group(1))
-    assert names == {"HL_TINTERFACES", "HL_TNODES", "HL_LAYERS", "HL_RLIMITS",
+    assert names == {"HL_INTERFACE_TEMPS", "HL_NODE_TEMPS", "HL_LAYERS", "HL_RLIMITS",
                      "HL_CORRECTIONS", "HL_FVCHECK"}
 
 

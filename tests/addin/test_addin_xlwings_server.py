@@ -116,7 +116,7 @@ def test_u_value_call_returns_the_engine_value(xl):
 
 def test_spilled_nodal_table_matches_the_engine(xl):
     res = engine_wall().temperatures(20.0, -5.0, nodes_per_layer=3)
-    out = call(xl, "HL_TNODES", WALL, [[20]], [[-5]], None, None, None, [[3]], [[True]])
+    out = call(xl, "HL_NODE_TEMPS", WALL, [[20]], [[-5]], None, None, None, [[3]], [[True]])
     assert out[0] == ["node", "layer", "x [mm]", "temperature [degC]"]
     body = out[1:]
     assert len(body) == len(res.x) == 15
@@ -129,7 +129,7 @@ def test_spilled_nodal_table_matches_the_engine(xl):
 
 def test_spilled_interfaces_and_other_functions(xl):
     ladder = engine_wall().ladder_temperatures(20.0, -5.0)
-    out = call(xl, "HL_TINTERFACES", WALL, [[20]], [[-5]])
+    out = call(xl, "HL_INTERFACE_TEMPS", WALL, [[20]], [[-5]])
     assert [r[2] for r in out] == pytest.approx(list(ladder), abs=ATOL_ROUND_OFF)
     assert call(xl, "HL_RSURFACE", [["inside"]], [["up"]]) == [[0.10]]  # ISO 6946 Table 7
     assert call(xl, "HL_MATERIAL", [["steel"]]) == [[50.0]]
@@ -144,8 +144,8 @@ def test_error_cells_and_bad_arguments_come_back_as_text(xl):
     bad_table = [["block", na, 1.0]]
     out = call(xl, "HL_UVALUE", bad_table)
     assert out[0][0].startswith("HL_UVALUE: layers row 1 thickness_mm holds the error #N/A")
-    out = call(xl, "HL_TINTERFACES", WALL, [["warm"]], [[-5]])
-    assert out[0][0].startswith("HL_TINTERFACES: temp_inside must be a number")
+    out = call(xl, "HL_INTERFACE_TEMPS", WALL, [["warm"]], [[-5]])
+    assert out[0][0].startswith("HL_INTERFACE_TEMPS: temp_inside must be a number")
     # the error text is a plain string for the spreadsheet, never an error value
     assert isinstance(out[0][0], str) and not out[0][0].startswith("#")
 

@@ -17,7 +17,7 @@ average of the machine, for the record only.
    the checks, messages and result objects. Median Python time target: under 50 us for a
    6-layer table. Two kinds of new table: every row new, and one row changed (a designer
    trying insulation thicknesses: the other rows come from the row cache).
-3. ``HL_TNODES`` against the engine's ``Construction.temperatures`` on the same cached
+3. ``HL_NODE_TEMPS`` against the engine's ``Construction.temperatures`` on the same cached
    construction: the function pays for no mesh estimate it does not show (the engine
    computes it only when read); what remains is its ladder check and the spill.
 4. ``HL_THICKNESS`` (closed form for a plain layer) against Brent's method on the same
@@ -165,7 +165,7 @@ def tnodes():
     c = udfs._construction(table, None, None, None)
     calls = [(table, 20.0, -5.0, None, None, None, 4)] * 200
     engine_calls = [(20.0, -5.0)] * 200
-    return paired(lambda r: calls, udfs.HL_TNODES, lambda r: engine_calls,
+    return paired(lambda r: calls, udfs.HL_NODE_TEMPS, lambda r: engine_calls,
                   lambda ti, te: c.temperatures(ti, te, nodes_per_layer=4))
 
 
@@ -231,7 +231,7 @@ def main() -> None:
         print(f"  {'':<58s} median {med:.1f} us (reference {statistics.median(t_ref):.1f} us)"
               f"   target < {NEW_TABLE_TARGET_US:g} us: {verdict(med, NEW_TABLE_TARGET_US)}")
 
-    print("\n3. HL_TNODES (one solve, ladder check) / Construction.temperatures (one solve; "
+    print("\n3. HL_NODE_TEMPS (one solve, ladder check) / Construction.temperatures (one solve; "
           "its mesh estimate is computed only when read)")
     t_fn, t_eng, ratio = tnodes()
     print(line("6 layers x 4 cells, construction cached", ratio))

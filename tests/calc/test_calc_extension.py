@@ -137,10 +137,10 @@ def test_table_results_are_rectangular_rows_with_blank_texts():
 
 
 def test_problems_are_texts_never_exceptions():
-    out = values.call("HL_TINTERFACES", (WALL, (("warm",),), ((-5.0,),), None, None, None,
+    out = values.call("HL_INTERFACE_TEMPS", (WALL, (("warm",),), ((-5.0,),), None, None, None,
                                          None), True)
-    assert out == ((REGISTRY["HL_TINTERFACES"].function(_rows(WALL), "warm", -5.0),),)
-    assert out[0][0].startswith("HL_TINTERFACES: temp_inside")
+    assert out == ((REGISTRY["HL_INTERFACE_TEMPS"].function(_rows(WALL), "warm", -5.0),),)
+    assert out[0][0].startswith("HL_INTERFACE_TEMPS: temp_inside")
     wrong_count = values.call("HL_UVALUE", (WALL,), False)
     assert wrong_count.startswith("HL_UVALUE: unexpected problem")
     unknown = values.call("HL_NO_SUCH_FUNCTION", (), True)

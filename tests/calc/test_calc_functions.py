@@ -39,7 +39,7 @@ WALL = [["material", "thickness [mm]", "conductivity [W/(m K)]"],
         ["air", 25, None],
         ["brick", 102, 0.77]]
 WALL_RANGE = "A1:C6"
-U_FUNCTION, TABLE_FUNCTION = "HL_UVALUE", "HL_TINTERFACES"
+U_FUNCTION, TABLE_FUNCTION = "HL_UVALUE", "HL_INTERFACE_TEMPS"
 
 
 def _col(index: int) -> str:
@@ -196,11 +196,11 @@ def test_every_function_answers_in_calc_as_in_python(calc):
 def test_array_formula_tables_match_python_and_the_engine(calc):
     wall, c = as_passed(WALL), engine_wall()
     interfaces = python(TABLE_FUNCTION, wall, 20.0, -5.0, None, None, None, True)
-    nodes = python("HL_TNODES", wall, 20.0, -5.0, None, None, None, 3.0)
+    nodes = python("HL_NODE_TEMPS", wall, 20.0, -5.0, None, None, None, 3.0)
     layers = python("HL_LAYERS", wall, None, None, None, True)
     n_i, n_n, n_l = len(interfaces), len(nodes), len(layers)
     arrays = {f"E1:G{n_i + 1}": f"={TABLE_FUNCTION}({WALL_RANGE};20;-5;;;;1)",
-              f"I1:L{n_n}": f"=HL_TNODES({WALL_RANGE};20;-5;;;;3)",
+              f"I1:L{n_n}": f"=HL_NODE_TEMPS({WALL_RANGE};20;-5;;;;3)",
               f"N1:T{n_l}": f"=HL_LAYERS({WALL_RANGE};;;;1)"}
     got = evaluate(calc, cells_of(WALL), list(arrays), arrays=arrays)
     table = got[f"E1:G{n_i + 1}"]
