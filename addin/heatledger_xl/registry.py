@@ -7,7 +7,9 @@ a short description and one description per argument. :func:`udf`
 1. wraps the function so that it never raises into the spreadsheet: a
    :class:`~heatledger.errors.HeatLedgerError` becomes the one-line text
    ``"HL_UVALUE: layers row 3 thickness_mm must be greater than 0 mm; got -5"``, any other
-   exception a one-line text that says it is unexpected;
+   exception a one-line text that says it is unexpected; on the Office.js hosts
+   (:data:`ERROR_VALUES`) the cell shows ``#VALUE!`` instead and :func:`message_of` (the
+   function ``HL_MESSAGE``) gives the text;
 2. applies xlwings' own ``func``, ``arg`` and ``ret`` decorators (imported from
    ``xlwings``, so the same module serves classic xlwings on Windows, xlwings Lite in the
    browser and xlwings Server), giving every argument its description and conversion
@@ -32,10 +34,12 @@ import math
 import re
 from dataclasses import dataclass
 
+import xlwings
 from xlwings import arg as xl_arg
 from xlwings import func as xl_func
 from xlwings import ret as xl_ret
 
+from heatledger._validate import show
 from heatledger.errors import HeatLedgerError
 
 __all__ = [
@@ -47,6 +51,10 @@ __all__ = [
     "udf",
     "looks_like_cell_reference",
     "error_text",
+    "message_of",
+    "ERROR_VALUES",
+    "ERROR_VALUE",
+    "MESSAGE_FUNCTION",
 ]
 
 #: Common prefix of every function name.
@@ -55,6 +63,14 @@ PREFIX = "HL_"
 MAX_DESCRIPTION = 255
 #: Category of the functions in the classic Excel function dialog.
 CATEGORY = "heatledger"
+#: Whether a problem is returned as an Excel error value (``#VALUE!``, which ``IFERROR``
+#: catches) instead of its one-line text: on the Office.js hosts (xlwings Server and xlwings
+#: Lite: Excel on the web, macOS, Windows), where xlwings turns the text ``#VALUE!`` into a
+#: real error. Classic xlwings (COM) and LibreOffice Calc show the text. The text is always
+#: available from :func:`message_of` (the spreadsheet function ``HL_MESSAGE``).
+ERROR_VALUES = bool(getattr(xlwings, "on_server", False))
+#: The error value a problem shows on the hosts that have error values.
+ERROR_VALUE = "#VALUE!"
 
 _A1 = re.compile(r"^\$?[A-Z]{1,3}\$?[0-9]+$", re.IGNORECASE)
 _R1C1 = re.compile(r"^R(\[?-?[0-9]*\]?)C(\[?-?[0-9]*\]?)$|^[RC]\[?-?[0-9]*\]?$",
@@ -103,6 +119,8 @@ class FunctionSpec:
         Whether the result is a 2-D array that spills.
     function : callable
         The decorated function.
+    core : callable or None
+        The function as written, before the guard (it may raise). [-]
     """
 
     name: str
@@ -112,6 +130,7 @@ class FunctionSpec:
     returns: str
     spills: bool
     function: object
+    core: object = None
 
 
 #: Every registered function, by spreadsheet name, in declaration order.
@@ -205,16 +224,20 @@ def udf(family: str, *, returns: str, args: dict[str, str], ranges: tuple[str, .
 
         @functools.wraps(fn)
         def guarded(*a, **k):
+            text = None
             try:
                 out = fn(*a, **k)
             except Exception as exc:  # noqa: BLE001 - never raise into the spreadsheet
-                return error_text(name, exc)
-            if isinstance(out, float) and not math.isfinite(out) or (
-                    type(out) is list and not _all_finite(out)):
-                return error_text(name, HeatLedgerError(
-                    f"no finite result for these arguments ({arg_names}); please report it "
-                    "with the arguments used"))
-            return out
+                text = error_text(name, exc)
+            else:
+                if isinstance(out, float) and not math.isfinite(out) or (
+                        type(out) is list and not _all_finite(out)):
+                    text = error_text(name, HeatLedgerError(
+                        f"no finite result for these arguments ({arg_names}); please report "
+                        "it with the arguments used"))
+            if text is None:
+                return out
+            return ERROR_VALUE if ERROR_VALUES and name != MESSAGE_FUNCTION else text
 
         guarded.__doc__ = description
         decorated = guarded
@@ -228,10 +251,64 @@ def udf(family: str, *, returns: str, args: dict[str, str], ranges: tuple[str, .
             raise HeatLedgerError(f"function {name} is declared in {old.function.__module__} "
                                   f"and again in {fn.__module__}")
         REGISTRY[name] = FunctionSpec(name, family, description, tuple(specs), returns,
-                                      spills, decorated)
+                                      spills, decorated, fn)
         return decorated
 
     return decorate
+
+
+#: The companion function that gives the text of a problem.
+MESSAGE_FUNCTION = "HL_MESSAGE"
+
+
+def message_of(function_name: str, values: list) -> str:
+    """The one-line text of the problem a function has with ``values``, or a line saying
+    there is none (the spreadsheet function ``HL_MESSAGE``).
+
+    Parameters
+    ----------
+    function_name : str
+        Spreadsheet name of the function (``"HL_UVALUE"``). [-]
+    values : list
+        Its arguments in order, each as a 2-D list of cell values (a range or one cell);
+        a trailing blank argument is left out. [-]
+
+    Returns
+    -------
+    str
+    """
+    spec = REGISTRY.get(str(function_name or "").strip().upper())
+    if spec is None or spec.name == MESSAGE_FUNCTION:
+        return (f"{MESSAGE_FUNCTION}: no function {show(function_name)}; give the name of a "
+                "heatledger function in quotes, such as \"HL_UVALUE\"")
+    while values and _blank(values[-1]):
+        values = values[:-1]
+    if len(values) > len(spec.args):
+        n = len(spec.args)
+        return f"{spec.name}: takes {n} argument{'' if n == 1 else 's'}; got {len(values)}"
+    args = [v if a.is_range else _single(v) for a, v in zip(spec.args, values, strict=False)]
+    try:
+        out = spec.core(*args)
+    except Exception as exc:  # noqa: BLE001 - the message is the answer
+        return error_text(spec.name, exc)
+    if isinstance(out, float) and not math.isfinite(out) or (
+            type(out) is list and not _all_finite(out)):
+        return f"{spec.name}: no finite result for these arguments; please report it"
+    return f"{spec.name}: no problem with these arguments"
+
+
+def _blank(value) -> bool:
+    """Whether an argument is empty (left out, or one blank cell)."""
+    return value is None or value == [[None]] or value == [[""]]
+
+
+def _single(value):
+    """The value of a one-cell argument given as a 2-D list (a larger range is kept whole,
+    so that the function itself names the problem)."""
+    if type(value) is list and len(value) == 1 and type(value[0]) is list \
+            and len(value[0]) == 1:
+        return value[0][0]
+    return value
 
 
 def _origin(fn) -> tuple:

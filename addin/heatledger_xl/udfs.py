@@ -587,4 +587,6 @@ def _add_family_functions() -> list:
     return names
 
 
-__all__ = __all__ + _add_family_functions()
+from .udfs_message import HL_MESSAGE  # noqa: E402  (the companion of every function)
+
+__all__ = __all__ + _add_family_functions() + ["HL_MESSAGE"]

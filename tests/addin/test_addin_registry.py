@@ -123,3 +123,14 @@ def test_layout_options_stand_last_in_every_function(name):
     assert layout == sorted(layout, key=LAYOUT_OPTIONS.index), args
     if "header" in args:
         assert args[-1] == "header" and REGISTRY[name].args[-1].optional
+
+
+def test_hl_message_explains_a_problem_and_says_when_there_is_none():
+    assert udfs.HL_MESSAGE("HL_UVALUE", [["brick", -5, 0.77]]) == \
+        udfs.HL_UVALUE([["brick", -5, 0.77]])  # the same text the classic cell shows
+    assert udfs.HL_MESSAGE("hl_uvalue", WALL) == "HL_UVALUE: no problem with these arguments"
+    assert "takes 1 argument; got 2" in udfs.HL_MESSAGE("HL_MATERIALS", [[True]], [[1]])
+    assert "no function" in udfs.HL_MESSAGE("HL_NOTHING")
+    assert "no function" in udfs.HL_MESSAGE("HL_MESSAGE")
+    # a one-cell argument reaches a scalar argument as its value
+    assert udfs.HL_MESSAGE("HL_RSURFACE", [["sideways"]]) == udfs.HL_RSURFACE("sideways")

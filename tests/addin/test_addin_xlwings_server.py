@@ -137,17 +137,24 @@ def test_spilled_interfaces_and_other_functions(xl):
     assert listing[0][0] == "material" and len(listing) == len(default_library()) + 1
 
 
-def test_error_cells_and_bad_arguments_come_back_as_text(xl):
+def test_a_problem_is_an_error_value_and_hl_message_gives_its_text(xl):
+    # Office.js (xlwings Server and Lite): a problem is Excel's #VALUE!, which IFERROR
+    # catches (Office.js custom functions, error type "Value"); HL_MESSAGE with the same
+    # arguments gives the one-line text
+    value_error = [[{"type": "Error", "errorType": "Value"}]]
     na = {"type": "Error", "basicValue": "#N/A", "errorType": "NotAvailable"}
-    out = call(xl, "HL_UVALUE", WALL, [[na]])
-    assert out == [["HL_UVALUE: heat_flow holds the error #N/A; give a text"]]
+    assert call(xl, "HL_UVALUE", WALL, [[na]]) == value_error
+    assert call(xl, "HL_MESSAGE", [["HL_UVALUE"]], WALL, [[na]]) == \
+        [["HL_UVALUE: heat_flow holds the error #N/A; give a text"]]
     bad_table = [["block", na, 1.0]]
-    out = call(xl, "HL_UVALUE", bad_table)
-    assert out[0][0].startswith("HL_UVALUE: layers row 1 thickness_mm holds the error #N/A")
-    out = call(xl, "HL_INTERFACE_TEMPS", WALL, [["warm"]], [[-5]])
-    assert out[0][0].startswith("HL_INTERFACE_TEMPS: temp_inside must be a number")
-    # the error text is a plain string for the spreadsheet, never an error value
-    assert isinstance(out[0][0], str) and not out[0][0].startswith("#")
+    assert call(xl, "HL_UVALUE", bad_table) == value_error
+    text = call(xl, "HL_MESSAGE", [["HL_UVALUE"]], bad_table)[0][0]
+    assert text.startswith("HL_UVALUE: layers row 1 thickness_mm holds the error #N/A")
+    assert call(xl, "HL_INTERFACE_TEMPS", WALL, [["warm"]], [[-5]]) == value_error
+    text = call(xl, "HL_MESSAGE", [["hl_interface_temps"]], WALL, [["warm"]], [[-5]])[0][0]
+    assert text.startswith("HL_INTERFACE_TEMPS: temp_inside must be a number")
+    good = call(xl, "HL_MESSAGE", [["HL_UVALUE"]], WALL)
+    assert good == [["HL_UVALUE: no problem with these arguments"]]
 
 
 def test_calculation_sheet_renders_through_the_real_xlwings_object_model(xl):
