@@ -6,8 +6,11 @@
 - ``Functions demo``: an invented cavity wall as a layer table (with a header row, as the
   range conventions allow), the design data, one cell per function (``=HL_UVALUE(...)``
   and friends), beside each the value the engine gave when the file was generated and a
-  check cell, and the spilled tables (interfaces, nodes, layers, bridging limits) entered
-  as array formulas over ranges of the right size, so they show in every Excel version;
+  check cell, and the spilled tables (interfaces, nodes, layers, bridging limits) as
+  dynamic-array formulas (:mod:`heatledger_xl.workbook_writer`): in Excel 365 they grow and
+  shrink with their input; Excel before 365 shows each as a legacy array formula over the
+  range it had when the file was written (to resize one there, select the new range and
+  enter the formula with Ctrl+Shift+Enter);
 - ``xlwings.conf``: the workbook settings sheet classic xlwings reads, with
   ``UDF Modules`` = ``heatledger_xl.udfs`` starting in cell A1;
 - ``Read me``: the steps to import the functions on first use.
@@ -18,19 +21,14 @@ The formulas show ``#NAME?`` until the functions are imported (see ``Read me``).
 
 from __future__ import annotations
 
-import io
 import sys
 from pathlib import Path
-from zipfile import ZIP_DEFLATED, ZipFile
-
-from openpyxl.worksheet.formula import ArrayFormula
-from openpyxl.writer.excel import ExcelWriter
 
 from heatledger.sheet.files import normalise_zip, write_bytes_atomic
 from heatledger.sheet.plan import WorkbookPlan, col_index, col_letter, sheet_ref
-from heatledger.sheet.render_openpyxl import render_workbook
 
 from . import udfs
+from .workbook_writer import plan_to_xlsx
 
 __all__ = ["FILE_NAME", "DEMO_LAYERS", "SHEET", "workbook_bytes", "write", "main"]
 
@@ -85,6 +83,11 @@ _STEPS = [
     "HL_CALC_SHEET",
     "4. Restart xlwings Lite; the HL_ functions are then available in every cell.",
     "",
+    "The tables from row 36 are dynamic arrays: in Excel 365 they grow and shrink with the "
+    "layer table. Excel before 365 shows them over the range they had when the file was "
+    "written: to resize one, select the new range, edit the formula and press "
+    "Ctrl+Shift+Enter.",
+    "",
     "Calculation sheet of the demo wall: select the layer table (B6:G12) and run the macro "
     "HL_CALC_SHEET (xlwings Lite: script list; classic: a VBA button macro calling "
     "RunPython \"import heatledger_xl.macros as m; m.calc_sheet_from_excel()\").",
@@ -93,16 +96,8 @@ _STEPS = [
 
 def workbook_bytes() -> bytes:
     """The demo workbook as deterministic .xlsx bytes."""
-    plan = _plan()
-    wb = render_workbook(plan)
-    ws = wb[SHEET]
-    for top_left, ref, formula in _spills():
-        ws[top_left] = ArrayFormula(ref, formula)
-    wb.properties.modified = plan.timestamp
-    buf = io.BytesIO()
-    with ZipFile(buf, "w", ZIP_DEFLATED) as archive:
-        ExcelWriter(wb, archive).save()
-    return normalise_zip(buf.getvalue())
+    dynamic = [(ref, formula) for _, ref, formula in _spills()]
+    return normalise_zip(plan_to_xlsx(_plan(), dynamic))
 
 
 def write(folder="workbooks", *, force: bool = False) -> Path:

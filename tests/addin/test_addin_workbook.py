@@ -11,8 +11,10 @@
 
 from __future__ import annotations
 
+import html
 import io
 import re
+import zipfile
 from pathlib import Path
 
 import openpyxl
@@ -131,3 +133,20 @@ def test_macro_names_point_at_the_demo_inputs():
     assert names["hl_layers"] == f"'{workbook.SHEET}'!$B$6:$G$12"
     assert names["hl_temp_inside"].endswith("$C$15")
     assert names["hl_temp_outside"].endswith("$C$16")
+
+
+def test_spilled_tables_are_dynamic_arrays_in_excel_365():
+    """Each spilling formula carries the dynamic-array cell metadata Excel 365 reads (ECMA-376
+    cell attribute cm pointing at xl/metadata.xml's XLDAPR "fDynamic" property, as Excel
+    writes it), so that it grows and shrinks with its input; older Excel sees a legacy array
+    formula over the range the file names."""
+    with zipfile.ZipFile(io.BytesIO(workbook.workbook_bytes())) as z:
+        sheet = z.read("xl/worksheets/sheet1.xml").decode("utf-8")
+        metadata = z.read("xl/metadata.xml").decode("utf-8")
+        types = z.read("[Content_Types].xml").decode("utf-8")
+    assert 'name="XLDAPR"' in metadata and 'fDynamic="1"' in metadata
+    assert "/xl/metadata.xml" in types
+    for top, ref, formula in workbook._spills():
+        m = re.search(rf'<c r="{top}" cm="(\d+)"><f t="array" ref="{ref}">([^<]*)</f>', sheet)
+        assert m, top
+        assert "=" + html.unescape(m.group(2)) == formula
