@@ -134,3 +134,21 @@ def test_hl_message_explains_a_problem_and_says_when_there_is_none():
     assert "no function" in udfs.HL_MESSAGE("HL_MESSAGE")
     # a one-cell argument reaches a scalar argument as its value
     assert udfs.HL_MESSAGE("HL_RSURFACE", [["sideways"]]) == udfs.HL_RSURFACE("sideways")
+
+
+def test_the_readme_names_every_function_and_argument_the_wizard_shows():
+    """The README's function tables and the function dialog (the registry) agree: every
+    function and every argument name is in the README's section, and it names no function
+    the registry lacks (``value_1`` ... ``value_14`` of HL_MESSAGE are written as a range)."""
+    import re
+    from pathlib import Path
+
+    text = (Path(__file__).resolve().parents[2] / "README.md").read_text(encoding="utf-8")
+    section = text[text.index("## Spreadsheet functions (xlwings)"):
+                   text.index("## Spreadsheet functions in LibreOffice Calc")]
+    named = set(re.findall(r"`(HL_[A-Z0-9_]+)`", section))
+    assert named == set(REGISTRY), (sorted(named ^ set(REGISTRY)))
+    words = set(re.findall(r"[A-Za-z_][A-Za-z0-9_]*", section))
+    missing = {(name, a.name) for name, spec in REGISTRY.items() for a in spec.args
+               if a.name not in words and not re.fullmatch(r"value_([2-9]|1[0-3])", a.name)}
+    assert not missing, sorted(missing)
