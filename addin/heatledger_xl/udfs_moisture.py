@@ -7,7 +7,7 @@ raises: a bad argument gives a one-line text naming the argument and the rule.
 - ``HL_PSAT(temp)``: saturation pressure [Pa] (Annex E, over water and ice);
   ``HL_DEWPOINT(pressure)``: its inverse [degC].
 - ``HL_FRSI(layers, ...)``: f_Rsi of the plane construction with R_si = 0.25 (or given);
-  ``HL_FRSI_MIN(temp_outside, temp_inside, rh_inside, critical_rh)``: f_Rsi,min of one month.
+  ``HL_FRSI_MIN(temp_inside, temp_outside, rh_inside, critical_rh)``: f_Rsi,min of one month.
 - ``HL_CONDENSATION(layers, climate, vapour, ...)``: the monthly Glaser calculation as a
   spill: month, planes, amount and water held [kg/m2], and the verdict. ``climate`` is a
   range of 12 rows (January first) and 4 columns: theta_e [degC], phi_e [-], theta_i
@@ -87,11 +87,11 @@ def HL_FRSI(layers, heat_flow=None, rse=None, resistance_inside=None):
 
 
 @udf(FAMILY, returns="f_Rsi,min [-]",
-     args={"temp_outside": "Monthly mean outside temperature. [degC]",
-           "temp_inside": "Inside temperature. [degC]",
+     args={"temp_inside": "Inside temperature. [degC]",
+           "temp_outside": "Monthly mean outside temperature. [degC]",
            "rh_inside": "Inside relative humidity, fraction 0 to 1. [-]",
            "critical_rh": _CRIT})
-def HL_FRSI_MIN(temp_outside, temp_inside, rh_inside, critical_rh=None):
+def HL_FRSI_MIN(temp_inside, temp_outside, rh_inside, critical_rh=None):
     """Minimum temperature factor of one month, f_Rsi,min, for mould (0.8) or surface
     condensation (1.0) (EN ISO 13788, 5.2). [-]"""
     t_e = number("temp_outside", temp_outside, **_TEMP)

@@ -45,10 +45,10 @@ def test_frsi_min_by_hand():
     p = 0.5 * 610.5 * math.exp(17.269 * 20 / 257.3) / 0.8
     x = math.log(p / 610.5)
     t = 237.3 * x / (17.269 - x)
-    assert udfs.HL_FRSI_MIN(-2.0, 20.0, 0.5) == pytest.approx((t + 2.0) / 22.0,
+    assert udfs.HL_FRSI_MIN(20.0, -2.0, 0.5) == pytest.approx((t + 2.0) / 22.0,
                                                               rel=RTOL_ROUND_OFF)
-    assert udfs.HL_FRSI_MIN(-2.0, 20.0, 50).startswith("HL_FRSI_MIN: rh_inside = 50 looks")
-    assert "at least 1 K above temp_outside" in udfs.HL_FRSI_MIN(22.0, 20.0, 0.5)
+    assert udfs.HL_FRSI_MIN(20.0, -2.0, 50).startswith("HL_FRSI_MIN: rh_inside = 50 looks")
+    assert "at least 1 K above temp_outside" in udfs.HL_FRSI_MIN(20.0, 22.0, 0.5)
 
 
 def test_condensation_spill_equals_the_engine():

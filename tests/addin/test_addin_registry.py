@@ -125,6 +125,30 @@ def test_layout_options_stand_last_in_every_function(name):
         assert args[-1] == "header" and REGISTRY[name].args[-1].optional
 
 
+#: Pairs of arguments that stand together, in this order, wherever a function takes both
+#: (a function that took the outside temperature first would swap them without a warning).
+ARGUMENT_PAIRS = (("temp_inside", "temp_outside"), ("rsi", "rse"),
+                  ("emissivity_1", "emissivity_2"), ("temp_base", "temp_fluid"))
+
+
+def _swapped_pairs(args: list[str]) -> list[tuple[str, str]]:
+    """The pairs of ARGUMENT_PAIRS that a function takes but not side by side in order."""
+    return [(a, b) for a, b in ARGUMENT_PAIRS
+            if a in args and b in args and args.index(b) != args.index(a) + 1]
+
+
+@pytest.mark.parametrize("name", sorted(REGISTRY))
+def test_paired_arguments_stand_in_one_order_in_every_function(name):
+    args = [a.name for a in REGISTRY[name].args]
+    assert not _swapped_pairs(args), (name, args)
+
+
+def test_the_pair_rule_catches_a_swapped_or_separated_pair():
+    assert _swapped_pairs(["temp_outside", "temp_inside", "rh_inside"]) == \
+        [("temp_inside", "temp_outside")]
+    assert _swapped_pairs(["layers", "rsi", "heat_flow", "rse"]) == [("rsi", "rse")]
+
+
 def test_hl_message_explains_a_problem_and_says_when_there_is_none():
     assert udfs.HL_MESSAGE("HL_UVALUE", [["brick", -5, 0.77]]) == \
         udfs.HL_UVALUE([["brick", -5, 0.77]])  # the same text the classic cell shows
