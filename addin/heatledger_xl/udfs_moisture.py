@@ -102,7 +102,7 @@ def HL_FRSI_MIN(temp_inside, temp_outside, rh_inside, critical_rh=None):
                               "outside is colder")
     rh = _fraction("rh_inside", rh_inside)
     crit = number("critical_rh", critical_rh, 0.8, low=0.0, high=100.0, unit="")
-    return surface_factor_min(t_e, t_i, rh, critical_rh=crit)
+    return surface_factor_min(t_i, t_e, rh, critical_rh=crit)
 
 
 @udf(FAMILY, returns="spill: month, planes, amount [kg/m2], held [kg/m2]; verdict",

@@ -70,21 +70,21 @@ def surface_factor_required(climate, *, critical_rh=CRITICAL_RH_MOULD) -> np.nda
     ----------
     [source: iso13788-surface, 5.2 and 5.3 (f_Rsi,min, critical month)].
     """
-    return surface_factor_min(climate.temp_outside, climate.temp_inside, climate.rh_inside,
+    return surface_factor_min(climate.temp_inside, climate.temp_outside, climate.rh_inside,
                               critical_rh=critical_rh)
 
 
-def surface_factor_min(temp_outside, temp_inside, rh_inside, *,
+def surface_factor_min(temp_inside, temp_outside, rh_inside, *,
                        critical_rh=CRITICAL_RH_MOULD):
     """``f_Rsi,min = (theta_si,min - theta_e)/(theta_i - theta_e)`` with ``theta_si,min`` the
     dew point of ``phi_i p_sat(theta_i) / phi_si,cr``, for one month or arrays of months.
 
     Parameters
     ----------
-    temp_outside : float or array_like
-        Monthly mean outside temperature. [degC]
     temp_inside : float or array_like
         Inside temperature. [degC]
+    temp_outside : float or array_like
+        Monthly mean outside temperature. [degC]
     rh_inside : float or array_like
         Inside relative humidity as a fraction 0..1. [-]
     critical_rh : float
