@@ -327,7 +327,7 @@ def test_a_bad_construction_does_not_cascade_into_does_not_exist():
     data["rooms"][0]["elements"].append(
         {"name": "floor", "method": "slab_on_ground", "construction": "W", "area": 50.0,
          "exposed_perimeter": 30.0, "wall_thickness_mm": 300})
-    data["building"] = {"annual_mean_external_temperature": 10.0}
+    data["building"] = {"temp_outside_annual_mean": 10.0}
     problems = problems_of(data)
     assert problems == [("constructions[1].layers[1].thickness_mm",
                          "must be greater than zero; got -5")]

@@ -59,14 +59,14 @@ _FV_NONLINEAR = ("fv_nonlinear_heat_rate", "fv_nonlinear_tip_temperature",
 
 #: Names of the numeric results of a fin set (HL_FINSET_VALUE's quantity).
 FINSET_QUANTITIES = (
-    "heat_rate", "efficiency", "effectiveness", "resistance", "tip_temperature", "m",
+    "heat_rate", "efficiency", "effectiveness", "resistance", "temp_tip", "m",
     "fin_area", "cross_section_area", "fv_heat_rate", "fv_relative_difference",
     "fv_energy_residual", "fv_mesh_estimate", "fv_cells") + _FV_NONLINEAR + (
     "array_heat_rate", "overall_efficiency", "array_resistance", "total_area",
     "fin_heat_rate_in_array", "length_for_target_mm", "count_for_target")
 
 
-def _straight_options(shape, tip, width_mm, tip_temperature, profile) -> dict:
+def _straight_options(shape, tip, width_mm, temp_tip, profile) -> dict:
     """Optional arguments first, so a bad one is named even when required ones are blank."""
     kind = text("shape", shape, "plate").lower()
     if kind not in ("plate", "pin"):
@@ -77,7 +77,7 @@ def _straight_options(shape, tip, width_mm, tip_temperature, profile) -> dict:
                               f"got {mode!r}")
     width = number("width_mm", width_mm, None, low=MIN_MM, high=MAX_MM, low_inclusive=True,
                    unit="mm")
-    t_l = number("tip_temperature", tip_temperature, None, low=_ABS_ZERO, high=_MAX_TEMP,
+    t_l = number("temp_tip", temp_tip, None, low=_ABS_ZERO, high=_MAX_TEMP,
                  low_inclusive=True, unit="degC")
     prof = text("profile", profile, "rectangular").lower()
     if prof not in ("rectangular", "triangular", "parabolic"):
@@ -86,13 +86,13 @@ def _straight_options(shape, tip, width_mm, tip_temperature, profile) -> dict:
     if width is not None and kind == "pin":
         raise HeatLedgerError("width_mm applies to plate fins only; leave it blank for a pin")
     if (mode == "temperature") != (t_l is not None):
-        raise HeatLedgerError("tip_temperature is needed with tip \"temperature\" and only "
-                              f"then; got tip {mode!r} and tip_temperature "
+        raise HeatLedgerError("temp_tip is needed with tip \"temperature\" and only "
+                              f"then; got tip {mode!r} and temp_tip "
                               f"{'blank' if t_l is None else f'{t_l:g}'}")
     if prof != "rectangular" and mode not in ("convective", "adiabatic"):
         raise HeatLedgerError(f"a {prof} profile ends in an edge or point: tip must be "
                               f"\"convective\" or \"adiabatic\"; got {mode!r}")
-    return {"shape": kind, "tip": mode, "width": width, "tip_temperature": t_l,
+    return {"shape": kind, "tip": mode, "width": width, "temp_tip": t_l,
             "profile": prof}
 
 
@@ -118,7 +118,7 @@ def _straight_fin(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, op
     tip = opts["tip"]
     kwargs = {"tip": "convective" if tip == "corrected" else tip,
               "corrected_length": tip == "corrected", "profile": opts["profile"],
-              "tip_temperature": opts["tip_temperature"]}
+              "temp_tip": opts["temp_tip"]}
     if opts["shape"] == "plate":
         w = 1.0 if opts["width"] is None else opts["width"] / 1000.0
         fin = _guard(lambda: StraightFin(length, k, hh, thickness=size, width=w, **kwargs))
@@ -128,8 +128,8 @@ def _straight_fin(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, op
 
 
 def _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape,
-                     tip, width_mm, tip_temperature, profile):
-    opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
+                     tip, width_mm, temp_tip, profile):
+    opts = _straight_options(shape, tip, width_mm, temp_tip, profile)
     fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, temp_base,
                                     temp_fluid, opts)
     return _evaluate(fin, t_b, t_inf)
@@ -168,7 +168,7 @@ def _annular_result(d1_mm, d2_mm, t_mm, conductivity, h, temp_base, temp_fluid, 
 
 def _evaluate(fin, t_b, t_inf):
     res = _guard(lambda: fin.evaluate(t_b, t_inf))
-    for name in ("heat_rate", "efficiency", "effectiveness", "fin_resistance", "tip_temperature"):
+    for name in ("heat_rate", "efficiency", "effectiveness", "fin_resistance", "temp_tip"):
         if not math.isfinite(getattr(res, name)):
             raise HeatLedgerError(f"{name} is undefined when temp_base equals temp_fluid "
                                   f"({t_b:g} degC) for this tip condition")
@@ -201,7 +201,7 @@ def _result_rows(fin, t_b, t_inf, cells):
     fv = _guard(lambda: fin.finite_volume(t_b, t_inf, nodes=cells))
     rows = [["heat_rate", res.heat_rate, "W"], ["efficiency", res.efficiency, "-"],
             ["effectiveness", res.effectiveness, "-"], ["resistance", res.fin_resistance, "K/W"],
-            ["tip_temperature", res.tip_temperature, "degC"], ["m", res.m, "1/m"],
+            ["temp_tip", res.temp_tip, "degC"], ["m", res.m, "1/m"],
             ["fin_area", res.fin_area, "m2"],
             ["cross_section_area", res.cross_section_area, "m2"],
             ["fv_heat_rate", fv.heat_rate, "W"],
@@ -341,7 +341,7 @@ def _finset_rows_of(entry):
     if entry.fv.nonlinear:
         fv = _guard(entry.finite_volume)
         rows += [["fv_nonlinear_heat_rate", fv.heat_rate, "W"],
-                 ["fv_nonlinear_tip_temperature", fv.tip_temperature, "degC"],
+                 ["fv_nonlinear_tip_temperature", fv.temp_tip, "degC"],
                  ["fv_nonlinear_iterations", float(fv.iterations), "-"]]
         warns += [["warning", t, ""] for t in fv.warnings]
     if entry.array is not None:

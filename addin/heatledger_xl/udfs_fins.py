@@ -14,7 +14,7 @@ Three groups, lengths in millimetres as on a data sheet, everything else SI:
   ``length_mm, size_mm, conductivity, h, temp_base, temp_fluid`` then the optional
   ``shape`` ("plate"/"pin"), ``tip`` ("convective", "adiabatic", "temperature",
   "infinite", or "corrected" = convective tip by the corrected length), ``width_mm``
-  (plates; blank = 1000 mm, results per metre of base), ``tip_temperature``, ``profile``.
+  (plates; blank = 1000 mm, results per metre of base), ``temp_tip``, ``profile``.
 - **Annular fins** on a tube: ``HL_ANNULAR_HEATRATE``, ``HL_ANNULAR_EFFICIENCY``,
   ``HL_ANNULAR_EFFECTIVENESS``, ``HL_ANNULAR_TIP_TEMP``, ``HL_ANNULAR_TEMPS`` (spill), with
   ``tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h, temp_base,
@@ -111,7 +111,7 @@ _D = {
             "\"infinite\" or \"corrected\" (convective tip by the corrected length). [-]"),
     "width_mm": "Plate width along the base; blank = 1000, results per metre (plates only). "
                 "[mm]",
-    "tip_temperature": "Tip temperature, only with tip \"temperature\". [degC]",
+    "temp_tip": "Tip temperature, only with tip \"temperature\". [degC]",
     "profile": "\"rectangular\" (default), \"triangular\" or \"parabolic\". [-]",
     "points": "Number of evenly spaced points, base and tip included; default 11. [-]",
     "nodes": "Blank for the closed form; a number of finite-volume cells (2 to 2000) for "
@@ -130,7 +130,7 @@ _D = {
 }
 _STRAIGHT = {k: _D[k] for k in ("length_mm", "size_mm", "conductivity", "h",
                                 "temp_base", "temp_fluid", "shape", "tip", "width_mm",
-                                "tip_temperature", "profile")}
+                                "temp_tip", "profile")}
 _ANNULAR = {k: _D[k] for k in ("tube_diameter_mm", "fin_diameter_mm", "thickness_mm",
                                "conductivity", "h", "temp_base", "temp_fluid")}
 _ANNULAR["tip"] = _D["annular_tip"]
@@ -139,60 +139,60 @@ _ANNULAR["tip"] = _D["annular_tip"]
 # --------------------------------------------------------------------------- straight fins
 @udf(FAMILY, returns="heat rate [W]", args=_STRAIGHT)
 def HL_FIN_HEATRATE(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
-                    tip=None, width_mm=None, tip_temperature=None, profile=None):
+                    tip=None, width_mm=None, temp_tip=None, profile=None):
     """Heat rate a straight fin sheds from its base (Incropera & DeWitt Table 3.4 for
     uniform fins, Table 3.5 for profiled fins); positive when the base is warmer. [W]"""
     return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
-                            shape, tip, width_mm, tip_temperature, profile).heat_rate
+                            shape, tip, width_mm, temp_tip, profile).heat_rate
 
 
 @udf(FAMILY, returns="fin efficiency [-]", args=_STRAIGHT)
 def HL_FIN_EFFICIENCY(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
-                      shape=None, tip=None, width_mm=None, tip_temperature=None, profile=None):
+                      shape=None, tip=None, width_mm=None, temp_tip=None, profile=None):
     """Fin efficiency eta_f = q_f/(h A_f theta_b) of a straight fin (Incropera & DeWitt
     eq. 3.86, Tables 3.4 and 3.5). [-]"""
     return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
-                            shape, tip, width_mm, tip_temperature, profile).efficiency
+                            shape, tip, width_mm, temp_tip, profile).efficiency
 
 
 @udf(FAMILY, returns="fin effectiveness [-]", args=_STRAIGHT)
 def HL_FIN_EFFECTIVENESS(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
-                         shape=None, tip=None, width_mm=None, tip_temperature=None,
+                         shape=None, tip=None, width_mm=None, temp_tip=None,
                          profile=None):
     """Fin effectiveness q_f/(h A_c theta_b); below 1 the fin reduces the heat rate of the
     base it covers (see HL_FIN_RESULTS for the warning). [-]"""
     return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
-                            shape, tip, width_mm, tip_temperature, profile).effectiveness
+                            shape, tip, width_mm, temp_tip, profile).effectiveness
 
 
 @udf(FAMILY, returns="fin thermal resistance [K/W]", args=_STRAIGHT)
 def HL_FIN_RESISTANCE(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
-                      shape=None, tip=None, width_mm=None, tip_temperature=None, profile=None):
+                      shape=None, tip=None, width_mm=None, temp_tip=None, profile=None):
     """Fin thermal resistance R_t,f = theta_b/q_f of a straight fin (Incropera & DeWitt
     eq. 3.83). [K/W]"""
     return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
-                            shape, tip, width_mm, tip_temperature, profile).fin_resistance
+                            shape, tip, width_mm, temp_tip, profile).fin_resistance
 
 
 @udf(FAMILY, returns="tip temperature [degC]", args=_STRAIGHT)
 def HL_FIN_TIP_TEMP(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
-                   tip=None, width_mm=None, tip_temperature=None, profile=None):
+                   tip=None, width_mm=None, temp_tip=None, profile=None):
     """Temperature at the tip of a straight fin from the closed-form temperature
     distribution (Incropera & DeWitt Table 3.4). [degC]"""
     return _straight_result(length_mm, size_mm, conductivity, h, temp_base, temp_fluid,
-                            shape, tip, width_mm, tip_temperature, profile).tip_temperature
+                            shape, tip, width_mm, temp_tip, profile).temp_tip
 
 
 @udf(FAMILY, returns="spill: x [mm], temperature [degC]",
      args={**_STRAIGHT, "points": _D["points"], "nodes": _D["nodes"], "header": _D["header"]},
      spills=True)
 def HL_FIN_TEMPS(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
-                 tip=None, width_mm=None, tip_temperature=None, profile=None, points=None,
+                 tip=None, width_mm=None, temp_tip=None, profile=None, points=None,
                  nodes=None, header=None):
     """Temperature along a straight fin as rows of distance from the base and temperature:
     the closed form, or finite volumes (cell centres and both faces) when nodes is given.
     [mm, degC]"""
-    opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
+    opts = _straight_options(shape, tip, width_mm, temp_tip, profile)
     n_pts, n_fv, head = _table_options(points, nodes, header)
     fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, temp_base,
                                     temp_fluid, opts)
@@ -205,12 +205,12 @@ def HL_FIN_TEMPS(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, sha
 @udf(FAMILY, returns="spill: quantity, value, unit",
      args={**_STRAIGHT, "nodes": _D["nodes"], "header": _D["header"]}, spills=True)
 def HL_FIN_RESULTS(length_mm, size_mm, conductivity, h, temp_base, temp_fluid, shape=None,
-                   tip=None, width_mm=None, tip_temperature=None, profile=None, nodes=None,
+                   tip=None, width_mm=None, temp_tip=None, profile=None, nodes=None,
                    header=None):
     """Every result of a straight fin: heat rate, efficiency, effectiveness, resistance,
     tip temperature, m, areas, the finite-volume heat rate with energy residual and mesh
     estimate, and the warnings. [W, -, K/W, degC]"""
-    opts = _straight_options(shape, tip, width_mm, tip_temperature, profile)
+    opts = _straight_options(shape, tip, width_mm, temp_tip, profile)
     _, n_fv, head = _table_options(None, nodes, header)
     fin, t_b, t_inf = _straight_fin(length_mm, size_mm, conductivity, h, temp_base,
                                     temp_fluid, opts)
@@ -251,7 +251,7 @@ def HL_ANNULAR_TIP_TEMP(tube_diameter_mm, fin_diameter_mm, thickness_mm, conduct
     """Temperature at the outer radius (rim) of an annular fin from the Bessel-function
     temperature distribution. [degC]"""
     return _annular_result(tube_diameter_mm, fin_diameter_mm, thickness_mm, conductivity, h,
-                           temp_base, temp_fluid, tip).tip_temperature
+                           temp_base, temp_fluid, tip).temp_tip
 
 
 @udf(FAMILY, returns="spill: radius [mm], temperature [degC]",

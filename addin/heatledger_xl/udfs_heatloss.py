@@ -32,7 +32,7 @@ col  heading (suggested)        rule
 3    transmittance              U [W/(m2 K)], psi [W/(m K)] or chi [W/K].
 4    temperature other side     [degC]; blank = outside air at ``temp_outside``; the text
                                 ``ground`` = the ground (EN 12831-1 factor f_g1 f_g2 G_w
-                                from ``annual_mean_external_temperature`` and
+                                from ``temp_outside_annual_mean`` and
                                 ``groundwater``; U_equiv from ``HL_SLAB_UVALUE`` ...).
 5    adjustment factor b        [-], 0 to 1, instead of column 4 (unheated space of unknown
                                 temperature).
@@ -162,7 +162,7 @@ _D = {
     "elements": ("Element range: kind (wall...door, linear, point), quantity, U/psi/chi, "
                  "temperature on the other side (blank = outside, \"ground\"), factor b, "
                  "Delta U_TB. [m2 or m, W/(m2 K), degC, -]"),
-    "annual_mean_external_temperature": ("Annual mean external temperature theta_m,e for "
+    "temp_outside_annual_mean": ("Annual mean external temperature theta_m,e for "
                                          "rows marked \"ground\". [degC]"),
     "groundwater": ("\"deep\" (water table more than 1 m below the floor, G_w 1.00, default) "
                     "or \"shallow\" (G_w 1.15). [-]"),
@@ -302,15 +302,15 @@ def HL_VENTILATION_HV(air_flow_m3_per_h, heat_recovery=None):
 
 # --------------------------------------------------------------------------- rooms
 _ROOM_ARGS = _args("elements", "temp_inside", "temp_outside",
-                   "annual_mean_external_temperature", "groundwater")
+                   "temp_outside_annual_mean", "groundwater")
 
 
 @udf(FAMILY, returns="H_T [W/K]", args=_ROOM_ARGS, ranges=("elements",))
-def HL_ROOM_HT(elements, temp_inside, temp_outside, annual_mean_external_temperature=None,
+def HL_ROOM_HT(elements, temp_inside, temp_outside, temp_outside_annual_mean=None,
                groundwater=None):
     """Transmission heat-loss coefficient H_T = sum A (U + dU_TB) f + sum psi l f + sum chi f
     of a room's element range (EN 12831-1 style). [W/K]"""
-    ground = _ground(annual_mean_external_temperature, groundwater)
+    ground = _ground(temp_outside_annual_mean, groundwater)
     room = _room(elements, temp_inside, temp_outside, 0.0, 0.0, ground)
     return room.heat_load(room.temp_outside).transmission_coefficient
 
@@ -318,12 +318,12 @@ def HL_ROOM_HT(elements, temp_inside, temp_outside, annual_mean_external_tempera
 @udf(FAMILY, returns="design heat load [W]",
      args={**_ROOM_ARGS, **_args("ventilation_coefficient", "reheat")},
      ranges=("elements",))
-def HL_ROOM_LOAD(elements, temp_inside, temp_outside, annual_mean_external_temperature=None,
+def HL_ROOM_LOAD(elements, temp_inside, temp_outside, temp_outside_annual_mean=None,
                  groundwater=None, ventilation_coefficient=None, reheat=None):
     """Design heat load of a room Phi_HL = (H_T + H_V)(temp_inside - temp_outside) + Phi_hu
     from its element range (EN 12831-1 style). [W]"""
     h_v, phi_hu = _ventilation_and_reheat(ventilation_coefficient, reheat)
-    ground = _ground(annual_mean_external_temperature, groundwater)
+    ground = _ground(temp_outside_annual_mean, groundwater)
     room = _room(elements, temp_inside, temp_outside, h_v, phi_hu, ground)
     return room.design_heat_load(room.temp_outside)
 
@@ -331,13 +331,13 @@ def HL_ROOM_LOAD(elements, temp_inside, temp_outside, annual_mean_external_tempe
 @udf(FAMILY, returns="spill: line, kind, H [W/K], heat flow [W], share [-]",
      args={**_ROOM_ARGS, **_args("ventilation_coefficient", "reheat", "header")},
      ranges=("elements",), spills=True)
-def HL_ROOM_SHARES(elements, temp_inside, temp_outside, annual_mean_external_temperature=None,
+def HL_ROOM_SHARES(elements, temp_inside, temp_outside, temp_outside_annual_mean=None,
                    groundwater=None, ventilation_coefficient=None, reheat=None, header=None):
     """Breakdown of a room's design heat load: one row per element row, then ventilation and
     heating-up, with H, heat flow and share of Phi_HL (EN 12831-1 style). [W/K, W, -]"""
     show_header = flag("header", header, False)
     h_v, phi_hu = _ventilation_and_reheat(ventilation_coefficient, reheat)
-    ground = _ground(annual_mean_external_temperature, groundwater)
+    ground = _ground(temp_outside_annual_mean, groundwater)
     room = _room(elements, temp_inside, temp_outside, h_v, phi_hu, ground)
     res = room.heat_load(room.temp_outside)
     rows = [[ln.name, ln.kind, ln.coefficient, ln.heat_loss,
@@ -421,12 +421,12 @@ def _edge(orientation, extent, resistance, thickness_mm):
     return EdgeInsulation(o, d, rn, dn / 1000.0)
 
 
-def _ground(annual_mean_external_temperature, groundwater):
+def _ground(temp_outside_annual_mean, groundwater):
     """(theta_m,e or None, G_w) for rows marked "ground"."""
     gw = _choice("groundwater", groundwater, BUILDING_TABLE.column("groundwater").choices,
                  BUILDING_TABLE.column("groundwater").default)
-    key = "annual_mean_external_temperature"
-    tme = number(key, annual_mean_external_temperature, None)
+    key = "temp_outside_annual_mean"
+    tme = number(key, temp_outside_annual_mean, None)
     tme = None if tme is None else check_value(BUILDING_TABLE.column(key), tme, key)
     return tme, GROUNDWATER_FACTOR_SHALLOW if gw == "shallow" else GROUNDWATER_FACTOR_DEEP
 
@@ -495,7 +495,7 @@ def _element_rows(cells, ground):
                                   "a factor (column 5), not both")
         if on_ground and ground[0] is None:
             raise HeatLedgerError(f"{where} is marked ground: give "
-                                  "annual_mean_external_temperature (theta_m,e)")
+                                  "temp_outside_annual_mean (theta_m,e)")
         boundary = (Ground(ground[0], groundwater_factor=ground[1]) if on_ground else
                     Outside() if temp is None and b is None else
                     Unheated(adjustment_factor=b) if b is not None else

@@ -212,7 +212,7 @@ def test_finset_problems_name_the_key_and_row():
     (lambda: uf.HL_FIN_HEATRATE(-5, 2, 200, 25, 80, 20), "length_mm must be at least"),
     (lambda: uf.HL_FIN_HEATRATE(50, 2, 200, 25, 80, 20, "pin", None, 100), "width_mm"),
     (lambda: uf.HL_FIN_HEATRATE(50, 2, 200, 25, 80, 20, None, "temperature"),
-     "tip_temperature"),
+     "temp_tip"),
     (lambda: uf.HL_FIN_HEATRATE(50, 2, 200, 25, 80, 20, None, "infinite", None, None,
                                 "parabolic"), "tip must be"),
     (lambda: uf.HL_ANNULAR_HEATRATE(50, 40, 1, 200, 25, 80, 20), "fin_diameter_mm must exceed"),
@@ -245,7 +245,7 @@ PLAUSIBLE = {
     "h": st.floats(min_value=1e-3, max_value=1e6),
     "temp_base": st.floats(min_value=-273.15, max_value=2000),
     "temp_fluid": st.floats(min_value=-273.15, max_value=2000),
-    "tip_temperature": st.one_of(st.none(), st.floats(min_value=-273.15, max_value=2000)),
+    "temp_tip": st.one_of(st.none(), st.floats(min_value=-273.15, max_value=2000)),
     "shape": st.sampled_from([None, "plate", "pin"]),
     "tip": st.sampled_from([None, "convective", "adiabatic", "temperature", "infinite",
                             "corrected"]),
@@ -296,7 +296,7 @@ _SPEC_KEYS = ["h", "temp_base", "temp_fluid", "length_mm", "thickness_mm", "widt
               "count", "base_area", "contact_resistance", "target_heat_rate", "cells",
               "emissivity", "temp_surroundings", "h_coefficient", "h_exponent",
               "tube_diameter_mm", "fin_diameter_mm", "diameter_mm", "conductivity",
-              "tip_temperature"]
+              "temp_tip"]
 _SPEC_TEXTS = {"tip": ["convective", "adiabatic", "temperature", "infinite"],
                "profile": ["rectangular", "triangular", "parabolic"],
                "corrected_length": [True, False]}

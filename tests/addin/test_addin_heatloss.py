@@ -163,7 +163,7 @@ def test_ground_rows_use_the_ground_factors():
     assert udfs.HL_ROOM_HT(table, 20.0, -12.0, 9.0, "shallow") == pytest.approx(
         100 * u_floor * f, rel=rtol_same)
     out = udfs.HL_ROOM_HT(table, 20.0, -12.0)
-    assert isinstance(out, str) and "annual_mean_external_temperature" in out
+    assert isinstance(out, str) and "temp_outside_annual_mean" in out
 
 
 def test_a_room_facing_only_its_own_temperature_loses_nothing():
@@ -254,7 +254,7 @@ PLAUSIBLE = {
     "reheat": st.one_of(st.none(), st.floats(0, 2000)),
     "heat_loss_coefficient": st.floats(0, 5000), "degree_days": st.floats(0, 6000),
     "degree_day_base": st.floats(8, 20),
-    "annual_mean_external_temperature": st.one_of(st.none(), st.floats(-5, 20)),
+    "temp_outside_annual_mean": st.one_of(st.none(), st.floats(-5, 20)),
     "groundwater": st.sampled_from([None, "deep", "shallow"]),
     "header": st.one_of(st.none(), st.booleans()),
 }

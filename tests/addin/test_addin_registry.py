@@ -8,8 +8,10 @@ the process restarted.
 
 from __future__ import annotations
 
+import csv
 import importlib
 import math
+from pathlib import Path
 
 import pytest
 
@@ -147,6 +149,31 @@ def test_the_pair_rule_catches_a_swapped_or_separated_pair():
     assert _swapped_pairs(["temp_outside", "temp_inside", "rh_inside"]) == \
         [("temp_inside", "temp_outside")]
     assert _swapped_pairs(["layers", "rsi", "heat_flow", "rse"]) == [("rsi", "rse")]
+
+
+def _glossary_units() -> dict[str, str]:
+    path = (Path(__file__).resolve().parents[2] / "core" / "heatledger" / "data"
+            / "glossary.csv")
+    rows = [line for line in path.read_text().splitlines() if not line.startswith("#")]
+    return {row["name"]: row["unit"] for row in csv.DictReader(rows)}
+
+
+def _misnamed_temperatures(args: list[str], units: dict[str, str]) -> list[str]:
+    """Arguments in degC whose name does not say temperature the one way (temp_*)."""
+    return [a for a in args if units.get(a) == "degC"
+            and not (a == "temp" or a.startswith("temp_") or a == "temperature")]
+
+
+@pytest.mark.parametrize("name", sorted(REGISTRY))
+def test_every_temperature_argument_is_named_temp(name):
+    args = [a.name for a in REGISTRY[name].args]
+    assert not _misnamed_temperatures(args, _glossary_units()), (name, args)
+
+
+def test_the_temperature_rule_catches_an_old_name():
+    units = {"tip_temperature": "degC", "temp_tip": "degC", "h": "W/(m2 K)"}
+    assert _misnamed_temperatures(["h", "tip_temperature", "temp_tip"], units) == \
+        ["tip_temperature"]
 
 
 def test_hl_message_explains_a_problem_and_says_when_there_is_none():

@@ -108,11 +108,11 @@ def textbook_uniform(fin, x, theta_l=None):
 CASES = [
     ("plate-convective", lambda: plate(tip="convective")),
     ("plate-adiabatic", lambda: plate(tip="adiabatic")),
-    ("plate-temperature", lambda: plate(tip="temperature", tip_temperature=35.0)),
+    ("plate-temperature", lambda: plate(tip="temperature", temp_tip=35.0)),
     ("plate-infinite", lambda: plate(tip="infinite", length=0.4)),
     ("pin-convective", lambda: pin(tip="convective")),
     ("pin-adiabatic", lambda: pin(tip="adiabatic")),
-    ("pin-temperature", lambda: pin(tip="temperature", tip_temperature=10.0)),
+    ("pin-temperature", lambda: pin(tip="temperature", temp_tip=10.0)),
     ("pin-infinite", lambda: pin(tip="infinite", length=0.3)),
 ]
 
@@ -123,14 +123,14 @@ def test_uniform_fin_matches_table_3_4(name, make):
     # source: Incropera & DeWitt 6th ed., Table 3.4 (cases A-D), equations re-typed above
     fin = make()
     x = np.linspace(0.0, fin.length, 21)
-    theta_ref, q_ref, m_ref = textbook_uniform(fin, x, theta_l=(fin.tip_temperature or 0) - T_INF)
+    theta_ref, q_ref, m_ref = textbook_uniform(fin, x, theta_l=(fin.temp_tip or 0) - T_INF)
     prof = fin.temperatures(T_B, T_INF, points=21)
     assert fin.m == pytest.approx(m_ref, rel=rtol_closed)
     assert fin.heat_rate(T_B, T_INF) == pytest.approx(q_ref, rel=rtol_closed)
     np.testing.assert_allclose(prof.temperature - T_INF, theta_ref, rtol=rtol_closed,
                                atol=ATOL_LINEAR_SOLVE)
     res = fin.evaluate(T_B, T_INF)
-    assert res.tip_temperature == pytest.approx(T_INF + theta_ref[-1], rel=rtol_closed)
+    assert res.temp_tip == pytest.approx(T_INF + theta_ref[-1], rel=rtol_closed)
     assert res.fin_resistance == pytest.approx(THETA_B / q_ref, rel=rtol_closed)
     # source: Incropera & DeWitt 6th ed., eq. 3.86 (efficiency) and 3.81 (effectiveness),
     # numbers recalled: eta = q/(h A_f theta_b), eps = q/(h A_c theta_b)
@@ -151,7 +151,7 @@ def test_adiabatic_tip_is_m_tanh_ml():
 
 def test_prescribed_tip_side_loss_balance():
     # source: Table 3.4 case C; heat convected = base heat - heat conducted out at the tip
-    fin = plate(tip="temperature", tip_temperature=35.0)
+    fin = plate(tip="temperature", temp_tip=35.0)
     x = np.linspace(0, fin.length, 2001)
     theta, q, m = textbook_uniform(fin, x, theta_l=15.0)
     k_ac = fin.conductivity * fin.cross_section_area
@@ -260,7 +260,7 @@ def test_uniform_fin_against_solve_bvp(name, make):
     h, k, a_c, p = fin.h, fin.conductivity, fin.cross_section_area, fin.perimeter
     m = math.sqrt(h * p / (k * a_c))
     big_l = fin.length if fin.tip != "infinite" else 40.0 / m
-    ratio_l = ((fin.tip_temperature or 0.0) - T_INF) / THETA_B
+    ratio_l = ((fin.temp_tip or 0.0) - T_INF) / THETA_B
     ml2 = (m * big_l) ** 2
 
     def fun(xi, y):
@@ -466,18 +466,18 @@ def test_effectiveness_below_one_warns_only_when_asked():
 # ----------------------------------------------------------------------------- finite volumes
 def _fv_errors(fin, node_list):
     exact_q = fin.heat_rate(T_B, T_INF)
-    exact_tip = fin.evaluate(T_B, T_INF).tip_temperature
+    exact_tip = fin.evaluate(T_B, T_INF).temp_tip
     out = []
     for n in node_list:
         fv = fin.finite_volume(T_B, T_INF, nodes=n, mesh_estimate=False)
-        out.append((abs(fv.heat_rate - exact_q), abs(fv.tip_temperature - exact_tip)))
+        out.append((abs(fv.heat_rate - exact_q), abs(fv.temp_tip - exact_tip)))
     return np.array(out)
 
 
 @pytest.mark.parametrize("make", [
     lambda: plate(tip="adiabatic", length=0.15),
     lambda: plate(tip="convective", length=0.15),
-    lambda: pin(tip="temperature", tip_temperature=30.0, length=0.1),
+    lambda: pin(tip="temperature", temp_tip=30.0, length=0.1),
     lambda: pin(tip="infinite", length=0.1),
     lambda: AnnularFin(0.01, 0.04, 0.0008, 200.0, 60.0, tip="convective"),
 ], ids=["plate-adiabatic", "plate-convective", "pin-temperature", "pin-infinite", "annular"])
@@ -753,8 +753,8 @@ BAD = [
     (lambda: StraightFin(0.05, 200, 25, thickness=0.002, tip="cold"),
      'tip must be one of "convective", "adiabatic", "temperature" or "infinite"; got "cold"'),
     (lambda: StraightFin(0.05, 200, 25, thickness=0.002, tip="temperature"),
-     "needs tip_temperature"),
-    (lambda: StraightFin(0.05, 200, 25, thickness=0.002, tip_temperature=30.0),
+     "needs temp_tip"),
+    (lambda: StraightFin(0.05, 200, 25, thickness=0.002, temp_tip=30.0),
      'only with tip "temperature"'),
     (lambda: StraightFin(0.05, 200, 25, diameter=0.002, width=0.5), "plate fins only"),
     (lambda: StraightFin(0.05, 200, 25, thickness=0.002, profile="wavy"),
@@ -777,7 +777,7 @@ BAD = [
     (lambda: FinArray(StraightFin(0.05, 200, 25, thickness=0.002), 2.5, 0.1),
      "count must be a whole number"),
     (lambda: FinArray(StraightFin(0.05, 200, 25, thickness=0.002, tip="temperature",
-                                  tip_temperature=30.0), 2, 0.1), 'got tip "temperature"'),
+                                  temp_tip=30.0), 2, 0.1), 'got tip "temperature"'),
     (lambda: FinArray(StraightFin(0.05, 200, 25, thickness=0.002), 2, 0.1,
                       contact_resistance=-1e-4), "contact_resistance must not be negative"),
     (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, temp_base=80,
@@ -785,7 +785,7 @@ BAD = [
     (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, temp_base=80,
                           temp_fluid=20, linearisation="guess"), "linearisation must be one of"),
     (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, temp_base=80,
-                          temp_fluid=20, tip="temperature"), "needs tip_temperature"),
+                          temp_fluid=20, tip="temperature"), "needs temp_tip"),
     (lambda: solve_fin_fv(0.05, 200, PowerLawCoefficient(1, 0.25), area=1e-4, perimeter=0.1,
                           temp_base=80, temp_fluid=20, tip="infinite"), "constant h"),
     (lambda: solve_fin_fv(0.05, 200, 25, area=1e-4, perimeter=0.1, temp_base=80,
@@ -874,7 +874,7 @@ def test_cooling_fin_negative_heat_rate():
     fin = plate(tip="convective")
     assert fin.heat_rate(5.0, 20.0) == pytest.approx(-fin.heat_rate(35.0, 20.0), rel=RTOL_LAST_BITS)
     res = fin.evaluate(5.0, 20.0)
-    assert res.efficiency == pytest.approx(fin.efficiency) and 5.0 < res.tip_temperature < 20
+    assert res.efficiency == pytest.approx(fin.efficiency) and 5.0 < res.temp_tip < 20
     arr = FinArray(fin, 10, 0.02)
     sized = arr.count_for_heat_rate(-150.0, 5.0, 20.0)
     assert sized.heat_rate <= -150.0

@@ -116,8 +116,8 @@ def test_every_problem_is_reported_with_its_key_path():
     ({"thickness_mm": -2.0}, "fins[1].thickness_mm", "greater than zero"),
     ({"diameter_mm": 5.0}, "fins[1].thickness_mm", "exactly one of"),
     ({"tip": "pointy"}, "fins[1].tip", "must be one of"),
-    ({"tip": "temperature"}, "fins[1].tip_temperature", "needs tip_temperature"),
-    ({"tip_temperature": 30.0}, "fins[1].tip_temperature", "only with tip"),
+    ({"tip": "temperature"}, "fins[1].temp_tip", "needs temp_tip"),
+    ({"temp_tip": 30.0}, "fins[1].temp_tip", "only with tip"),
     ({"corrected_length": "yes"}, "fins[1].corrected_length", "true or false"),
     ({"temp_base": -300.0}, "fins[1].temp_base", "absolute zero"),
     ({"h": "high"}, "fins[1].h", "must be a number"),
@@ -160,7 +160,7 @@ def test_cli_json_lists_fins_and_the_hot_surface_caution(capsys):
     names = [f["name"] for f in out["fins"]]
     assert names == [e.name for e in demo_project().fins]
     first = out["fins"][0]
-    for key in ("heat_rate", "efficiency", "effectiveness", "tip_temperature", "warnings"):
+    for key in ("heat_rate", "efficiency", "effectiveness", "temp_tip", "warnings"):
         assert key in first
     assert abs(first["fv"]["energy_residual"]) < 1e-9
     assert any("hot to the touch" in c for c in out["cautions"])

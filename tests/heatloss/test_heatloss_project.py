@@ -29,7 +29,7 @@ def small_data() -> dict:
     return {
         "project": {"name": "small (invented)"},
         "design": {"temp_inside": 20.0, "temp_outside": -10.0},
-        "building": {"annual_mean_external_temperature": 10.0, "groundwater": "shallow",
+        "building": {"temp_outside_annual_mean": 10.0, "groundwater": "shallow",
                      "soil": "sand", "degree_days": 2500.0, "degree_day_base": 15.0},
         "constructions": [
             {"name": "W", "heat_flow": "horizontal",
@@ -133,8 +133,8 @@ def test_unknown_construction_names_room_element_rule_and_closest_names():
      'element "wall"'),
     (lambda d: d["rooms"][0]["elements"][2].update(room="C"), "rooms[1].elements[3].room",
      "does not exist"),
-    (lambda d: d["building"].pop("annual_mean_external_temperature"),
-     "building.annual_mean_external_temperature", "faces the ground"),
+    (lambda d: d["building"].pop("temp_outside_annual_mean"),
+     "building.temp_outside_annual_mean", "faces the ground"),
     (lambda d: d["building"].pop("degree_day_base"), "building.degree_day_base",
      "base temperature"),
     (lambda d: d["rooms"][1].update(name="A"), "rooms[2].name", "used twice"),

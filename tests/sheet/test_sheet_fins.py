@@ -57,7 +57,7 @@ def fins_data() -> dict:
         _fin("pin, corrected length", kind="straight", conductivity=380, length_mm=30,
              diameter_mm=5, corrected_length=True),
         _fin("pin, prescribed tip", kind="straight", conductivity=50, length_mm=100,
-             diameter_mm=10, tip="temperature", tip_temperature=30.0),
+             diameter_mm=10, tip="temperature", temp_tip=30.0),
         _fin("pin, infinite", kind="straight", conductivity=16, length_mm=300, diameter_mm=5,
              tip="infinite"),
         _fin("triangular plate", kind="straight", conductivity=180, length_mm=30,
@@ -125,7 +125,7 @@ def test_every_fin_check_ok_and_values_equal_engine(project, tmp_path, recalc, s
         refs = plan.index[("fins", entry.name)]
         res = entry.evaluate()
         for attr in ("heat_rate", "efficiency", "effectiveness", "fin_resistance",
-                     "tip_temperature"):
+                     "temp_tip"):
             assert _value(wb, getattr(refs, attr)) == pytest.approx(getattr(res, attr),
                                                                     rel=RTOL_SHEET), attr
         ws = wb[refs.sheet]

@@ -160,7 +160,7 @@ def test_hand_calculation_of_a_small_room(tmp_path, recalc):
     data = {
         "project": {"name": "hand check (invented)"},
         "design": {"temp_inside": 20.0, "temp_outside": -10.0},
-        "building": {"annual_mean_external_temperature": 10.0, "degree_days": 2000.0,
+        "building": {"temp_outside_annual_mean": 10.0, "degree_days": 2000.0,
                      "degree_day_base": 15.5},
         "constructions": [],
         "rooms": [{

@@ -86,7 +86,7 @@ class FinBase:
         g_b, g_l = self._conductances()
         q = g_b * (t_b - t_inf)
         if g_l:
-            q = q - g_l * (self.tip_temperature - t_inf)
+            q = q - g_l * (self.temp_tip - t_inf)
         return float(q) if np.ndim(q) == 0 else q
 
     def evaluate(self, temp_base: float, temp_fluid: float, *,
@@ -110,7 +110,7 @@ class FinBase:
         t_inf = v.within("temp_fluid", temp_fluid, "temperature")
         theta_b = t_b - t_inf
         g_b, g_l = self._conductances()
-        theta_l = (self.tip_temperature - t_inf) if g_l else 0.0
+        theta_l = (self.temp_tip - t_inf) if g_l else 0.0
         q = g_b * theta_b - g_l * theta_l
         eff, effect, res = self._ratios(q, theta_b, theta_l, g_b)
         tip_theta = float(self._theta(np.array([self._length_axis()[1]]), theta_b,
@@ -118,7 +118,7 @@ class FinBase:
         warns, notes = self._warnings_notes(effect)
         result = FinResult(
             heat_rate=float(q), efficiency=eff, effectiveness=effect, fin_resistance=res,
-            tip_temperature=t_inf + tip_theta, temp_base=t_b, temp_fluid=t_inf,
+            temp_tip=t_inf + tip_theta, temp_base=t_b, temp_fluid=t_inf,
             m=self.m, fin_area=self.fin_area, cross_section_area=self.cross_section_area,
             method=self._method, coefficients=self._coefficients(),
             inputs=dict(self.inputs), warnings=warns, notes=notes,
@@ -154,7 +154,7 @@ class FinBase:
             fv = self.finite_volume(t_b, t_inf, nodes=nodes)
             tip = self._length_axis()[1]
             tip_t = float(np.interp(tip, fv.x, fv.temperature))
-            return FinTemperatures(x=fv.x, temperature=fv.temperature, tip_temperature=tip_t,
+            return FinTemperatures(x=fv.x, temperature=fv.temperature, temp_tip=tip_t,
                                    heat_rate=fv.heat_rate,
                                    method=f"finite volume: {fv.settings['cells']} cells",
                                    fv=fv, warnings=tuple(dict.fromkeys(
@@ -167,10 +167,10 @@ class FinBase:
         x = np.linspace(start, tip, int(points))
         theta_b = t_b - t_inf
         g_b, g_l = self._conductances()
-        theta_l = (self.tip_temperature - t_inf) if g_l else 0.0
+        theta_l = (self.temp_tip - t_inf) if g_l else 0.0
         theta = self._theta(x, theta_b, theta_l)
         return FinTemperatures(x=x, temperature=t_inf + theta,
-                               tip_temperature=float(t_inf + theta[-1]),
+                               temp_tip=float(t_inf + theta[-1]),
                                heat_rate=float(g_b * theta_b - g_l * theta_l),
                                method=f"closed form: {self._method}",
                                warnings=self._warnings_notes(None)[0])

@@ -70,7 +70,7 @@ class FinResult:
         Fin effectiveness ``epsilon_f = q_f / (h A_c,b theta_b)``. [-]
     fin_resistance : float
         Fin thermal resistance ``R_t,f = theta_b / q_f`` (``inf`` when ``theta_b = 0``). [K/W]
-    tip_temperature : float
+    temp_tip : float
         Temperature at the fin tip (outer radius for annular fins). [degC]
     temp_base, temp_fluid : float
         Inputs. [degC]
@@ -99,7 +99,7 @@ class FinResult:
     efficiency: float
     effectiveness: float
     fin_resistance: float
-    tip_temperature: float
+    temp_tip: float
     temp_base: float
     temp_fluid: float
     m: float
@@ -127,7 +127,7 @@ class FinTemperatures:
         Distance from the base (straight fins) or radius (annular fins). [m]
     temperature : ndarray
         Temperature at ``x``. [degC]
-    tip_temperature : float
+    temp_tip : float
         Temperature at the tip / outer radius. [degC]
     heat_rate : float
         Heat rate into the fin at the base by the same method. [W]
@@ -142,7 +142,7 @@ class FinTemperatures:
 
     x: np.ndarray
     temperature: np.ndarray
-    tip_temperature: float
+    temp_tip: float
     heat_rate: float
     method: str
     fv: FinFVResult | None = None
@@ -168,7 +168,7 @@ class FinFVResult:
     heat_loss_tip : float
         Heat leaving through the tip face (convection and radiation from a convective tip,
         conduction for a prescribed or infinite tip, 0 for an adiabatic tip). [W]
-    tip_temperature : float
+    temp_tip : float
         Tip face temperature. [degC]
     efficiency : float
         Heat lost / heat that the same surface would lose at the base temperature
@@ -205,7 +205,7 @@ class FinFVResult:
     heat_rate: float
     heat_loss_surface: float
     heat_loss_tip: float
-    tip_temperature: float
+    temp_tip: float
     efficiency: float
     effectiveness: float
     energy_residual: float

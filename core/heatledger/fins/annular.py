@@ -114,7 +114,7 @@ class AnnularFin(FinBase):
                 f'corrected_length applies to tip "convective"; got tip {v.show(self.tip)}'
             )
 
-    tip_temperature = None  # no prescribed-temperature rim for annular fins
+    temp_tip = None  # no prescribed-temperature rim for annular fins
 
     # ---------------------------------------------------------------- geometry
     @property

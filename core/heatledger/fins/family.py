@@ -64,7 +64,7 @@ def report(results: dict, write, shown: set) -> None:
         aq, ae = ("", "") if arr is None else (f"{arr['heat_rate']:.2f}",
                                                f"{arr['overall_efficiency']:.3f}")
         write(f"{f['name'][:40]:<40} {f['heat_rate']:>9.3f} {f['efficiency']:>6.3f} "
-          f"{f['effectiveness']:>7.2f} {f['tip_temperature']:>8.2f} {aq:>10} {ae:>6}\n")
+          f"{f['effectiveness']:>7.2f} {f['temp_tip']:>8.2f} {aq:>10} {ae:>6}\n")
     for f in fins:
         fv = f["fv"]
         write(f"\n{f['name']}: {f['method']}; finite volumes {fv['heat_rate']:.4f} W "

@@ -85,7 +85,7 @@ def solve_fin_fv(
     temp_fluid: float,
     nodes: int = 200,
     tip: str = "adiabatic",
-    tip_temperature: float | None = None,
+    temp_tip: float | None = None,
     tip_area: float | None = None,
     emissivity: float = 0.0,
     temp_surroundings: float | None = None,
@@ -120,9 +120,9 @@ def solve_fin_fv(
         Number of control volumes (uniform). [-]
     tip : str
         ``"adiabatic"``, ``"convective"`` (same ``h`` and radiation on ``tip_area``),
-        ``"temperature"`` (``tip_temperature`` fixed) or ``"infinite"`` (the fin continues
+        ``"temperature"`` (``temp_tip`` fixed) or ``"infinite"`` (the fin continues
         uniformly: ``-k dT/dx = k m (T - T_inf)``, constant ``h`` only). [-]
-    tip_temperature : float, optional
+    temp_tip : float, optional
         Tip temperature for ``tip="temperature"``. [degC]
     tip_area : float, optional
         Area of the convective tip face; default ``A(length)``. [m2]
@@ -192,9 +192,9 @@ def solve_fin_fv(
     t_sur = t_inf if temp_surroundings is None else v.finite("temp_surroundings",
                                                               temp_surroundings)
     if tip == "temperature":
-        if tip_temperature is None:
-            raise HeatLedgerError("tip='temperature' needs tip_temperature (degC); got None")
-        t_tip_fixed = v.finite("tip_temperature", tip_temperature)
+        if temp_tip is None:
+            raise HeatLedgerError("tip='temperature' needs temp_tip (degC); got None")
+        t_tip_fixed = v.finite("temp_tip", temp_tip)
     law = _h_law(h)
     if tip == "infinite" and (law[0] != "constant" or eps > 0.0):
         raise HeatLedgerError(
@@ -231,7 +231,7 @@ def solve_fin_fv(
                          x_offset)
     return FinFVResult(
         x=x, temperature=temp, heat_rate=out["q"], heat_loss_surface=out["loss_side"],
-        heat_loss_tip=out["loss_tip"], tip_temperature=out["t_tip"],
+        heat_loss_tip=out["loss_tip"], temp_tip=out["t_tip"],
         efficiency=out["efficiency"], effectiveness=float(effectiveness),
         energy_residual=out["residual"], linear_residual=float(sol.energy_residual),
         mesh_estimate=mesh_q, mesh_estimate_tip=mesh_tip, iterations=out["iterations"],
@@ -258,7 +258,7 @@ def _settings(nodes, tip, law, eps, t_sur, linearisation, tolerance, max_iterati
                             f"{mesh_q.basis}" if mesh_q else "none"),
         "temp_base": t_b,
         "temp_fluid": t_inf,
-        "tip_temperature": t_tip,
+        "temp_tip": t_tip,
         "length": length,
         "conductivity": k,
         "x_offset": float(x_offset),
@@ -413,7 +413,7 @@ def _fin_mesh_estimates(run, nodes: int, length: float):
         out = runs[used]
     mesh_q = three_mesh_estimate("heat_rate", meshes, [r["q"] for r in runs], reported=used,
                                  ratio=ratio)
-    mesh_tip = three_mesh_estimate("tip_temperature", meshes, [r["t_tip"] for r in runs],
+    mesh_tip = three_mesh_estimate("temp_tip", meshes, [r["t_tip"] for r in runs],
                                    reported=used, ratio=ratio)
     return out, mesh_q, mesh_tip
 

@@ -26,7 +26,7 @@ Schema (one ``[[fins]]`` table per fin or finned surface)::
     profile = "rectangular"            # "rectangular" (default), "triangular", "parabolic"
     tip = "convective"                 # "convective" (default for straight fins),
                                        # "adiabatic", "temperature", "infinite"
-    # tip_temperature = 30.0           # degC, only with tip = "temperature"
+    # temp_tip = 30.0           # degC, only with tip = "temperature"
     corrected_length = false           # L_c = L + t/2 (or D/4), convective tip only
     # annular fins (instead of length/thickness/width/profile):
     # tube_diameter_mm = 22.0          # outside diameter of the tube = fin root diameter
@@ -228,7 +228,7 @@ def fin_results(entries) -> list:
     -------
     list of dict
         Per entry: ``heat_rate`` [W], ``efficiency`` and ``effectiveness`` [-],
-        ``resistance`` [K/W], ``tip_temperature`` [degC] of one fin; ``fv`` (finite-volume
+        ``resistance`` [K/W], ``temp_tip`` [degC] of one fin; ``fv`` (finite-volume
         heat rate [W], energy residual [-], mesh estimate [W], cells); ``array`` (count, heat
         rate [W], overall efficiency [-], resistance [K/W]) or None; ``sizing`` (fin length
         [mm] and count for the target, or the reason there is none); ``warnings``.
@@ -253,8 +253,8 @@ def fin_results(entries) -> list:
             "temp_base": e.temp_base, "temp_fluid": e.temp_fluid,
             "heat_rate": res.heat_rate, "efficiency": res.efficiency,
             "effectiveness": res.effectiveness, "fin_resistance": res.fin_resistance,
-            "tip_temperature": res.tip_temperature,
-            "fv": {"heat_rate": fv.heat_rate, "tip_temperature": fv.tip_temperature,
+            "temp_tip": res.temp_tip,
+            "fv": {"heat_rate": fv.heat_rate, "temp_tip": fv.temp_tip,
                    "energy_residual": fv.energy_residual,
                    "mesh_estimate_heat_rate": fv.mesh_estimate.error_estimate,
                    "cells": fv.settings["cells"], "iterations": fv.iterations,
@@ -346,15 +346,15 @@ def _straight_inputs(row, where, problems) -> dict:
                          "diameter_mm)"))
     tip = _choice(row, "tip", STRAIGHT_TIPS, "convective", where, problems)
     profile = _choice(row, "profile", STRAIGHT_PROFILES, "rectangular", where, problems)
-    t_l = number(row, "tip_temperature", where, problems, above_absolute_zero=True)
-    if tip == "temperature" and row.get("tip_temperature") is None:
-        problems.append((f"{where}.tip_temperature", 'tip = "temperature" needs '
-                         "tip_temperature (degC)"))
-    if tip != "temperature" and row.get("tip_temperature") is not None:
-        problems.append((f"{where}.tip_temperature", f'is used only with tip = "temperature"; '
+    t_l = number(row, "temp_tip", where, problems, above_absolute_zero=True)
+    if tip == "temperature" and row.get("temp_tip") is None:
+        problems.append((f"{where}.temp_tip", 'tip = "temperature" needs '
+                         "temp_tip (degC)"))
+    if tip != "temperature" and row.get("temp_tip") is not None:
+        problems.append((f"{where}.temp_tip", f'is used only with tip = "temperature"; '
                          f"got tip = {show(tip)}"))
     out = {"length": None if length is None else length / 1000.0, "tip": tip,
-           "profile": profile, "tip_temperature": t_l}
+           "profile": profile, "temp_tip": t_l}
     if t is not None:
         out["thickness"] = t / 1000.0
         out["width"] = 1.0 if w is None else w / 1000.0
@@ -480,7 +480,7 @@ def _choice(row, key, choices, default, where, problems):
     return value
 
 
-_ENGINE_KEYS = (("tip_temperature", "tip_temperature"), ("corrected_length", "corrected_length"),
+_ENGINE_KEYS = (("temp_tip", "temp_tip"), ("corrected_length", "corrected_length"),
                 ("inner_radius", "tube_diameter_mm"), ("outer_radius", "fin_diameter_mm"),
                 ("thickness", "thickness_mm"), ("diameter", "diameter_mm"),
                 ("width", "width_mm"), ("length", "length_mm"), ("profile", "profile"),

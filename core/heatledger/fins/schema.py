@@ -57,7 +57,7 @@ FIN_TABLE = Table(
         Column("tip", "Tip (convective/adiabatic/temperature/infinite)", "", "text",
                "tip condition; blank = convective (straight), adiabatic (annular)",
                choices=_TIPS),
-        Column("tip_temperature", "Tip T_L", "degC", "number",
+        Column("temp_tip", "Tip T_L", "degC", "number",
                'tip temperature, only with tip = "temperature"', limit="temperature",
                variants=_S),
         Column("corrected_length", "Corrected length (TRUE/FALSE)", "", "bool",

@@ -48,9 +48,9 @@ class StraightFin(FinBase):
         Plate width along the base (plates only; 1 m gives results per metre). [m]
     tip : str
         ``"convective"`` (Table 3.4 case A), ``"adiabatic"`` (B), ``"temperature"`` (C,
-        needs ``tip_temperature``) or ``"infinite"`` (D). Profiled fins end in an edge or
+        needs ``temp_tip``) or ``"infinite"`` (D). Profiled fins end in an edge or
         point and accept ``"convective"`` or ``"adiabatic"`` only (no tip area). [-]
-    tip_temperature : float, optional
+    temp_tip : float, optional
         Prescribed tip temperature for ``tip="temperature"``. [degC]
     corrected_length : bool
         For ``tip="convective"`` on a rectangular profile: use the adiabatic form with
@@ -63,7 +63,7 @@ class StraightFin(FinBase):
     ------
     HeatLedgerError
         For a non-positive dimension, both or neither of ``thickness`` and ``diameter``, an
-        unknown ``tip`` or ``profile``, ``tip="temperature"`` without ``tip_temperature``,
+        unknown ``tip`` or ``profile``, ``tip="temperature"`` without ``temp_tip``,
         or an option that does not apply (``width`` on a pin, ``corrected_length`` with
         another tip or profile).
 
@@ -124,7 +124,7 @@ class StraightFin(FinBase):
     diameter: float | None = None
     width: float = 1.0
     tip: str = "convective"
-    tip_temperature: float | None = None
+    temp_tip: float | None = None
     corrected_length: bool = False
     profile: str = "rectangular"
 
@@ -155,16 +155,16 @@ class StraightFin(FinBase):
         _set(self, "tip", v.choice("tip", self.tip, STRAIGHT_TIPS))
         _set(self, "profile", v.choice("profile", self.profile, STRAIGHT_PROFILES))
         if self.tip == "temperature":
-            if self.tip_temperature is None:
+            if self.temp_tip is None:
                 raise HeatLedgerError(
-                    'tip "temperature" needs tip_temperature (the tip temperature in degC); '
+                    'tip "temperature" needs temp_tip (the tip temperature in degC); '
                     "it is not given"
                 )
-            _set(self, "tip_temperature", v.within("tip_temperature", self.tip_temperature,
+            _set(self, "temp_tip", v.within("temp_tip", self.temp_tip,
                                                    "temperature"))
-        elif self.tip_temperature is not None:
+        elif self.temp_tip is not None:
             raise HeatLedgerError(
-                'tip_temperature is used only with tip "temperature"; got tip '
+                'temp_tip is used only with tip "temperature"; got tip '
                 f"{v.show(self.tip)}"
             )
         if not isinstance(self.corrected_length, (bool, np.bool_)):
@@ -251,7 +251,7 @@ class StraightFin(FinBase):
                 "length": self.length, "conductivity": self.conductivity, "h": self.h,
                 "thickness": self.thickness, "diameter": self.diameter,
                 "width": self.width if self.shape == "plate" else None, "tip": self.tip,
-                "tip_temperature": self.tip_temperature,
+                "temp_tip": self.temp_tip,
                 "corrected_length": bool(self.corrected_length)}
 
     def with_length(self, length: float) -> StraightFin:
@@ -403,7 +403,7 @@ class StraightFin(FinBase):
             elif self.tip == "convective":
                 setup.update(tip="convective", tip_area=self.cross_section_area)
             elif self.tip == "temperature":
-                setup.update(tip="temperature", tip_temperature=self.tip_temperature)
+                setup.update(tip="temperature", temp_tip=self.temp_tip)
             else:
                 setup["tip"] = "infinite"
             return setup

@@ -130,7 +130,7 @@ def read_boundary(row, where, label, own_room, ctx, problems, default="outside")
     if b == "ground":
         s = ctx.settings
         if s["theta_me"] is None:
-            problems.append(("building.annual_mean_external_temperature",
+            problems.append(("building.temp_outside_annual_mean",
                              f"{label} faces the ground: give the annual mean external "
                              "temperature theta_m,e (degC) in [building]"))
             return None

@@ -53,7 +53,7 @@ class Ground:
 
     Parameters
     ----------
-    annual_mean_external_temperature : float
+    temp_outside_annual_mean : float
         Annual mean external temperature ``theta_m,e``. [degC]
     f_g1 : float, optional
         Correction for the annual variation of the external temperature; 1.45 (recalled). [-]
@@ -66,13 +66,13 @@ class Ground:
     [source: en12831-1, clause 6 (ground factors f_g1, f_g2, G_w)]; [source: iso13370-slab, 8.2].
     """
 
-    annual_mean_external_temperature: float
+    temp_outside_annual_mean: float
     f_g1: float = GROUND_FACTOR_FG1
     groundwater_factor: float = GROUNDWATER_FACTOR_DEEP
 
     def describe(self) -> str:
         """Text for the breakdown. [-]"""
-        return f"ground (theta_m,e {self.annual_mean_external_temperature:g} degC)"
+        return f"ground (theta_m,e {self.temp_outside_annual_mean:g} degC)"
 
 
 @dataclass(frozen=True)
@@ -288,15 +288,15 @@ def _check_boundary(ctx: str, b):
             return Outside()
         raise HeatLedgerError(
             f'{ctx}: boundary {_show(b)} needs its data; use "outside" or a boundary object: '
-            "Outside, Ground (with annual_mean_external_temperature), Unheated (with "
+            "Outside, Ground (with temp_outside_annual_mean), Unheated (with "
             "temperature or adjustment_factor) or AdjacentRoom (with room or temperature)"
         )
     if not isinstance(b, _BOUNDARY_TYPES):
         raise HeatLedgerError(f'{ctx}: boundary must be "outside", Outside, Ground, Unheated '
                               f"or AdjacentRoom; got {_show(b)}")
     if isinstance(b, Ground):
-        _validate.within(f"{ctx}: annual_mean_external_temperature",
-                         b.annual_mean_external_temperature, "temperature")
+        _validate.within(f"{ctx}: temp_outside_annual_mean",
+                         b.temp_outside_annual_mean, "temperature")
         _validate.positive(f"{ctx}: f_g1", b.f_g1)
         _validate.positive(f"{ctx}: groundwater_factor", b.groundwater_factor)
     elif isinstance(b, Unheated):
@@ -373,7 +373,7 @@ def _factor(ctx, b, ti, te, room_temps, own_name):
         return f, "b_u = (theta_int - theta_u)/(theta_int - theta_e)", False, b.describe()
     if isinstance(b, Ground):
         t = need_te("a ground boundary (f_g2)")
-        fg2 = (ti - b.annual_mean_external_temperature) / (ti - t)
+        fg2 = (ti - b.temp_outside_annual_mean) / (ti - t)
         f = b.f_g1 * fg2 * b.groundwater_factor
         rule = (f"f_g1 f_g2 G_w = {b.f_g1:g} x {fg2:.6g} x {b.groundwater_factor:g}, "
                 "f_g2 = (theta_int - theta_m,e)/(theta_int - theta_e)")

@@ -13,7 +13,7 @@ Schema (SI; thickness in mm where a key says so)::
     name = "..."                     # default: the project name
     degree_days = 3100.0             # heating degree-days [K day], for the annual energy
     degree_day_base = 15.5           # base temperature of those degree-days [degC]
-    annual_mean_external_temperature = 9.0   # theta_m,e [degC], needed by ground elements
+    temp_outside_annual_mean = 9.0   # theta_m,e [degC], needed by ground elements
     groundwater = "deep"             # "deep" (G_w 1.00, > 1 m below the floor) or "shallow"
     f_g1 = 1.45                      # optional override of f_g1 [-]
     soil = "clay"                    # or soil_conductivity = 1.5 [W/(m K)]; default 2.0
@@ -97,7 +97,7 @@ class BuildingInput:
         Heating degree-days for the annual energy. [K day]
     degree_day_base : float or None
         Base temperature of the degree-days. [degC]
-    annual_mean_external_temperature : float or None
+    temp_outside_annual_mean : float or None
         ``theta_m,e`` for ground elements. [degC]
     groundwater : str
         ``"deep"`` or ``"shallow"``. [-]
@@ -115,7 +115,7 @@ class BuildingInput:
     temp_outside: float
     degree_days: float | None = None
     degree_day_base: float | None = None
-    annual_mean_external_temperature: float | None = None
+    temp_outside_annual_mean: float | None = None
     groundwater: str = "deep"
     f_g1: float = GROUND_FACTOR_FG1
     groundwater_factor: float = GROUNDWATER_FACTOR_DEEP
@@ -230,7 +230,7 @@ def building_from_dict(data, constructions, library, temp_inside, temp_outside, 
     return BuildingInput(building=building, temp_outside=float(temp_outside),
                          degree_days=settings["degree_days"],
                          degree_day_base=settings["degree_day_base"],
-                         annual_mean_external_temperature=settings["theta_me"],
+                         temp_outside_annual_mean=settings["theta_me"],
                          groundwater=settings["groundwater"], f_g1=settings["f_g1"],
                          groundwater_factor=settings["g_w"], where=where, warnings=warnings)
 
@@ -256,7 +256,7 @@ def _building_settings(raw, problems) -> dict:
                          "degree-days (degC) with degree_days; the energy depends on it"))
     if base is not None and dd is None:
         problems.append(("building.degree_days", "is required with degree_day_base"))
-    theta_me = number(raw, "annual_mean_external_temperature", w, problems,
+    theta_me = number(raw, "temp_outside_annual_mean", w, problems,
                       limit="temperature")
     gw = str(raw.get("groundwater", "deep")).strip().lower()
     if gw not in GROUNDWATER:

@@ -51,7 +51,7 @@ BUILDING_TABLE = Table(
                "heating degree-days for the annual energy", limit="degree_days"),
         Column("degree_day_base", "DD base temperature", "degC", "number",
                "base temperature of the degree-days", limit="temperature"),
-        Column("annual_mean_external_temperature", "Annual mean θ_m,e", "degC", "number",
+        Column("temp_outside_annual_mean", "Annual mean θ_m,e", "degC", "number",
                "annual mean outside temperature (ground losses)", limit="temperature"),
         Column("groundwater", "Groundwater (deep/shallow)", "", "text",
                "groundwater depth (EN 12831-1 G_w)", choices=("deep", "shallow"),

@@ -99,7 +99,7 @@ class FinRefs:
     Attributes
     ----------
     sheet, name : str
-    heat_rate, efficiency, effectiveness, fin_resistance, tip_temperature : str
+    heat_rate, efficiency, effectiveness, fin_resistance, temp_tip : str
         Closed-form results of one fin.
     array : dict
         ``heat_rate``, ``overall_efficiency``, ``fin_resistance`` of the array (empty without).
@@ -115,7 +115,7 @@ class FinRefs:
     efficiency: str
     effectiveness: str
     fin_resistance: str
-    tip_temperature: str
+    temp_tip: str
     checks_ok: str
     check_count: int
     array: dict = field(default_factory=dict)
@@ -305,7 +305,7 @@ def _fin_inputs(st) -> object:
     s = sheet_name
     return FinRefs(sheet=s, name=entry.name, heat_rate=sheet_ref(s, r["q"]),
                    efficiency=sheet_ref(s, r["eta"]), effectiveness=sheet_ref(s, r["eps"]),
-                   fin_resistance=sheet_ref(s, r["R"]), tip_temperature=sheet_ref(s, r["tip"]),
+                   fin_resistance=sheet_ref(s, r["R"]), temp_tip=sheet_ref(s, r["tip"]),
                    checks_ok=sheet_ref(s, ok), check_count=w.checks,
                    array={k: sheet_ref(s, v) for k, v in array_refs.items()},
                    extras={"profile": profile, "fv": fv_rows})
@@ -419,7 +419,7 @@ def _overview(sheet, entries, refs) -> dict:
         b.put(f"C{row}", ref.sheet, style="hl text")
         for col, target, fmt in (("D", ref.heat_rate, F_T), ("E", ref.efficiency, F_T),
                                  ("F", ref.effectiveness, "0.00"), ("G", ref.fin_resistance, F_T),
-                                 ("H", ref.tip_temperature, "0.00"),
+                                 ("H", ref.temp_tip, "0.00"),
                                  ("I", ref.array.get("heat_rate"), "0.00"),
                                  ("J", ref.array.get("overall_efficiency"), F_T),
                                  ("K", ref.array.get("fin_resistance"), F_T)):

@@ -87,7 +87,7 @@ def _straight(w, r, fin, res):
     plate = _fin_size_inputs(w, r, fin, "plate thickness", "pin diameter")
     if fin.tip == "temperature":
         r["TL"] = w.value_row("T_L, prescribed tip temperature [degC]",
-                              value=float(fin.tip_temperature), fmt="0.00")
+                              value=float(fin.temp_tip), fmt="0.00")
     w.start("geometry", "Fin parameter (Incropera & DeWitt, section 3.6.2, Table 3.4)")
     c = res.coefficients
     r["Ac"] = w.value_row("A_c, cross-section [m2]", formula=(f"={r['w']}*{r['t']}" if plate else
@@ -162,7 +162,7 @@ def _straight(w, r, fin, res):
                              engine=res.fin_resistance,
                              note="eq. 3.83")
         tip = f"={r['tinf']}+{th}*" + _theta_ratio(fin, r, r["L"], beta_on)
-    r["tip"] = w.value_row("T at the tip [degC]", formula=tip, engine=res.tip_temperature, fmt=F_T)
+    r["tip"] = w.value_row("T at the tip [degC]", formula=tip, engine=res.temp_tip, fmt=F_T)
 
 
 def _theta_ratio(fin, r, x: str, beta_on: bool) -> str:
@@ -221,7 +221,7 @@ def _profiled(w, r, fin, res):
     r["R"] = w.value_row("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance)
     r["tip"] = w.value_row("T at the tip [degC]",
                            formula=f"={r['tinf']}+{r['theta']}*{_profile_ratio(fin, r, '0')}",
-                           engine=res.tip_temperature, fmt=F_T)
+                           engine=res.temp_tip, fmt=F_T)
 
 
 def _profile_ratio(fin, r, xt: str) -> str:
@@ -351,7 +351,7 @@ def _ann_results(st) -> None:
     r["R"] = w.value_row("R_t,f = 1/G_f [K/W]", formula=f"=1/{r['G']}", engine=res.fin_resistance)
     r["tip"] = w.value_row("T at the fin's outer radius r_2 [degC]",
                            formula=f"={r['tinf']}+{r['theta']}*{_annular_ratio(r, r['r2'], nodes)}",
-                           engine=res.tip_temperature, fmt=F_T)
+                           engine=res.temp_tip, fmt=F_T)
     r["nodes"] = nodes
 
 

@@ -240,9 +240,9 @@ def _fvs_results(state) -> object:
     if not nonlinear or tip == "adiabatic":
         face = (f"=N{node_n}" if tip == "adiabatic" else
                 f"=N{node_n}-{gl}*(N{node_n}-{t_r})*{half}")
-        w.value_row("tip face temperature [degC]", formula=face, engine=fv.tip_temperature, fmt=F_T)
+        w.value_row("tip face temperature [degC]", formula=face, engine=fv.temp_tip, fmt=F_T)
     else:
-        w.stated("tip face temperature [degC] (engine)", fv.tip_temperature, F_T)
+        w.stated("tip face temperature [degC] (engine)", fv.temp_tip, F_T)
     w.stated("heat leaving through the tip face [W] (engine)", fv.heat_loss_tip, F_G)
     w.value_row("relative difference to the closed form (q_FV − q_f)/q_f [-]",
                 formula=f"=({q_fv}-{r['q']})/{r['q']}", fmt=F_E,

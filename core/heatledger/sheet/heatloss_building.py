@@ -75,8 +75,8 @@ def _building_setup(st) -> None:
         (_B_GW, f"G_w groundwater factor ({bi.groundwater}) [-]", float(bi.groundwater_factor),
          "0.00"),
         (_B_TME, "θ_m,e annual mean external temperature [degC]",
-         None if bi.annual_mean_external_temperature is None else
-         float(bi.annual_mean_external_temperature), FMT_T),
+         None if bi.temp_outside_annual_mean is None else
+         float(bi.temp_outside_annual_mean), FMT_T),
     )
     for a1, label, value, fmt in header:
         row = int(a1[1:])
