@@ -11,6 +11,7 @@ from __future__ import annotations
 import csv
 import importlib
 import math
+import re
 from pathlib import Path
 
 import pytest
@@ -168,6 +169,13 @@ def _misnamed_temperatures(args: list[str], units: dict[str, str]) -> list[str]:
 def test_every_temperature_argument_is_named_temp(name):
     args = [a.name for a in REGISTRY[name].args]
     assert not _misnamed_temperatures(args, _glossary_units()), (name, args)
+
+
+@pytest.mark.parametrize("name", sorted(REGISTRY))
+def test_every_argument_description_states_its_unit(name):
+    # every family, including those whose own test file does not check it
+    for a in REGISTRY[name].args:
+        assert re.search(r"\[[^\]]+\]$", a.doc), f"{name}({a.name}) states no unit"
 
 
 def test_the_temperature_rule_catches_an_old_name():
