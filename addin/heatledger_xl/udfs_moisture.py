@@ -7,7 +7,7 @@ raises: a bad argument gives a one-line text naming the argument and the rule.
 - ``HL_PSAT(temp)``: saturation pressure [Pa] (Annex E, over water and ice);
   ``HL_DEWPOINT(pressure)``: its inverse [degC].
 - ``HL_FRSI(layers, ...)``: f_Rsi of the plane construction with R_si = 0.25 (or given);
-  ``HL_FRSI_MIN(temp_inside, temp_outside, rh_inside, critical_rh)``: f_Rsi,min of one month.
+  ``HL_FRSI_MIN(temp_inside, temp_outside, rh_inside, rh_critical)``: f_Rsi,min of one month.
 - ``HL_CONDENSATION(layers, climate, vapour, ...)``: the monthly Glaser calculation as a
   spill: month, planes, amount and water held [kg/m2], and the verdict. ``climate`` is a
   range of 12 rows (January first) and 4 columns: theta_e [degC], phi_e [-], theta_i
@@ -90,8 +90,8 @@ def HL_FRSI(layers, heat_flow=None, rse=None, resistance_inside=None):
      args={"temp_inside": "Inside temperature. [degC]",
            "temp_outside": "Monthly mean outside temperature. [degC]",
            "rh_inside": "Inside relative humidity, fraction 0 to 1. [-]",
-           "critical_rh": _CRIT})
-def HL_FRSI_MIN(temp_inside, temp_outside, rh_inside, critical_rh=None):
+           "rh_critical": _CRIT})
+def HL_FRSI_MIN(temp_inside, temp_outside, rh_inside, rh_critical=None):
     """Minimum temperature factor of one month, f_Rsi,min, for mould (0.8) or surface
     condensation (1.0) (EN ISO 13788, 5.2). [-]"""
     t_e = number("temp_outside", temp_outside, **_TEMP)
@@ -101,8 +101,8 @@ def HL_FRSI_MIN(temp_inside, temp_outside, rh_inside, critical_rh=None):
                               "above temp_outside: f_Rsi,min applies only to months when the "
                               "outside is colder")
     rh = _fraction("rh_inside", rh_inside)
-    crit = number("critical_rh", critical_rh, 0.8, low=0.0, high=100.0, unit="")
-    return surface_factor_min(t_i, t_e, rh, critical_rh=crit)
+    crit = number("rh_critical", rh_critical, 0.8, low=0.0, high=100.0, unit="")
+    return surface_factor_min(t_i, t_e, rh, rh_critical=crit)
 
 
 @udf(FAMILY, returns="spill: month, planes, amount [kg/m2], held [kg/m2]; verdict",

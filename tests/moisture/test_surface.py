@@ -35,12 +35,12 @@ def _by_hand(te, ti, rhi, critical):
 @pytest.mark.parametrize("critical", [0.8, 1.0])
 def test_required_factor_by_hand(critical):
     clim = MonthlyClimate(TE, RHE, 20.0, 0.6)
-    got = surface_factor_required(clim, critical_rh=critical)
+    got = surface_factor_required(clim, rh_critical=critical)
     for m in range(12):
         assert got[m] == pytest.approx(_by_hand(TE[m], 20.0, 0.6, critical),
                                        rel=RTOL_ROUND_OFF)
     # the critical month has the largest requirement
-    check = surface_check(Construction([Layer(0.2, 1.0)]), clim, critical_rh=critical)
+    check = surface_check(Construction([Layer(0.2, 1.0)]), clim, rh_critical=critical)
     assert check.critical_month == int(np.argmax(got))
 
 
@@ -81,6 +81,6 @@ def test_warm_months_do_not_apply():
 def test_bad_critical_rh():
     clim = MonthlyClimate(TE, RHE, 20.0, 0.5)
     with pytest.raises(HeatLedgerError, match="looks like a percentage"):
-        surface_factor_required(clim, critical_rh=80)
+        surface_factor_required(clim, rh_critical=80)
     with pytest.raises(HeatLedgerError, match="must be from 0.5 to 1"):
-        surface_factor_required(clim, critical_rh=0.0)
+        surface_factor_required(clim, rh_critical=0.0)

@@ -71,7 +71,7 @@ def results(project) -> dict:
         s, g = e.surface, e.interstitial
         out.append({
             "name": e.name, "construction": e.construction.name, "climate": e.climate.name,
-            "surface": {"surface_factor": s.surface_factor, "critical_rh": s.critical_rh,
+            "surface": {"surface_factor": s.surface_factor, "rh_critical": s.rh_critical,
                         "resistance_inside": s.resistance_inside,
                         "required": [None if v != v else float(v) for v in s.required],
                         "passes": [bool(p) for p in s.passes],

@@ -15,7 +15,7 @@ Schema (see :mod:`heatledger.moisture.schema` for every key)::
     name = "External wall W1"
     construction = "W1 external wall"
     climate = "Demo lowland site (invented)"
-    critical_rh = 0.8              # 0.8 mould (default), 1.0 surface condensation
+    rh_critical = 0.8              # 0.8 mould (default), 1.0 surface condensation
     resistance_inside = 0.25       # m2 K/W, inside surface resistance of the surface check
 
 Every problem is reported with its key path (``climates[1].months[3].rh_outside``).
@@ -47,7 +47,7 @@ class MoistureEntry:
     name : str
     construction : heatledger.Construction
     climate : MonthlyClimate
-    critical_rh : float
+    rh_critical : float
         Critical surface relative humidity. [-]
     resistance_inside : float
         Inside surface resistance of the surface check. [m2 K/W]
@@ -62,7 +62,7 @@ class MoistureEntry:
     name: str
     construction: object
     climate: MonthlyClimate
-    critical_rh: float
+    rh_critical: float
     resistance_inside: float
     where: str
     notes: str = ""
@@ -72,7 +72,7 @@ class MoistureEntry:
     def surface(self):
         """The surface humidity check (:class:`~heatledger.moisture.SurfaceCheck`)."""
         f = None if self.junction is None else self.junction.result.surface_factor
-        return surface_check(self.construction, self.climate, critical_rh=self.critical_rh,
+        return surface_check(self.construction, self.climate, rh_critical=self.rh_critical,
                              resistance_inside=self.resistance_inside, surface_factor=f)
 
     @cached_property
@@ -209,11 +209,11 @@ def checks_from_dict(data, climates, constructions, problems, junctions=None) ->
         con = _named(v["construction"], constructions, "construction", where, problems)
         clim = _named(v["climate"], climates, "climate", where, problems)
         junction = _named(v["junction"], junctions, "junction", where, problems)
-        if v["critical_rh"] is not None:
+        if v["rh_critical"] is not None:
             try:
-                _critical_rh(v["critical_rh"])
+                _critical_rh(v["rh_critical"])
             except HeatLedgerError as exc:
-                problems.append((f"{where}.critical_rh", error_text(exc)))
+                problems.append((f"{where}.rh_critical", error_text(exc)))
         if con is not None:
             try:
                 vapour_columns(con)
@@ -225,7 +225,7 @@ def checks_from_dict(data, climates, constructions, problems, junctions=None) ->
                 v["junction"] is not None and junction is None):
             continue
         seen.add(v["name"].lower())
-        out.append(MoistureEntry(v["name"], con, clim, v["critical_rh"],
+        out.append(MoistureEntry(v["name"], con, clim, v["rh_critical"],
                                  v["resistance_inside"], where, v["notes"] or "", junction))
     return out
 

@@ -73,7 +73,7 @@ MOISTURE_TABLE = Table(
         Column("junction", "Junction (surface check)", "", "ref",
                "a junction whose f_Rsi the surface check uses instead of the plane "
                "construction's (Junctions sheet)"),
-        Column("critical_rh", "Critical φ_si", "-", "number",
+        Column("rh_critical", "Critical φ_si", "-", "number",
                "critical surface relative humidity: 0.8 mould, 1.0 surface condensation",
                default=0.8),
         Column("resistance_inside", "R_si of the check", "m2 K/W", "number",

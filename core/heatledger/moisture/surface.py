@@ -39,25 +39,25 @@ MIN_CRITICAL_RH = 0.5
 
 
 def _critical_rh(value) -> float:
-    v = finite("critical_rh", value)
+    v = finite("rh_critical", value)
     if 1.0 < v <= 100.0:
-        raise HeatLedgerError(f"critical_rh = {v:g} looks like a percentage: give it as a "
+        raise HeatLedgerError(f"rh_critical = {v:g} looks like a percentage: give it as a "
                               f"fraction ({v / 100.0:g})")
     if not MIN_CRITICAL_RH <= v <= 1.0:
-        raise HeatLedgerError(f"critical_rh = {v:g}: the critical surface relative humidity "
+        raise HeatLedgerError(f"rh_critical = {v:g}: the critical surface relative humidity "
                               f"must be from {MIN_CRITICAL_RH:g} to 1 (0.8 mould, 1.0 "
                               "condensation)")
     return v
 
 
-def surface_factor_required(climate, *, critical_rh=CRITICAL_RH_MOULD) -> np.ndarray:
+def surface_factor_required(climate, *, rh_critical=CRITICAL_RH_MOULD) -> np.ndarray:
     """The minimum temperature factor ``f_Rsi,min`` of each month.
 
     Parameters
     ----------
     climate : MonthlyClimate
         Twelve monthly means, January first. [-]
-    critical_rh : float
+    rh_critical : float
         Critical relative humidity at the surface: 0.8 (mould) or 1.0 (condensation). [-]
 
     Returns
@@ -71,11 +71,11 @@ def surface_factor_required(climate, *, critical_rh=CRITICAL_RH_MOULD) -> np.nda
     [source: iso13788-surface, 5.2 and 5.3 (f_Rsi,min, critical month)].
     """
     return surface_factor_min(climate.temp_inside, climate.temp_outside, climate.rh_inside,
-                              critical_rh=critical_rh)
+                              rh_critical=rh_critical)
 
 
 def surface_factor_min(temp_inside, temp_outside, rh_inside, *,
-                       critical_rh=CRITICAL_RH_MOULD):
+                       rh_critical=CRITICAL_RH_MOULD):
     """``f_Rsi,min = (theta_si,min - theta_e)/(theta_i - theta_e)`` with ``theta_si,min`` the
     dew point of ``phi_i p_sat(theta_i) / phi_si,cr``, for one month or arrays of months.
 
@@ -87,7 +87,7 @@ def surface_factor_min(temp_inside, temp_outside, rh_inside, *,
         Monthly mean outside temperature. [degC]
     rh_inside : float or array_like
         Inside relative humidity as a fraction 0..1. [-]
-    critical_rh : float
+    rh_critical : float
         0.8 (mould) or 1.0 (surface condensation). [-]
 
     Returns
@@ -101,7 +101,7 @@ def surface_factor_min(temp_inside, temp_outside, rh_inside, *,
     ----------
     [source: iso13788-surface, 5.2]; [source: iso13788-saturation, Annex E].
     """
-    phi = _critical_rh(critical_rh)
+    phi = _critical_rh(rh_critical)
     t_e = np.asarray(temp_outside, dtype=float)
     t_i = np.asarray(temp_inside, dtype=float)
     if np.any(np.asarray(rh_inside, dtype=float) <= 0.0):
@@ -130,7 +130,7 @@ class SurfaceCheck:
         f_Rsi > f_Rsi,min (True where the check does not apply). [-]
     temp_surface_min, temp_surface : ndarray (12,)
         Lowest acceptable inside surface temperature and the construction's. [degC]
-    critical_rh, resistance_inside : float
+    rh_critical, resistance_inside : float
         Settings of the check. [-], [m2 K/W]
 
     References
@@ -144,7 +144,7 @@ class SurfaceCheck:
     passes: np.ndarray
     temp_surface_min: np.ndarray
     temp_surface: np.ndarray
-    critical_rh: float
+    rh_critical: float
     resistance_inside: float
 
     @property
@@ -155,7 +155,7 @@ class SurfaceCheck:
     @property
     def verdict(self) -> str:
         """One line for reports. [-]"""
-        what = "mould" if self.critical_rh < 1.0 else "surface condensation"
+        what = "mould" if self.rh_critical < 1.0 else "surface condensation"
         if self.critical_month is None:
             return "the outside is never colder than the inside: no surface check applies"
         f_max = self.required[self.critical_month]
@@ -164,7 +164,7 @@ class SurfaceCheck:
                 f"{f_max:.3f} in {MONTH_NAMES[self.critical_month]} (critical month)")
 
 
-def surface_check(construction, climate, *, critical_rh=CRITICAL_RH_MOULD,
+def surface_check(construction, climate, *, rh_critical=CRITICAL_RH_MOULD,
                   resistance_inside=RESISTANCE_INSIDE_CHECK, surface_factor=None):
     """Month-by-month surface check of a construction (or of a junction's f_Rsi).
 
@@ -175,7 +175,7 @@ def surface_check(construction, climate, *, critical_rh=CRITICAL_RH_MOULD,
         ``surface_factor`` is given. [-]
     climate : MonthlyClimate
         Twelve monthly means, January first. [-]
-    critical_rh : float
+    rh_critical : float
         0.8 (mould) or 1.0 (surface condensation). [-]
     resistance_inside : float
         Inside surface resistance of the check. [m2 K/W]
@@ -190,7 +190,7 @@ def surface_check(construction, climate, *, critical_rh=CRITICAL_RH_MOULD,
     ----------
     [source: iso13788-surface, 5.2 and 5.3].
     """
-    required = surface_factor_required(climate, critical_rh=critical_rh)
+    required = surface_factor_required(climate, rh_critical=rh_critical)
     if surface_factor is None:
         f = construction.surface_factor(resistance_inside)
     else:
@@ -203,5 +203,5 @@ def surface_check(construction, climate, *, critical_rh=CRITICAL_RH_MOULD,
     return SurfaceCheck(
         required=required, surface_factor=float(f), critical_month=critical,
         passes=passes, temp_surface_min=t_e + required * (t_i - t_e),
-        temp_surface=t_e + f * (t_i - t_e), critical_rh=_critical_rh(critical_rh),
+        temp_surface=t_e + f * (t_i - t_e), rh_critical=_critical_rh(rh_critical),
         resistance_inside=float(resistance_inside))

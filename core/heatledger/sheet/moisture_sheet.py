@@ -265,10 +265,10 @@ def surface_section(st) -> None:
         The sheet's shared state from :func:`moisture_setup`. [-]
     """
     w, s = st.w, st.surf
-    what = "mould growth" if s.critical_rh < 1.0 else "surface condensation"
+    what = "mould growth" if s.rh_critical < 1.0 else "surface condensation"
     w.start("surface", f"Surface humidity: {what} (EN ISO 13788, 5)")
     phi = w.value_row("φ_si,cr, critical surface relative humidity [-]",
-                      value=s.critical_rh, fmt="0.00")
+                      value=s.rh_critical, fmt="0.00")
     rsi = w.value_row("R_si of the check [m2 K/W]", value=s.resistance_inside, fmt="0.00",
                       note="0.25 opaque elements, 0.13 glazing and frames")
     junction = st.entry.junction
